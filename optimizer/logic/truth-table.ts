@@ -1,0 +1,163 @@
+// Multi-output Boolean functions as bit-parallel truth tables with a don't-care set.
+// Minterm m assigns input i the bit (m >> (n-1-i)) & 1: inputs[0] is the most significant,
+// as in the textbooks' Σm notation and the column order of a Berkeley PLA.
+import { InputError, InternalError } from '../errors';
+
+/** Largest input count a truth table is built for (2^20 minterms = 128 KiB per bitset). */
+export const MAX_TABLE_INPUTS = 20;
+
+/** One output: its on-set and don't-care set as bitsets over the 2^n minterms. */
+export interface OutputTable {
+  name: string;
+  on: Uint32Array;
+  dc: Uint32Array;
+}
+
+export interface TruthTable {
+  inputs: string[];
+  outputs: OutputTable[];
+}
+
+export function words(n: number): number {
+  return Math.max(1, Math.ceil(2 ** n / 32));
+}
+
+export function getBit(set: Uint32Array, m: number): boolean {
+  return ((set[m >>> 5] >>> (m & 31)) & 1) === 1;
+}
+
+export function setBit(set: Uint32Array, m: number): void {
+  set[m >>> 5] |= 1 << (m & 31);
+}
+
+export function clearBit(set: Uint32Array, m: number): void {
+  set[m >>> 5] &= ~(1 << (m & 31));
+}
+
+function checkInputs(inputs: string[]): void {
+  if (inputs.length > MAX_TABLE_INPUTS) {
+    throw InputError.at(
+      'logic.too-many-inputs',
+      `a truth table over ${inputs.length} inputs is too large (limit ${MAX_TABLE_INPUTS})`,
+    );
+  }
+  if (new Set(inputs).size !== inputs.length) {
+    throw InputError.at('logic.duplicate-input', `duplicate input names in ${inputs.join(', ')}`);
+  }
+}
+
+/** Builds a one-output table from minterm lists, as in F = Σm(...) + d(...). */
+export function fromMinterms(
+  inputs: string[],
+  outputs: { name: string; on: number[]; dc?: number[] }[],
+): TruthTable {
+  checkInputs(inputs);
+  const n = inputs.length;
+  const size = 2 ** n;
+  return {
+    inputs: [...inputs],
+    outputs: outputs.map(({ name, on, dc = [] }) => {
+      const o: OutputTable = { name, on: new Uint32Array(words(n)), dc: new Uint32Array(words(n)) };
+      for (const m of dc) {
+        if (!Number.isInteger(m) || m < 0 || m >= size) {
+          throw InputError.at('logic.bad-minterm', `don't-care minterm ${m} is outside 0..${size - 1}`);
+        }
+        setBit(o.dc, m);
+      }
+      for (const m of on) {
+        if (!Number.isInteger(m) || m < 0 || m >= size) {
+          throw InputError.at('logic.bad-minterm', `minterm ${m} is outside 0..${size - 1}`);
+        }
+        if (getBit(o.dc, m)) {
+          throw InputError.at('logic.on-and-dc', `minterm ${m} of ${name} is both in the on-set and a don't-care`);
+        }
+        setBit(o.on, m);
+      }
+      return o;
+    }),
+  };
+}
+
+/**
+ * Builds a table by evaluating a function of the input assignment. `care(m)` false makes the
+ * minterm a don't-care for every output (an assumption that excludes it).
+ */
+export function fromFunction(
+  inputs: string[],
+  outputNames: string[],
+  evaluate: (bits: number[], m: number) => boolean[],
+  care?: (bits: number[], m: number) => boolean,
+): TruthTable {
+  checkInputs(inputs);
+  const n = inputs.length;
+  const outs: OutputTable[] = outputNames.map((name) => ({
+    name,
+    on: new Uint32Array(words(n)),
+    dc: new Uint32Array(words(n)),
+  }));
+  const bits = new Array<number>(n).fill(0);
+  for (let m = 0; m < 2 ** n; m++) {
+    for (let i = 0; i < n; i++) bits[i] = (m >>> (n - 1 - i)) & 1;
+    if (care && !care(bits, m)) {
+      for (const o of outs) setBit(o.dc, m);
+      continue;
+    }
+    const values = evaluate(bits, m);
+    if (values.length !== outs.length) {
+      throw new InternalError(`truth table evaluator returned ${values.length} values for ${outs.length} outputs`);
+    }
+    values.forEach((v, k) => {
+      if (v) setBit(outs[k].on, m);
+    });
+  }
+  return { inputs: [...inputs], outputs: outs };
+}
+
+/** Minterms in a bitset, ascending. */
+export function mintermsOf(set: Uint32Array, n: number): number[] {
+  const out: number[] = [];
+  const size = 2 ** n;
+  for (let w = 0; w < set.length; w++) {
+    let word = set[w];
+    while (word !== 0) {
+      const low = word & -word;
+      const m = w * 32 + (31 - Math.clz32(low));
+      if (m < size) out.push(m);
+      word ^= low;
+    }
+  }
+  return out;
+}
+
+export function popcount(set: Uint32Array): number {
+  let c = 0;
+  for (let w = 0; w < set.length; w++) {
+    let x = set[w];
+    x -= (x >>> 1) & 0x55555555;
+    x = (x & 0x33333333) + ((x >>> 2) & 0x33333333);
+    c += (((x + (x >>> 4)) & 0x0f0f0f0f) * 0x01010101) >>> 24;
+  }
+  return c;
+}
+
+/** Mask of the valid minterm bits (only the last word of a table with n < 5 is partial). */
+export function fullSet(n: number): Uint32Array {
+  const s = new Uint32Array(words(n));
+  if (n >= 5) s.fill(0xffffffff);
+  else s[0] = 2 ** 2 ** n - 1;
+  return s;
+}
+
+/** Care-set classification of one output: constant 0, constant 1, or a real function. */
+export function constantValue(o: OutputTable, n: number): 0 | 1 | undefined {
+  const all = fullSet(n);
+  let anyOn = false;
+  let allOnOrDc = true;
+  for (let w = 0; w < all.length; w++) {
+    if (o.on[w] !== 0) anyOn = true;
+    if (((o.on[w] | o.dc[w]) & all[w]) !== all[w]) allOnOrDc = false;
+  }
+  if (!anyOn) return 0;
+  if (allOnOrDc) return 1;
+  return undefined;
+}
