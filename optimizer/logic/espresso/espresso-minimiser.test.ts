@@ -1,0 +1,155 @@
+// Proves the Espresso bridge gives covers that equal the function on its care set, reaches the
+// worked examples' minimal counts, never beats the exact minimiser, and survives a misbehaving child.
+import path from 'node:path';
+import { afterAll, describe, expect, it } from 'vitest';
+import fc from 'fast-check';
+import { coverLiterals, coverMismatch, coverToText } from '../cubes';
+import { exactMinimiser } from '../minimiser';
+import { fromMinterms } from '../truth-table';
+import { WORKED_EXAMPLES, parityTable } from '../worked-examples';
+import { createEspressoMinimiser } from './espresso-minimiser';
+import { buildPla, plaProblem } from './pla';
+import { EspressoPool, MinimiserError } from './pool';
+
+const fixture = (name: string) => path.join(__dirname, 'fixtures', name);
+const espresso = createEspressoMinimiser({ size: 2, timeoutMs: 10_000 });
+afterAll(() => espresso.close());
+
+describe('worked examples through Espresso and Quine–McCluskey', () => {
+  for (const ex of WORKED_EXAMPLES) {
+    for (const m of [espresso, exactMinimiser]) {
+      it(`${m.name}: ${ex.name} reaches ${ex.terms.join(',')} terms (${ex.source})`, async () => {
+        const { cover } = await m.minimiseCover(ex.table);
+        const n = ex.table.inputs.length;
+        cover.outputs.forEach((o, k) => {
+          expect(coverMismatch(o.cover, ex.table.outputs[k], n), `${o.name} = ${coverToText(o.cover, cover.inputs)}`).toBeUndefined();
+          expect(o.cover.length, o.name).toBe(ex.terms[k]);
+          if (ex.literals) expect(coverLiterals(o.cover), o.name).toBe(ex.literals[k]);
+        });
+      });
+    }
+  }
+
+  it('BCD to seven-segment totals 25 terms with Espresso', async () => {
+    // Mano & Ciletti, Digital Design (from memory): 25 terms in all.
+    const { cover } = await espresso.minimiseCover(WORKED_EXAMPLES[0].table);
+    expect(cover.outputs.reduce((s, o) => s + o.cover.length, 0)).toBe(25);
+  });
+});
+
+describe('Espresso against the exact minimiser on random functions', () => {
+  it('is right on the care set and never uses fewer terms than the exact cover', async () => {
+    await fc.assert(
+      fc.asyncProperty(
+        fc.integer({ min: 1, max: 6 }).chain((n) =>
+          fc.tuple(fc.constant(n), fc.array(fc.constantFrom(0, 1, 1, 2), { minLength: 2 ** n, maxLength: 2 ** n })),
+        ),
+        async ([n, cells]) => {
+          const on = cells.flatMap((c, m) => (c === 1 ? [m] : []));
+          const dc = cells.flatMap((c, m) => (c === 2 ? [m] : []));
+          const t = fromMinterms(Array.from({ length: n }, (_, i) => `i${i}`), [{ name: 'F', on, dc }]);
+          const [e, q] = await Promise.all([espresso.minimiseCover(t), exactMinimiser.minimiseCover(t)]);
+          expect(coverMismatch(e.cover.outputs[0].cover, t.outputs[0], n)).toBeUndefined();
+          expect(coverMismatch(q.cover.outputs[0].cover, t.outputs[0], n)).toBeUndefined();
+          expect(e.cover.outputs[0].cover.length).toBeGreaterThanOrEqual(q.cover.outputs[0].cover.length);
+          expect(e.methods[0]).not.toBe('exact-fallback');
+        },
+      ),
+      { numRuns: 60 },
+    );
+  });
+});
+
+describe('isolation of the native minimiser', () => {
+  it('answers constant functions without starting a child', async () => {
+    const m = createEspressoMinimiser();
+    try {
+      const t = fromMinterms(['a', 'b', 'c'], [
+        { name: 'zero', on: [], dc: [0, 1] },
+        { name: 'one', on: [0, 1, 2, 3, 4, 5, 6], dc: [7] },
+      ]);
+      const r = await m.minimiseCover(t);
+      expect(r.methods).toEqual(['constant', 'constant']);
+      expect(r.cover.outputs[0].cover).toEqual([]);
+      expect(r.cover.outputs[1].cover).toEqual([{ care: 0, value: 0 }]);
+      expect(m.pool.spawned).toBe(0);
+    } finally {
+      m.close();
+    }
+  });
+
+  it('refuses to build or send a PLA without on-set rows', () => {
+    expect(plaProblem(['.i 2', '.o 1', '.e'])).toMatch(/no on-set rows/);
+    expect(plaProblem(['.i 2', '.o 1', '.type fd', '00 -', '.e'])).toMatch(/no on-set rows/);
+    expect(plaProblem(['.i 2', '.o 1', '1x 1', '.e'])).toMatch(/not a row/);
+    expect(plaProblem(['.i 2', '.o 1', '10 1'])).toMatch(/end with/);
+    const t = fromMinterms(['a', 'b'], [{ name: 'F', on: [3], dc: [1] }]);
+    expect(plaProblem(buildPla(t.outputs[0], 2))).toBeUndefined();
+  });
+
+  it('kills a child that exceeds the timeout and serves the next request with a fresh one', async () => {
+    const pool = new EspressoPool({ size: 1, workerPath: fixture('hang-worker.cjs') });
+    try {
+      await expect(pool.run(['.i 1', '.o 1', '1 1', '.e'], 200)).rejects.toMatchObject({ reason: 'timeout' });
+      expect(pool.liveChildren).toBe(0);
+      await expect(pool.run(['.i 1', '.o 1', '1 1', '.e'], 100)).rejects.toBeInstanceOf(MinimiserError);
+      expect(pool.spawned).toBe(2);
+    } finally {
+      pool.close();
+    }
+  });
+
+  it('reports a child that exits mid-request and restarts it', async () => {
+    const pool = new EspressoPool({ size: 1, workerPath: fixture('exiting-worker.cjs') });
+    try {
+      const err = await pool.run(['.i 1', '.o 1', '1 1', '.e'], 5000).catch((e: unknown) => e);
+      expect(err).toMatchObject({ reason: 'crashed' });
+      expect(String((err as Error).message)).toMatch(/code 3.*cannot parse input/);
+      await expect(pool.run(['.i 1', '.o 1', '1 1', '.e'], 5000)).rejects.toMatchObject({ reason: 'crashed' });
+      expect(pool.spawned).toBe(2);
+    } finally {
+      pool.close();
+    }
+  });
+
+  it('survives the real native exit on malformed input, then answers correctly', async () => {
+    const m = createEspressoMinimiser({ size: 1 });
+    try {
+      // Sent straight to the pool, bypassing validation: the native code calls exit() on it.
+      const err = await m.pool.run(['.i 2', '.o 1', '.type zz', '11 1', '.e'], 5000).catch((e: unknown) => e);
+      expect(err).toMatchObject({ reason: 'crashed' });
+      expect(String((err as Error).message)).toMatch(/unknown type/);
+      expect(plaProblem(['.i 2', '.o 1', '.type zz', '11 1', '.e'])).toMatch(/not a row/);
+      const t = fromMinterms(['a', 'b'], [{ name: 'F', on: [2, 3] }]);
+      const r = await m.minimiseCover(t);
+      expect(coverToText(r.cover.outputs[0].cover, ['a', 'b'])).toBe('a');
+    } finally {
+      m.close();
+    }
+  });
+
+  it('does not believe a wrong cover: exact fallback for small functions, an error beyond', async () => {
+    const liar = createEspressoMinimiser({ size: 1, workerPath: fixture('lying-worker.cjs') });
+    try {
+      const small = fromMinterms(['a', 'b', 'c'], [{ name: 'F', on: [1, 2, 4] }]);
+      const r = await liar.minimiseCover(small);
+      expect(r.methods).toEqual(['exact-fallback']);
+      expect(coverMismatch(r.cover.outputs[0].cover, small.outputs[0], 3)).toBeUndefined();
+      await expect(liar.minimiseCover(parityTable(11))).rejects.toMatchObject({ reason: 'mismatch' });
+    } finally {
+      liar.close();
+    }
+  });
+
+  it('queues more requests than children and answers all of them', async () => {
+    const m = createEspressoMinimiser({ size: 2 });
+    try {
+      const tables = [3, 4, 5, 6, 7].map((n) => parityTable(n));
+      const results = await Promise.all(tables.map((t) => m.minimiseCover(t)));
+      results.forEach((r, k) => expect(r.cover.outputs[0].cover).toHaveLength(2 ** (k + 2)));
+      expect(m.pool.spawned).toBeLessThanOrEqual(2);
+    } finally {
+      m.close();
+    }
+  });
+});

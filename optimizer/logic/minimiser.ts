@@ -1,0 +1,42 @@
+// The two-level minimiser seen by the pure engine: an interface the rules take as a parameter, so
+// the server and CLI can pass the Espresso process pool and tests or the browser the exact one.
+import type { MultiCover } from './cubes';
+import { MAX_QM_INPUTS, minimiseOutputQm } from './quine-mccluskey';
+import { constantValue, type TruthTable } from './truth-table';
+import { InputError } from '../errors';
+
+/** How each output's cover was obtained. */
+export type MinimiseMethod = 'constant' | 'espresso' | 'exact' | 'exact-fallback';
+
+export interface MinimiseResult {
+  cover: MultiCover;
+  /** One per output, in output order. */
+  methods: MinimiseMethod[];
+}
+
+export interface MinimiseOptions {
+  /** Per-output limit on the minimiser's run (the process pool kills a child past it). */
+  timeoutMs?: number;
+}
+
+export interface Minimiser {
+  readonly name: string;
+  minimiseCover(fn: TruthTable, options?: MinimiseOptions): Promise<MinimiseResult>;
+}
+
+/** Exact Quine–McCluskey minimiser: pure and in-process, for small functions. */
+export const exactMinimiser: Minimiser = {
+  name: 'quine-mccluskey',
+  async minimiseCover(fn) {
+    const n = fn.inputs.length;
+    if (n > MAX_QM_INPUTS) {
+      throw InputError.at('logic.qm-too-large', `exact minimisation is limited to ${MAX_QM_INPUTS} inputs, got ${n}`);
+    }
+    const methods: MinimiseMethod[] = [];
+    const outputs = fn.outputs.map((o) => {
+      methods.push(constantValue(o, n) === undefined ? 'exact' : 'constant');
+      return { name: o.name, cover: minimiseOutputQm(o, n).cover };
+    });
+    return { cover: { inputs: [...fn.inputs], outputs }, methods };
+  },
+};
