@@ -1,0 +1,275 @@
+// Element cards of a deck (R C D Q M V I X) turned into devices and instances of the current cell,
+// with the node-count, model and value checks a simulator would make, each located at its token.
+import type { Diagnostic } from '../../errors';
+import type { Cell, Device, DeviceKind, Model, ParamValue, SourceLoc } from '../../netlist/ir';
+import type { Card, Token } from './lines';
+import { netName, numericValue, valueOrText } from './values';
+
+export interface ElementContext {
+  models: Record<string, Model>;
+  params: Record<string, number>;
+  report: (severity: Diagnostic['severity'], code: string, message: string, loc?: SourceLoc) => void;
+  at: (t: { line: number; col: number }) => SourceLoc;
+}
+
+const WAVEFORMS = new Set(['PULSE', 'PWL', 'SIN', 'EXP', 'SFFM', 'AM', 'TRNOISE', 'TRRANDOM']);
+
+const ELEMENT_NAMES: Record<string, string> = {
+  L: 'inductors',
+  K: 'coupled inductors',
+  B: 'behavioural sources',
+  E: 'controlled sources',
+  F: 'controlled sources',
+  G: 'controlled sources',
+  H: 'controlled sources',
+  J: 'JFETs',
+  Z: 'MESFETs',
+  S: 'switches',
+  W: 'switches',
+  T: 'transmission lines',
+  O: 'transmission lines',
+  U: 'transmission lines',
+  Y: 'transmission lines',
+  A: 'code models',
+  N: 'device models',
+  P: 'coupled lines',
+};
+
+interface Args {
+  positional: Token[];
+  keyed: { key: Token; value: Token }[];
+  ok: boolean;
+}
+
+/** Splits the tokens after the element name into positional tokens and NAME=value pairs. */
+function splitArgs(tokens: Token[], ctx: ElementContext): Args {
+  const positional: Token[] = [];
+  const keyed: Args['keyed'] = [];
+  for (let i = 1; i < tokens.length; i++) {
+    const t = tokens[i];
+    if (tokens[i + 1]?.text === '=') {
+      const value = tokens[i + 2];
+      if (!value || value.text === '=' || value.text === '(' || value.text === ')') {
+        ctx.report('error', 'spice.param-syntax', `${t.text}= needs a value`, ctx.at(t));
+        return { positional, keyed, ok: false };
+      }
+      keyed.push({ key: t, value });
+      i += 2;
+      continue;
+    }
+    if (t.text === '=' || t.text === '(' || t.text === ')') {
+      ctx.report('error', 'spice.syntax', `unexpected '${t.text}'`, ctx.at(t));
+      return { positional, keyed, ok: false };
+    }
+    if (keyed.length > 0) {
+      ctx.report('error', 'spice.syntax', `unexpected '${t.text}' after NAME=value parameters`, ctx.at(t));
+      return { positional, keyed, ok: false };
+    }
+    positional.push(t);
+  }
+  return { positional, keyed, ok: true };
+}
+
+function keyedParams(args: Args, ctx: ElementContext): Record<string, ParamValue> {
+  const p: Record<string, ParamValue> = {};
+  for (const { key, value } of args.keyed) p[key.text.toUpperCase()] = valueOrText(value.text, ctx.params);
+  return p;
+}
+
+function value(t: Token, ctx: ElementContext, what: string): number | undefined {
+  const v = numericValue(t.text, ctx.params);
+  if (v === undefined) ctx.report('error', 'spice.bad-number', `${what}: '${t.text}' is not a number or a known .param`, ctx.at(t));
+  return v;
+}
+
+export function readElement(card: Card, cell: Cell, ctx: ElementContext): void {
+  const first = card.tokens[0];
+  const name = first.text.toUpperCase();
+  const letter = name[0];
+  const loc = ctx.at(first);
+  switch (letter) {
+    case 'R':
+    case 'C':
+      return passive(card, cell, ctx, name, letter === 'R' ? 'resistor' : 'capacitor', loc);
+    case 'D':
+    case 'Q':
+    case 'M':
+      return semiconductor(card, cell, ctx, name, letter, loc);
+    case 'V':
+    case 'I':
+      return source(card, cell, ctx, name, letter === 'V' ? 'vsource' : 'isource', loc);
+    case 'X':
+      return instance(card, cell, ctx, name, loc);
+    default: {
+      const what = ELEMENT_NAMES[letter];
+      ctx.report(
+        'error',
+        'spice.unsupported-element',
+        what ? `${what} (${name}) are not supported; elements R C D Q M V I X are` : `unknown element ${name}: element names start with R C D Q M V I or X`,
+        loc,
+      );
+    }
+  }
+}
+
+function passive(card: Card, cell: Cell, ctx: ElementContext, name: string, kind: DeviceKind, loc: SourceLoc): void {
+  const args = splitArgs(card.tokens, ctx);
+  if (!args.ok) return;
+  const p = args.positional;
+  if (p.length < 2) {
+    ctx.report('error', 'spice.node-count', `${name} needs 2 nodes, found ${p.length}`, loc);
+    return;
+  }
+  const params = keyedParams(args, ctx);
+  const key = kind === 'resistor' ? 'R' : 'C';
+  let v: number | undefined;
+  if (p.length >= 3) {
+    v = value(p[2], ctx, `${name} value`);
+    if (v === undefined) return;
+    if (p.length > 3) {
+      ctx.report('error', 'spice.syntax', `unexpected '${p[3].text}' after the value of ${name}`, ctx.at(p[3]));
+      return;
+    }
+  } else if (typeof params[key] === 'number') {
+    v = params[key] as number;
+    delete params[key];
+  } else {
+    ctx.report('error', 'spice.missing-value', `${name} needs a value`, loc);
+    return;
+  }
+  cell.devices.push({ name, kind, terminals: [netName(p[0].text), netName(p[1].text)], value: v, params, loc });
+}
+
+const SEMI = {
+  D: { nodes: [2], types: ['d'], what: 'a diode (D) model' },
+  Q: { nodes: [3, 4], types: ['npn', 'pnp'], what: 'an npn or pnp model' },
+  M: { nodes: [4], types: ['nmos', 'pmos'], what: 'an nmos or pmos model' },
+} as const;
+
+function semiconductor(card: Card, cell: Cell, ctx: ElementContext, name: string, letter: 'D' | 'Q' | 'M', loc: SourceLoc): void {
+  const args = splitArgs(card.tokens, ctx);
+  if (!args.ok) return;
+  const spec = SEMI[letter];
+  const p = args.positional;
+  const isModel = (t: Token | undefined) => t !== undefined && ctx.models[t.text.toUpperCase()] !== undefined;
+  let nodes = -1;
+  for (const n of spec.nodes) if (isModel(p[n])) nodes = n;
+  const counts = spec.nodes.join(' or ');
+  if (nodes < 0) {
+    const min = spec.nodes[0];
+    if (p.length <= min) {
+      // Too few tokens: the last one written is taken as the model name.
+      ctx.report('error', 'spice.node-count', `${name} needs ${counts} nodes, found ${Math.max(0, p.length - 1)}`, loc);
+    } else {
+      const candidate = spec.nodes
+        .map((n) => p[n])
+        .filter((t): t is Token => t !== undefined && numericValue(t.text, ctx.params) === undefined)
+        .pop() ?? p[min];
+      ctx.report('error', 'spice.unknown-model', `unknown model ${candidate.text.toUpperCase()} (used by ${name})`, ctx.at(candidate));
+    }
+    return;
+  }
+  const modelTok = p[nodes];
+  const model = ctx.models[modelTok.text.toUpperCase()];
+  if (!(spec.types as readonly string[]).includes(model.type)) {
+    ctx.report('error', 'spice.model-type', `${name} needs ${spec.what}; ${model.name} is a ${model.type} model`, ctx.at(modelTok));
+    return;
+  }
+  const params = keyedParams(args, ctx);
+  const tail = p.slice(nodes + 1);
+  for (const t of tail) {
+    const upper = t.text.toUpperCase();
+    if (upper === 'OFF') params.OFF = 1;
+    else if (letter !== 'M' && params.AREA === undefined && numericValue(t.text, ctx.params) !== undefined) params.AREA = numericValue(t.text, ctx.params)!;
+    else {
+      ctx.report('error', 'spice.syntax', `unexpected '${t.text}' after the model of ${name}`, ctx.at(t));
+      return;
+    }
+  }
+  const kind: DeviceKind = letter === 'D' ? 'diode' : (model.type as DeviceKind);
+  const terminals = p.slice(0, nodes).map((t) => netName(t.text));
+  const device: Device = { name, kind, terminals, model: model.name, params, loc };
+  cell.devices.push(device);
+}
+
+function source(card: Card, cell: Cell, ctx: ElementContext, name: string, kind: 'vsource' | 'isource', loc: SourceLoc): void {
+  const t = card.tokens;
+  if (t.length < 3 || t[1].text === '(' || t[2].text === '(') {
+    ctx.report('error', 'spice.node-count', `${name} needs 2 nodes, found ${Math.max(0, Math.min(t.length, 3) - 1)}`, loc);
+    return;
+  }
+  const terminals = [netName(t[1].text), netName(t[2].text)];
+  const params: Record<string, ParamValue> = {};
+  let dc: number | undefined;
+  let waveform: string | undefined;
+  let i = 3;
+  while (i < t.length) {
+    const word = t[i].text.toUpperCase();
+    if (word === 'DC') {
+      if (!t[i + 1]) {
+        ctx.report('error', 'spice.missing-value', `${name}: DC needs a value`, ctx.at(t[i]));
+        return;
+      }
+      dc = value(t[i + 1], ctx, `${name} DC value`);
+      if (dc === undefined) return;
+      i += 2;
+    } else if (word === 'AC') {
+      const parts: string[] = [];
+      i++;
+      while (i < t.length && numericValue(t[i].text, ctx.params) !== undefined && parts.length < 2) parts.push(t[i++].text);
+      params.AC = parts.join(' ') || '1';
+    } else if (WAVEFORMS.has(word)) {
+      const start = t[i];
+      i++;
+      const args: string[] = [];
+      if (t[i]?.text === '(') {
+        i++;
+        while (i < t.length && t[i].text !== ')') args.push(t[i++].text);
+        if (t[i]?.text !== ')') {
+          ctx.report('error', 'spice.syntax', `${word}( has no closing )`, ctx.at(start));
+          return;
+        }
+        i++;
+      } else {
+        while (i < t.length && !WAVEFORMS.has(t[i].text.toUpperCase()) && !['DC', 'AC'].includes(t[i].text.toUpperCase())) args.push(t[i++].text);
+      }
+      if (waveform !== undefined) {
+        ctx.report('error', 'spice.syntax', `${name} has two waveforms`, ctx.at(start));
+        return;
+      }
+      waveform = `${word}(${args.join(' ')})`;
+    } else if (i === 3 && numericValue(t[i].text, ctx.params) !== undefined) {
+      dc = numericValue(t[i].text, ctx.params);
+      i++;
+    } else {
+      ctx.report(
+        'error',
+        'spice.source-spec',
+        `${name}: expected DC value, AC, or a waveform (${[...WAVEFORMS].join(' ')}), found '${t[i].text}'`,
+        ctx.at(t[i]),
+      );
+      return;
+    }
+  }
+  const device: Device = { name, kind, terminals, params, loc };
+  if (dc !== undefined) device.value = dc;
+  if (waveform !== undefined) device.waveform = waveform;
+  if (dc === undefined && waveform === undefined && params.AC === undefined) device.value = 0;
+  cell.devices.push(device);
+}
+
+function instance(card: Card, cell: Cell, ctx: ElementContext, name: string, loc: SourceLoc): void {
+  const args = splitArgs(card.tokens, ctx);
+  if (!args.ok) return;
+  if (args.keyed.length > 0) {
+    ctx.report('error', 'spice.instance-params', `instance parameters are not supported (${name}); use .param with plain numbers`, ctx.at(args.keyed[0].key));
+    return;
+  }
+  const p = args.positional;
+  if (p.length < 1) {
+    ctx.report('error', 'spice.instance', `${name} needs nodes and a subcircuit name`, loc);
+    return;
+  }
+  const sub = p[p.length - 1].text.toUpperCase();
+  cell.instances.push({ name, cell: sub, connections: p.slice(0, -1).map((t) => netName(t.text)), params: {}, loc });
+}

@@ -1,0 +1,129 @@
+// Structural checks every reader runs on the Design it built: unknown cells and models, port count
+// mismatches, recursive instantiation, duplicate names, shorted rails in the top cell (errors) and
+// nets only one terminal touches (warnings). Nets nothing drives are inputs, never errors.
+import type { Diagnostic } from '../errors';
+import { GROUND, type Cell, type Design } from './ir';
+import { solveRails, type RailSource } from './rails';
+
+export interface ValidateOptions {
+  /** What the format calls a cell: "subcircuit" (SPICE) or "module" (Verilog). */
+  cellNoun?: string;
+  /** Report transistors and diodes whose model is missing (SPICE decks need a .model card). */
+  requireModels?: boolean;
+}
+
+const NEEDS_MODEL = new Set(['npn', 'pnp', 'nmos', 'pmos', 'diode']);
+
+export function validateDesign(design: Design, opts: ValidateOptions = {}): Diagnostic[] {
+  const noun = opts.cellNoun ?? 'subcircuit';
+  const out: Diagnostic[] = [];
+  const modelNames = new Set(Object.keys(design.models).map((m) => m.toUpperCase()));
+  const cellNames = new Set(Object.keys(design.cells));
+  const globals = new Set([GROUND, ...design.globals]);
+  if (!design.cells[design.top]) {
+    out.push({ severity: 'error', code: 'netlist.no-top', message: `top ${noun} ${design.top} is not defined` });
+  }
+  for (const cell of Object.values(design.cells)) {
+    checkNames(cell, out);
+    for (const inst of cell.instances) {
+      const child = design.cells[inst.cell];
+      if (!child) {
+        out.push({ severity: 'error', code: 'netlist.unknown-cell', message: `unknown ${noun} ${inst.cell} (used by ${inst.name})`, loc: inst.loc });
+      } else if (child.ports.length !== inst.connections.length) {
+        out.push({
+          severity: 'error',
+          code: 'netlist.port-count',
+          message: `${inst.name} connects ${inst.connections.length} net${inst.connections.length === 1 ? '' : 's'} but ${noun} ${child.name} has ${child.ports.length} port${child.ports.length === 1 ? '' : 's'}`,
+          loc: inst.loc,
+        });
+      }
+    }
+    for (const d of cell.devices) {
+      if (d.model !== undefined && !modelNames.has(d.model.toUpperCase())) {
+        out.push({ severity: 'error', code: 'netlist.unknown-model', message: `unknown model ${d.model} (used by ${d.name})`, loc: d.loc });
+      } else if (d.model === undefined && opts.requireModels && NEEDS_MODEL.has(d.kind)) {
+        out.push({ severity: 'error', code: 'netlist.missing-model', message: `${d.name} needs a model`, loc: d.loc });
+      }
+    }
+    singleTerminalNets(cell, globals, cell.name === design.top, out);
+  }
+  out.push(...recursion(design, cellNames, noun));
+  const top = design.cells[design.top];
+  if (top) out.push(...topRails(top, design));
+  return out;
+}
+
+function checkNames(cell: Cell, out: Diagnostic[]): void {
+  const seen = new Set<string>();
+  for (const x of [...cell.devices, ...cell.instances]) {
+    const key = x.name.toUpperCase();
+    if (seen.has(key)) {
+      out.push({ severity: 'error', code: 'netlist.duplicate-name', message: `duplicate name ${x.name} in ${cell.name}`, loc: x.loc });
+    }
+    seen.add(key);
+  }
+}
+
+function singleTerminalNets(cell: Cell, globals: Set<string>, isTop: boolean, out: Diagnostic[]): void {
+  const count = new Map<string, number>();
+  const firstLoc = new Map<string, Diagnostic['loc']>();
+  const touch = (net: string, loc: Diagnostic['loc']) => {
+    const n = count.get(net);
+    count.set(net, (n ?? 0) + 1);
+    if (n === undefined) firstLoc.set(net, loc);
+  };
+  for (const p of cell.ports) touch(p, cell.loc);
+  for (const d of cell.devices) for (const t of d.terminals) touch(t, d.loc);
+  for (const i of cell.instances) for (const t of i.connections) touch(t, i.loc);
+  for (const [net, n] of count) {
+    if (n !== 1 || globals.has(net)) continue;
+    if (!isTop && cell.ports.includes(net)) {
+      out.push({ severity: 'warning', code: 'netlist.unused-port', message: `port ${net} of ${cell.name} connects to nothing inside it`, loc: cell.loc });
+      continue;
+    }
+    out.push({ severity: 'warning', code: 'netlist.single-terminal', message: `net ${net} in ${cell.name} touches only one terminal`, loc: firstLoc.get(net) });
+  }
+}
+
+/** Iterative depth-first search so a deep chain of cells cannot overflow the stack. */
+function recursion(design: Design, cellNames: Set<string>, noun: string): Diagnostic[] {
+  const out: Diagnostic[] = [];
+  const state = new Map<string, 1 | 2>(); // 1 on the path, 2 done
+  for (const start of cellNames) {
+    if (state.has(start)) continue;
+    const stack: { cell: string; next: number }[] = [{ cell: start, next: 0 }];
+    state.set(start, 1);
+    while (stack.length > 0) {
+      const top = stack[stack.length - 1];
+      const insts = design.cells[top.cell].instances;
+      if (top.next >= insts.length) {
+        state.set(top.cell, 2);
+        stack.pop();
+        continue;
+      }
+      const inst = insts[top.next++];
+      if (!cellNames.has(inst.cell)) continue;
+      const s = state.get(inst.cell);
+      if (s === 1) {
+        const from = stack.findIndex((f) => f.cell === inst.cell);
+        const cycle = [...stack.slice(from).map((f) => f.cell), inst.cell].join(' → ');
+        out.push({ severity: 'error', code: 'netlist.recursive', message: `recursive instantiation of ${noun} ${inst.cell}: ${cycle}`, loc: inst.loc });
+      } else if (s === undefined) {
+        state.set(inst.cell, 1);
+        stack.push({ cell: inst.cell, next: 0 });
+      }
+    }
+  }
+  return out;
+}
+
+function topRails(top: Cell, design: Design): Diagnostic[] {
+  const sources: RailSource<string>[] = [];
+  for (const d of top.devices) {
+    if (d.kind === 'vsource' && d.value !== undefined && d.waveform === undefined) {
+      sources.push({ name: d.name, plus: d.terminals[0], minus: d.terminals[1], volts: d.value, loc: d.loc });
+    }
+  }
+  void design;
+  return solveRails(sources, GROUND, (n) => n).problems.map((p) => ({ severity: 'error' as const, ...p }));
+}
