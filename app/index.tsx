@@ -1,0 +1,4 @@
+// "/" sends people to sign-in or to their first tab.
+import { Landing } from '@/components/screens/shell/landing';
+
+export default Landing;

@@ -1,0 +1,25 @@
+// Joins the role's tab list with the navigator's state so both tab bar forms render the same items.
+import type { BottomTabBarProps } from 'expo-router/tabs';
+import type { Role } from '@/components/data/types';
+import { tabsForRole, type TabSpec } from './role-tabs';
+
+export type NavItem = TabSpec & { focused: boolean; onPress: () => void };
+
+export function navItems({ state, navigation }: Pick<BottomTabBarProps, 'state' | 'navigation'>, role: Role): NavItem[] {
+  const focusedName = state.routes[state.index]?.name;
+  return tabsForRole(role).flatMap((tab) => {
+    const route = state.routes.find((r) => r.name === tab.id);
+    if (!route) return [];
+    const focused = focusedName === tab.id;
+    return [
+      {
+        ...tab,
+        focused,
+        onPress: () => {
+          const event = navigation.emit({ type: 'tabPress', target: route.key, canPreventDefault: true });
+          if (!focused && !event.defaultPrevented) navigation.navigate(route.name, route.params);
+        },
+      },
+    ];
+  });
+}

@@ -1,0 +1,28 @@
+// Which tabs each role sees, in display order. The shell, the tab guards and the landing
+// redirect all read this one table.
+import type { Role } from '@/components/data/types';
+
+export type TabId = 'bench' | 'sign-off' | 'lessons' | 'team' | 'account';
+
+export type TabSpec = { id: TabId; title: string; description: string; roles: readonly Role[] };
+
+export const TABS: readonly TabSpec[] = [
+  { id: 'bench', title: 'Bench', description: 'Designs, scans and proposals', roles: ['designer', 'admin', 'reviewer', 'educator'] },
+  { id: 'sign-off', title: 'Sign-off', description: 'Proposals waiting for a decision', roles: ['reviewer', 'admin'] },
+  { id: 'lessons', title: 'Lessons', description: 'Trade-offs to explore and share', roles: ['educator', 'designer', 'viewer', 'admin'] },
+  { id: 'team', title: 'Team', description: 'Members, invites, outbox and audit log', roles: ['admin'] },
+  { id: 'account', title: 'Account', description: 'Your name, notifications and teams', roles: ['admin', 'designer', 'reviewer', 'educator', 'viewer'] },
+];
+
+export function tabsForRole(role: Role): TabSpec[] {
+  return TABS.filter((tab) => tab.roles.includes(role));
+}
+
+export function canOpenTab(role: Role, tab: TabId): boolean {
+  return tabsForRole(role).some((t) => t.id === tab);
+}
+
+// Where a person lands after signing in: their first tab.
+export function homeTabFor(role: Role): TabId {
+  return tabsForRole(role)[0].id;
+}
