@@ -1,0 +1,23 @@
+// Registers every model on one Sequelize instance and wires the associations.
+import type { Sequelize } from 'sequelize';
+import { AuditEntry } from '@/server/db/models/audit-entry';
+import { Membership } from '@/server/db/models/membership';
+import { NotificationPrefs } from '@/server/db/models/notification-prefs';
+import { OutboxMessage } from '@/server/db/models/outbox-message';
+import { Team } from '@/server/db/models/team';
+import { Token } from '@/server/db/models/token';
+import { User } from '@/server/db/models/user';
+
+export { AuditEntry, Membership, NotificationPrefs, OutboxMessage, Team, Token, User };
+
+export const models = { AuditEntry, Membership, NotificationPrefs, OutboxMessage, Team, Token, User };
+export type Models = typeof models;
+
+export function initModels(sequelize: Sequelize): Models {
+  for (const m of Object.values(models)) m.initModel(sequelize);
+  Membership.belongsTo(User, { foreignKey: 'userId', as: 'user' });
+  Membership.belongsTo(Team, { foreignKey: 'teamId', as: 'team' });
+  User.hasMany(Membership, { foreignKey: 'userId', as: 'memberships' });
+  Team.hasMany(Membership, { foreignKey: 'teamId', as: 'memberships' });
+  return models;
+}
