@@ -6,6 +6,7 @@ const BY_CODE: Record<string, string> = {
   'bad-credentials': 'That e-mail and password do not match an account. Check both and try again.',
   'token-invalid': 'This link has expired or has already been used. Ask for a new one.',
   'last-admin': 'A team needs at least one admin. Make someone else an admin first.',
+  'already-member': 'That person is already a member of this team.',
   csrf: 'Your session changed in another window. Reload the page and try again.',
   'rate-limited': 'Too many attempts in a short time. Wait a few minutes and try again.',
   network: 'Trimwire cannot be reached. Check your connection and try again.',

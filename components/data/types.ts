@@ -1,24 +1,7 @@
-// Shapes of the auth/team API responses as the client reads them (the contract in the server's
-// shared schemas); kept to what screens use so a server-side addition never breaks the client.
-export const ROLE_NAMES = ['admin', 'designer', 'reviewer', 'educator', 'viewer'] as const;
-export type Role = (typeof ROLE_NAMES)[number];
-
-export type Me = {
-  user: { id: string; email: string; name: string };
-  team: { id: string; name: string };
-  role: Role;
-  teams: { id: string; name: string; role: Role }[];
-};
-
-export type Member = { userId: string; email: string; name: string; role: Role; joinedAt: string };
-export type Invite = { id: string; email: string; role: Role; expiresAt: string };
-export type TeamView = { team: { id: string; name: string }; members: Member[]; invites: Invite[] };
-
-export type NotificationPrefs = { reviewRequests: boolean; decisions: boolean };
-export type AccountView = { user: { id: string; email: string; name: string }; notifications: NotificationPrefs };
-
-export type OutboxMessage = { id: string; to: string; subject: string; text: string; html?: string | null; receivedAt: string };
-export type OutboxView = { messages: OutboxMessage[] };
-
-export type AuditEntry = { id: string; at: string; actor: string | null; action: string; target: string | null; details: unknown };
-export type AuditView = { entries: AuditEntry[] };
+// Shapes of the API responses the client reads, taken from the shared schemas so client and
+// server cannot drift apart (type-only: no validation code ships to the browser from here).
+export type { Role } from '@/shared/domain/roles';
+export type { Me } from '@/shared/api/auth';
+export type { Member, Invite, OutboxMessage, TeamResponse as TeamView, OutboxResponse as OutboxView } from '@/shared/api/team';
+export type { AccountResponse as AccountView, NotificationPrefs } from '@/shared/api/account';
+export type { AuditEntry, AuditResponse as AuditView } from '@/shared/api/audit';

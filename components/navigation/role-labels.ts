@@ -1,18 +1,18 @@
 // How each role is named and explained to people.
-import type { Role } from '@/components/data/types';
+import { ROLE_LABELS, type Role } from '@/shared/domain/roles';
 
-const LABELS: Record<Role, { label: string; summary: string }> = {
-  admin: { label: 'Admin', summary: 'Manages the team: invites people, sets roles, reads the audit log.' },
-  designer: { label: 'Designer', summary: 'Uploads netlists, runs scans, applies accepted rewrites.' },
-  reviewer: { label: 'Reviewer', summary: 'Accepts or rejects proposed rewrites with a reason.' },
-  educator: { label: 'Educator', summary: 'Builds lessons from designs and shares them.' },
-  viewer: { label: 'Viewer', summary: 'Reads what is shared with them.' },
+const SUMMARIES: Record<Role, string> = {
+  admin: 'Manages the team: invites people, sets roles, reads the audit log.',
+  designer: 'Uploads netlists, runs scans, applies accepted rewrites.',
+  reviewer: 'Accepts or rejects proposed rewrites with a reason.',
+  educator: 'Builds lessons from designs and shares them.',
+  viewer: 'Reads what is shared with them.',
 };
 
 export function roleLabel(role: Role): string {
-  return LABELS[role].label;
+  return ROLE_LABELS[role];
 }
 
 export function roleSummary(role: Role): string {
-  return LABELS[role].summary;
+  return SUMMARIES[role];
 }

@@ -7,9 +7,9 @@ import { errorSentence } from '@/components/data/error-sentences';
 import { useSessionActions } from '@/components/data/use-me';
 import { homeTabFor } from '@/components/navigation/role-tabs';
 import { Button, Notice, TextField } from '@/components/ui';
+import { PASSWORD_MIN_LENGTH as MIN_PASSWORD_LENGTH } from '@/shared/api/auth';
 import { AuthFrame } from './auth-frame';
 
-export const MIN_PASSWORD_LENGTH = 10;
 
 export function SetPasswordScreen() {
   const router = useRouter();

@@ -31,7 +31,7 @@ export function AuditSection() {
           <View style={{ flex: 1, gap: spacing.xxs }}>
             <Text variant="bodyStrong">{describe(entry)}</Text>
             <Text variant="caption" tone="muted">
-              {entry.actor ?? 'Someone signed out'}
+              {entry.actor ?? 'No one signed in'}
             </Text>
           </View>
           <Text variant="caption" tone="faint">
