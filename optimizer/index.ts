@@ -5,3 +5,7 @@ export { readSpice, SPICE_TOP } from './formats/spice/read';
 export { parseSpiceNumber } from './formats/spice/numbers';
 export { validateDesign } from './netlist/validate';
 export { solveRails } from './netlist/rails';
+export { flatten, SUPPLY1_VOLTS } from './netlist/flatten';
+export { hierarchyStats, occurrences } from './netlist/hierarchy';
+export { DEFAULT_LIMITS, withDefaults, type Limits } from './netlist/limits';
+export { countParts, countFlat, bucketOf, zeroCounts, type PartCounts, type CountReport, type CellCounts } from './netlist/counts';

@@ -49,7 +49,7 @@ export function validateDesign(design: Design, opts: ValidateOptions = {}): Diag
   }
   out.push(...recursion(design, cellNames, noun));
   const top = design.cells[design.top];
-  if (top) out.push(...topRails(top, design));
+  if (top) out.push(...topRails(top));
   return out;
 }
 
@@ -117,13 +117,12 @@ function recursion(design: Design, cellNames: Set<string>, noun: string): Diagno
   return out;
 }
 
-function topRails(top: Cell, design: Design): Diagnostic[] {
+function topRails(top: Cell): Diagnostic[] {
   const sources: RailSource<string>[] = [];
   for (const d of top.devices) {
     if (d.kind === 'vsource' && d.value !== undefined && d.waveform === undefined) {
       sources.push({ name: d.name, plus: d.terminals[0], minus: d.terminals[1], volts: d.value, loc: d.loc });
     }
   }
-  void design;
   return solveRails(sources, GROUND, (n) => n).problems.map((p) => ({ severity: 'error' as const, ...p }));
 }
