@@ -1,0 +1,113 @@
+// Worst-case corner search and the margin result shape. Each check is a first-order formula that
+// is monotonic in the supply and each resistor, so its extremes lie on the corners: supply at
+// −tol/nominal/+tol and every resistor role at ±tol; the worst value over them is reported.
+import type { MarginSettings } from './defaults';
+
+export type MarginStatus = 'pass' | 'warn' | 'fail';
+
+export interface Corner {
+  /** Supply voltage used, V. */
+  supply: number;
+  /** Resistor deviations used, e.g. "R_C +5 %, R_B −5 %" (or "nominal"). */
+  resistors: string;
+  /** β used (β_min), when the check depends on it. */
+  beta?: number;
+}
+
+export interface MarginResult {
+  name: string;
+  value: number;
+  limit: number;
+  unit: string;
+  status: MarginStatus;
+  corner: Corner;
+  note: string;
+}
+
+export type Sign = -1 | 0 | 1;
+
+export interface CornerPoint<R extends string> {
+  supply: number;
+  /** Resistor multiplier per role (1 ± tolerance). */
+  r: Record<R, number>;
+  signs: Record<R, Sign>;
+  supplySign: Sign;
+}
+
+/** Every corner for a nominal supply and resistor roles. */
+export function corners<R extends string>(vcc: number, roles: readonly R[], s: MarginSettings): CornerPoint<R>[] {
+  const out: CornerPoint<R>[] = [];
+  for (const supplySign of [-1, 0, 1] as Sign[]) {
+    for (let mask = 0; mask < 2 ** roles.length; mask++) {
+      const r = {} as Record<R, number>;
+      const signs = {} as Record<R, Sign>;
+      roles.forEach((role, i) => {
+        const sign: Sign = (mask >> i) & 1 ? 1 : -1;
+        signs[role] = sign;
+        r[role] = 1 + sign * s.resistorTolerance;
+      });
+      out.push({ supply: vcc * (1 + supplySign * s.supplyTolerance), r, signs, supplySign });
+    }
+  }
+  return out;
+}
+
+function pct(sign: Sign, tol: number): string {
+  if (sign === 0) return 'nominal';
+  return `${sign > 0 ? '+' : '−'}${Math.round(tol * 100)} %`;
+}
+
+export function describeCorner<R extends string>(p: CornerPoint<R>, s: MarginSettings, beta?: number): Corner {
+  const roles = Object.keys(p.signs) as R[];
+  return {
+    supply: round(p.supply),
+    resistors: roles.length === 0 ? 'nominal' : roles.map((role) => `${role} ${pct(p.signs[role], s.resistorTolerance)}`).join(', '),
+    ...(beta !== undefined ? { beta: round(beta) } : {}),
+  };
+}
+
+/** The corner where `value` is worst: largest when `worse` is 'high', smallest when 'low'. */
+export function worstCorner<R extends string>(
+  points: CornerPoint<R>[],
+  value: (p: CornerPoint<R>) => number,
+  worse: 'high' | 'low',
+): { point: CornerPoint<R>; value: number } {
+  let best = points[0];
+  let bestValue = value(best);
+  for (const p of points.slice(1)) {
+    const v = value(p);
+    if (worse === 'high' ? v > bestValue : v < bestValue) {
+      best = p;
+      bestValue = v;
+    }
+  }
+  return { point: best, value: bestValue };
+}
+
+/** Status of a value that must stay at or below `limit` (warn within the band below it). */
+export function statusAtMost(value: number, limit: number, s: MarginSettings): MarginStatus {
+  if (value > limit) return 'fail';
+  return value > limit * (1 - s.warnBand) ? 'warn' : 'pass';
+}
+
+/** Status of a value that must stay at or above `limit` (warn within the band above it). */
+export function statusAtLeast(value: number, limit: number, s: MarginSettings): MarginStatus {
+  if (value < limit) return 'fail';
+  return value < limit * (1 + s.warnBand) ? 'warn' : 'pass';
+}
+
+export function round(x: number, digits = 4): number {
+  if (x === 0 || !Number.isFinite(x)) return x;
+  const scale = 10 ** (digits - 1 - Math.floor(Math.log10(Math.abs(x))));
+  return Math.round(x * scale) / scale;
+}
+
+export function formatCorner(c: Corner): string {
+  return `V_CC ${c.supply} V, ${c.resistors}${c.beta !== undefined ? `, β ${c.beta}` : ''}`;
+}
+
+/** The worst of several results: fail over warn over pass (first one on ties). */
+export function worstOf(results: MarginResult[]): MarginResult | undefined {
+  const rank: Record<MarginStatus, number> = { pass: 0, warn: 1, fail: 2 };
+  return results.reduce<MarginResult | undefined>((w, r) => (!w || rank[r.status] > rank[w.status] ? r : w), undefined);
+}
