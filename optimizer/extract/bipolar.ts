@@ -1,0 +1,313 @@
+// Bipolar collector-node groups: a collector node with its pull-up resistor(s) and the NPN stacks
+// that can pull it down (series = AND, parallel = OR), each transistor's base resolved through its
+// base network (resistor = that net, several resistors = OR, DTL diode inputs with a pull-up = AND).
+import { and, not, or, v, TRUE, type Expr } from '../logic/expr';
+import type { BaseDrive, DriverGroup, Family, LogicNode, PullUp, SwitchNetwork } from './types';
+import {
+  commonPath,
+  eachTerminal,
+  isHighRail,
+  isLowRail,
+  isRail,
+  netName,
+  otherEnd,
+  type ExtractContext,
+} from './context';
+
+const C = 0;
+const B = 1;
+const E = 2;
+
+function isNpn(cx: ExtractContext, d: number): boolean {
+  return cx.nl.devices[d].kind === 'npn';
+}
+
+/** Resistors from a net to a positive rail. */
+export function resistorPullUps(cx: ExtractContext, net: number): PullUp[] {
+  const out: PullUp[] = [];
+  eachTerminal(cx, net, (d, t) => {
+    const dev = cx.nl.devices[d];
+    if (dev.kind !== 'resistor') return;
+    const o = otherEnd(cx, d, t);
+    if (o !== net && isHighRail(cx, o)) {
+      out.push({ device: d, kind: 'resistor', ohms: dev.value, rail: o, railVolts: cx.railVolts[o] });
+    }
+  });
+  return out;
+}
+
+/**
+ * A stack node: an internal net of a series pull-down stack. Only NPN collectors and emitters
+ * touch it (and at least one of each), so it is not a gate output of its own.
+ */
+export function isStackNode(cx: ExtractContext, net: number): boolean {
+  if (isRail(cx, net)) return false;
+  let collectors = 0;
+  let emitters = 0;
+  let other = 0;
+  eachTerminal(cx, net, (d, t) => {
+    if (isNpn(cx, d) && t === C) collectors++;
+    else if (isNpn(cx, d) && t === E) emitters++;
+    else other++;
+  });
+  return collectors > 0 && emitters > 0 && other === 0;
+}
+
+/** Emitter nets that count as ground: low rails, or a net that reaches ground only through resistors. */
+function emitterGrounded(cx: ExtractContext, net: number): boolean {
+  if (isLowRail(cx, net)) return true;
+  let ok = true;
+  let toGround = false;
+  eachTerminal(cx, net, (d, t) => {
+    const dev = cx.nl.devices[d];
+    if (isNpn(cx, d) && t === E) return;
+    if (dev.kind === 'resistor' && isLowRail(cx, otherEnd(cx, d, t))) toGround = true;
+    else if (dev.kind !== 'capacitor') ok = false;
+  });
+  return ok && toGround;
+}
+
+export class BaseResolver {
+  private readonly cache = new Map<number, BaseDrive>();
+  /** Nets absorbed into base networks (DTL diode nodes): part of a gate, not signals. */
+  readonly absorbed = new Set<number>();
+  constructor(private readonly cx: ExtractContext) {}
+
+  drive(transistor: number): BaseDrive {
+    const hit = this.cache.get(transistor);
+    if (hit) return hit;
+    const d = this.resolve(transistor);
+    this.cache.set(transistor, d);
+    return d;
+  }
+
+  private resolve(transistor: number): BaseDrive {
+    const cx = this.cx;
+    const base = cx.nl.devices[transistor].terminals[B];
+    const drive: BaseDrive = {
+      transistor,
+      kind: 'direct',
+      inputs: [],
+      on: TRUE,
+      baseResistors: [],
+      inputDiodes: [],
+      levelShiftDiodes: [],
+      devices: [],
+    };
+    if (isRail(cx, base)) {
+      drive.on = { op: 'const', value: isHighRail(cx, base) ? 1 : 0 };
+      return drive;
+    }
+    const terms: Expr[] = [];
+    let direct = false;
+    let diodeAnd = false;
+    eachTerminal(cx, base, (d, t) => {
+      const dev = cx.nl.devices[d];
+      if (dev.kind === 'npn' && t === B) return; // this or a paralleled base
+      if (dev.kind === 'resistor') {
+        const from = otherEnd(cx, d, t);
+        if (isLowRail(cx, from)) {
+          drive.bleed = d;
+          drive.devices.push(d);
+          return;
+        }
+        drive.baseResistors.push({ device: d, ohms: dev.value, from });
+        drive.devices.push(d);
+        if (isHighRail(cx, from)) terms.push(TRUE);
+        else {
+          drive.inputs.push(from);
+          terms.push(v(netName(cx, from)));
+        }
+        return;
+      }
+      if (dev.kind === 'diode' && t === 1) {
+        const dtl = this.diodeInputs(d, base, drive);
+        if (dtl) {
+          terms.push(dtl);
+          diodeAnd = true;
+          return;
+        }
+      }
+      if (dev.kind === 'capacitor') return; // speed-up capacitors do not change the logic
+      direct = true;
+    });
+    if (direct || terms.length === 0) {
+      // driven straight by another stage (or an undriven input): the base net is the signal
+      terms.push(v(netName(cx, base)));
+      drive.inputs.push(base);
+      drive.kind = 'direct';
+    } else if (diodeAnd) drive.kind = 'diode-and';
+    else drive.kind = drive.baseResistors.length > 1 ? 'resistor-sum' : 'resistor';
+    drive.on = or(...terms);
+    return drive;
+  }
+
+  /**
+   * DTL input: level-shift diode(s) from a pulled-up node P down to the base, input diodes with
+   * anodes at P and cathodes at the inputs. The base turns on when every input is high.
+   */
+  private diodeInputs(first: number, base: number, drive: BaseDrive): Expr | undefined {
+    const cx = this.cx;
+    const shift = [first];
+    let p = cx.nl.devices[first].terminals[0];
+    for (let guard = 0; guard < 8; guard++) {
+      if (isRail(cx, p)) return undefined;
+      const pulls = resistorPullUps(cx, p);
+      if (pulls.length) {
+        const inputs: number[] = [];
+        const inputDiodes: number[] = [];
+        eachTerminal(cx, p, (d, t) => {
+          const dev = cx.nl.devices[d];
+          if (dev.kind === 'diode' && t === 0 && !shift.includes(d)) {
+            inputDiodes.push(d);
+            inputs.push(dev.terminals[1]);
+          }
+        });
+        drive.levelShiftDiodes.push(...shift);
+        drive.inputDiodes.push(...inputDiodes);
+        drive.diodePullUp = pulls[0];
+        drive.devices.push(...shift, ...inputDiodes, ...pulls.map((u) => u.device));
+        drive.inputs.push(...inputs);
+        this.absorbed.add(p);
+        return and(...inputs.map((n) => (isRail(cx, n) ? ({ op: 'const', value: isHighRail(cx, n) ? 1 : 0 } as Expr) : v(netName(cx, n)))));
+      }
+      // another level-shift diode further up: exactly one diode with its cathode at p
+      let up = -1;
+      let count = 0;
+      eachTerminal(cx, p, (d, t) => {
+        if (cx.nl.devices[d].kind === 'diode' && t === 1) {
+          up = d;
+          count++;
+        }
+      });
+      if (count !== 1 || up === base) return undefined;
+      shift.push(up);
+      p = cx.nl.devices[up].terminals[0];
+    }
+    return undefined;
+  }
+}
+
+/** Pull-down network from a net to ground through NPN collector–emitter paths. */
+function pullDownNetwork(cx: ExtractContext, bases: BaseResolver, net: number, depth: number, used: number[]): SwitchNetwork | undefined {
+  if (depth > 16) return undefined;
+  const branches: SwitchNetwork[] = [];
+  eachTerminal(cx, net, (d, t) => {
+    if (!isNpn(cx, d) || t !== C) return;
+    const e = cx.nl.devices[d].terminals[E];
+    const sw: SwitchNetwork = { type: 'switch', device: d, on: bases.drive(d).on };
+    if (emitterGrounded(cx, e)) {
+      used.push(d);
+      branches.push(sw);
+    } else if (isStackNode(cx, e)) {
+      const rest = pullDownNetwork(cx, bases, e, depth + 1, used);
+      if (rest) {
+        used.push(d);
+        branches.push({ type: 'series', parts: [sw, ...(rest.type === 'series' ? rest.parts : [rest])] });
+      }
+    }
+  });
+  if (branches.length === 0) return undefined;
+  return branches.length === 1 ? branches[0] : { type: 'parallel', parts: branches };
+}
+
+export function networkCondition(n: SwitchNetwork): Expr {
+  switch (n.type) {
+    case 'switch':
+      return n.on;
+    case 'series':
+      return and(...n.parts.map(networkCondition));
+    case 'parallel':
+      return or(...n.parts.map(networkCondition));
+  }
+}
+
+/** Every collector node of the design with its groups; stack nodes and rails are left out. */
+export function extractBipolar(cx: ExtractContext, bases: BaseResolver): LogicNode[] {
+  const nodes: LogicNode[] = [];
+  const seen = new Uint8Array(cx.nl.nets.length);
+  cx.nl.devices.forEach((dev, di) => {
+    if (dev.kind !== 'npn') return;
+    const net = dev.terminals[C];
+    if (seen[net] || isRail(cx, net) || isStackNode(cx, net)) return;
+    seen[net] = 1;
+    const node = collectorNode(cx, bases, net);
+    if (node) nodes.push(node);
+    else {
+      cx.diagnostics.push({
+        severity: 'warning',
+        code: 'extract.no-pull-down',
+        message: `${dev.name}: collector net ${netName(cx, net)} has no pull-down path to ground; left out of the logic view`,
+        loc: dev.loc,
+      });
+    }
+    void di;
+  });
+  return nodes;
+}
+
+function collectorNode(cx: ExtractContext, bases: BaseResolver, net: number): LogicNode | undefined {
+  const used: number[] = [];
+  const pd = pullDownNetwork(cx, bases, net, 0, used);
+  if (!pd) return undefined;
+  const pullUps = resistorPullUps(cx, net);
+  // Independent groups: the branches made in different instances (cells) are separate drivers.
+  const branches = pd.type === 'parallel' ? pd.parts : [pd];
+  const byPath = new Map<string, SwitchNetwork[]>();
+  for (const br of branches) {
+    const key = cx.nl.devices[firstSwitch(br)].path.join('.');
+    byPath.set(key, [...(byPath.get(key) ?? []), br]);
+  }
+  const groups: DriverGroup[] = [];
+  for (const [key, brs] of byPath) {
+    const network: SwitchNetwork = brs.length === 1 ? brs[0] : { type: 'parallel', parts: brs };
+    const switches = switchesOf(network);
+    const baseDrives = switches.map((s) => bases.drive(s));
+    const own = pullUps.filter((u) => cx.nl.devices[u.device].path.join('.') === key);
+    const family: Family = baseDrives.some((b) => b.kind === 'diode-and') ? 'dtl' : 'rtl';
+    groups.push({
+      family,
+      pullDown: network,
+      pullsLow: networkCondition(network),
+      pullsHigh: TRUE,
+      bases: baseDrives,
+      devices: [...switches, ...baseDrives.flatMap((b) => b.devices), ...own.map((u) => u.device)],
+      path: commonPath(cx, switches),
+      openCollector: own.length === 0,
+    });
+  }
+  const pullsLow = or(...groups.map((g) => g.pullsLow));
+  const wired = groups.length > 1 || pullUps.length > 1;
+  const kind = wired ? 'wired' : groups[0].openCollector ? 'open-collector' : 'static';
+  if (pullUps.length === 0) {
+    cx.diagnostics.push({
+      severity: 'warning',
+      code: 'extract.no-pull-up',
+      message: `net ${netName(cx, net)} is pulled down but has no pull-up in this design; it needs one outside`,
+    });
+  }
+  const devices = [...new Set([...groups.flatMap((g) => g.devices), ...pullUps.map((u) => u.device)])];
+  const fn = not(pullsLow);
+  return {
+    net,
+    name: netName(cx, net),
+    kind,
+    family: groups.some((g) => g.family === 'dtl') ? 'dtl' : 'rtl',
+    fn,
+    inputs: [],
+    devices,
+    pullUp: pullUps[0],
+    pullUps,
+    groups,
+  };
+}
+
+function firstSwitch(n: SwitchNetwork): number {
+  return n.type === 'switch' ? n.device : firstSwitch(n.parts[0]);
+}
+
+export function switchesOf(n: SwitchNetwork, into: number[] = []): number[] {
+  if (n.type === 'switch') into.push(n.device);
+  else for (const p of n.parts) switchesOf(p, into);
+  return into;
+}

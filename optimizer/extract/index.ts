@@ -1,0 +1,92 @@
+// Logic extraction: FlatNetlist → LogicView. Bipolar collector-node groups, MOS channel-connected
+// components and gate-level primitives each give driven nets; then loops become latches, inputs
+// and state bits are listed and families summed. Linear in the design apart from per-group work.
+import type { FlatNetlist } from '../netlist/ir';
+import { support } from '../logic/expr';
+import { makeContext } from './context';
+import { BaseResolver, extractBipolar } from './bipolar';
+import { extractMos } from './mos';
+import { extractGates } from './gates';
+import { markLoops } from './loops';
+import type { DesignFamily, Family, LogicNode, LogicView } from './types';
+
+export type * from './types';
+
+export function extractLogic(nl: FlatNetlist): LogicView {
+  const cx = makeContext(nl);
+  const nNets = nl.nets.length;
+  // Nets something reads as a control: MOS gates, bipolar bases, gate-level inputs.
+  const controlRead = new Uint8Array(nNets);
+  for (const d of nl.devices) {
+    if (d.kind === 'nmos' || d.kind === 'pmos' || d.kind === 'npn' || d.kind === 'pnp') controlRead[d.terminals[1]] = 1;
+    else if (d.kind === 'gate' && d.op !== 'pullup' && d.op !== 'pulldown') for (const t of d.terminals.slice(1)) controlRead[t] = 1;
+  }
+  const bases = new BaseResolver(cx);
+  const bip = extractBipolar(cx, bases);
+  for (const nd of bip) for (const g of nd.groups) for (const b of g.bases) for (const i of b.inputs) controlRead[i] = 1;
+  const gates = extractGates(cx);
+  const driven = new Set<number>([...bip, ...gates].map((n) => n.net));
+  const mos = extractMos(cx, driven, (n) => controlRead[n] === 1);
+
+  // One node per net: the first extractor to claim a net wins; a clash is reported.
+  const nodes: LogicNode[] = [];
+  const nodeByNet = new Map<number, number>();
+  for (const node of [...gates, ...bip, ...mos]) {
+    if (nodeByNet.has(node.net)) {
+      cx.diagnostics.push({
+        severity: 'warning',
+        code: 'extract.mixed-drivers',
+        message: `net ${node.name} is driven by devices of different kinds; only the first driver is in the logic view`,
+      });
+      continue;
+    }
+    nodeByNet.set(node.net, nodes.length);
+    nodes.push(node);
+  }
+  const nodeByName = new Map<string, number>();
+  nodes.forEach((n, i) => {
+    const s = support(n.fn);
+    if (n.enable) support(n.enable, s);
+    n.inputs = [...s];
+    nodeByName.set(n.name, i);
+  });
+  cx.diagnostics.push(...markLoops(nodes, nodeByName));
+
+  const inputs = new Set<string>();
+  for (const n of nodes) for (const i of n.inputs) if (!nodeByName.has(i)) inputs.add(i);
+  const railNames = new Set(nl.rails.map((r) => nl.nets[r.net].name));
+  for (const r of railNames) inputs.delete(r);
+
+  // Transistors no group explains are reported, never dropped silently.
+  const used = new Uint8Array(nl.devices.length);
+  for (const n of nodes) for (const d of n.devices) used[d] = 1;
+  const unexplained: string[] = [];
+  nl.devices.forEach((d, i) => {
+    if (!used[i] && (d.kind === 'npn' || d.kind === 'pnp' || d.kind === 'nmos' || d.kind === 'pmos')) unexplained.push(d.name);
+  });
+  if (unexplained.length) {
+    cx.diagnostics.push({
+      severity: 'warning',
+      code: 'extract.unexplained',
+      message: `${unexplained.length} transistor(s) not part of any recognised logic group: ${unexplained.slice(0, 8).join(', ')}${unexplained.length > 8 ? ', …' : ''}`,
+    });
+  }
+
+  const familyCounts: Partial<Record<Family, number>> = {};
+  for (const n of nodes) familyCounts[n.family] = (familyCounts[n.family] ?? 0) + 1;
+  const fams = Object.keys(familyCounts) as Family[];
+  const family: DesignFamily = fams.length === 0 ? 'none' : fams.length === 1 ? fams[0] : 'mixed';
+  const rails = new Map<number, number>();
+  for (const r of nl.rails) rails.set(r.net, r.volts);
+  return {
+    title: nl.title,
+    nodes,
+    nodeByNet,
+    inputs: [...inputs].sort(),
+    stateBits: nodes.filter((n) => n.kind === 'latch').map((n) => n.name),
+    rails,
+    family,
+    familyCounts,
+    diagnostics: cx.diagnostics,
+  };
+}

@@ -1,0 +1,86 @@
+// Storage found in the logic view: strongly connected nets (Tarjan, iterative so a million nets
+// cannot overflow the stack). Two inverting nets feeding each other are a latch (a cross-coupled
+// pair); any other loop is cut the same way and reported.
+import type { LogicNode } from './types';
+import type { Diagnostic } from '../errors';
+
+function isInverting(n: LogicNode): boolean {
+  return n.fn.op === 'not';
+}
+
+/** Marks latch nets in place; returns the diagnostics for loops that are not simple latches. */
+export function markLoops(nodes: LogicNode[], nodeByName: Map<string, number>): Diagnostic[] {
+  const n = nodes.length;
+  const succ: number[][] = nodes.map((node) => node.inputs.map((nm) => nodeByName.get(nm)).filter((x): x is number => x !== undefined));
+  const index = new Int32Array(n).fill(-1);
+  const low = new Int32Array(n);
+  const onStack = new Uint8Array(n);
+  const stack: number[] = [];
+  const diags: Diagnostic[] = [];
+  let counter = 0;
+  const work: [number, number][] = [];
+  for (let root = 0; root < n; root++) {
+    if (index[root] >= 0) continue;
+    work.push([root, 0]);
+    while (work.length) {
+      const top = work[work.length - 1];
+      const [vtx, i] = top;
+      if (i === 0) {
+        index[vtx] = low[vtx] = counter++;
+        stack.push(vtx);
+        onStack[vtx] = 1;
+      }
+      if (i < succ[vtx].length) {
+        top[1]++;
+        const w = succ[vtx][i];
+        if (index[w] < 0) work.push([w, 0]);
+        else if (onStack[w]) low[vtx] = Math.min(low[vtx], index[w]);
+        continue;
+      }
+      work.pop();
+      if (work.length) {
+        const parent = work[work.length - 1][0];
+        low[parent] = Math.min(low[parent], low[vtx]);
+      }
+      if (low[vtx] === index[vtx]) {
+        const comp: number[] = [];
+        let w: number;
+        do {
+          w = stack.pop()!;
+          onStack[w] = 0;
+          comp.push(w);
+        } while (w !== vtx);
+        classify(nodes, comp, succ, diags);
+      }
+    }
+  }
+  return diags;
+}
+
+function classify(nodes: LogicNode[], comp: number[], succ: number[][], diags: Diagnostic[]): void {
+  if (comp.length === 1) {
+    const only = comp[0];
+    if (succ[only].includes(only) && nodes[only].kind !== 'latch') {
+      nodes[only].kind = 'latch';
+      diags.push({ severity: 'warning', code: 'extract.loop', message: `net ${nodes[only].name} feeds back to itself; treated as a stored state bit` });
+    }
+    return;
+  }
+  if (comp.length === 2 && comp.every((i) => isInverting(nodes[i]))) {
+    const [a, b] = comp;
+    nodes[a].kind = 'latch';
+    nodes[b].kind = 'latch';
+    nodes[a].partner = nodes[b].net;
+    nodes[b].partner = nodes[a].net;
+    return;
+  }
+  for (const i of comp) nodes[i].kind = 'latch';
+  diags.push({
+    severity: 'warning',
+    code: 'extract.loop',
+    message: `feedback loop through ${comp.length} nets (${comp
+      .slice(0, 6)
+      .map((i) => nodes[i].name)
+      .join(', ')}${comp.length > 6 ? ', …' : ''}) is not a simple cross-coupled pair; its nets are treated as stored state bits`,
+  });
+}
