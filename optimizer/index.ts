@@ -9,3 +9,4 @@ export { flatten, SUPPLY1_VOLTS } from './netlist/flatten';
 export { hierarchyStats, occurrences } from './netlist/hierarchy';
 export { DEFAULT_LIMITS, withDefaults, type Limits } from './netlist/limits';
 export { countParts, countFlat, bucketOf, zeroCounts, type PartCounts, type CountReport, type CellCounts } from './netlist/counts';
+export { writeSpice } from './formats/spice/write';
