@@ -1,0 +1,63 @@
+// Functions of chosen nets over the design's primary inputs and state bits: each driven net's
+// local function is substituted into its readers (memoised, so shared logic stays shared). State
+// bits are cut: a latch net is a pseudo input (its value) and a pseudo output `<net>@next`.
+import { substitute, v, type Expr } from '../logic/expr';
+import type { LogicView } from './types';
+
+export const NEXT_SUFFIX = '@next';
+/** Suffix of the pseudo output that says when a tri-state or pass net is driven. */
+export const ENABLE_SUFFIX = '@en';
+
+export interface CombinationalModel {
+  /** Primary inputs and state bits, by name. */
+  inputs: string[];
+  /** Output name → function over `inputs`. */
+  outputs: Record<string, Expr>;
+}
+
+/**
+ * @param outputs nets to express; by default every driven net nothing else reads, plus every
+ *   state bit's next state. Tri-state/pass nets also get `<net>@en`.
+ */
+export function combinationalModel(view: LogicView, outputs?: string[]): CombinationalModel {
+  const byName = new Map(view.nodes.map((n) => [n.name, n]));
+  const state = new Set(view.stateBits);
+  const memo = new Map<string, Expr>();
+  const resolving = new Set<string>();
+  const valueOf = (name: string): Expr => {
+    const hit = memo.get(name);
+    if (hit) return hit;
+    const node = byName.get(name);
+    if (!node || state.has(name)) return v(name);
+    if (resolving.has(name)) return v(name); // a loop the extractor did not cut: its net stays a variable
+    resolving.add(name);
+    // iterative deepening would be nicer for very deep logic; recursion depth = logic depth here
+    const e = substitute(node.fn, (n) => valueOf(n));
+    resolving.delete(name);
+    memo.set(name, e);
+    return e;
+  };
+  let names = outputs;
+  if (!names) {
+    const read = new Set(view.nodes.flatMap((n) => n.inputs));
+    names = view.nodes.filter((n) => !read.has(n.name) && !state.has(n.name)).map((n) => n.name);
+  }
+  const out: Record<string, Expr> = {};
+  for (const name of names) {
+    const node = byName.get(name);
+    if (state.has(name) || (node && node.kind === 'latch')) {
+      out[name + NEXT_SUFFIX] = substitute(node!.fn, (n) => valueOf(n));
+      continue;
+    }
+    out[name] = valueOf(name);
+    if (node?.enable) out[name + ENABLE_SUFFIX] = substitute(node.enable, (n) => valueOf(n));
+  }
+  if (!outputs) {
+    for (const s of view.stateBits) {
+      const node = byName.get(s)!;
+      out[s + NEXT_SUFFIX] = substitute(node.fn, (n) => valueOf(n));
+    }
+  }
+  const inputs = new Set<string>([...view.inputs, ...view.stateBits]);
+  return { inputs: [...inputs], outputs: out };
+}
