@@ -1,0 +1,155 @@
+// Applies accepted, non-overlapping proposals' edits to a FlatNetlist, giving a new netlist (the
+// input is never touched), and turns a flat netlist back into a one-cell Design for the writers.
+import { InputError, InternalError } from '../errors';
+import type { Design, Device, FlatDevice, FlatNet, FlatNetlist, Rail } from '../netlist/ir';
+import type { Proposal } from '../rules/types';
+import { editProblems, overlapOf, touched } from './edits';
+
+/** Refuses proposals that overlap, naming the pair and what they share. */
+export function assertNoOverlap(proposals: Proposal[]): void {
+  const sets = proposals.map((p) => touched(p.edit));
+  const clashes: string[] = [];
+  for (let i = 0; i < proposals.length; i++) {
+    for (let j = i + 1; j < proposals.length; j++) {
+      const o = overlapOf(sets[i], sets[j]);
+      if (o.devices.length || o.nets.length) {
+        const what = [...o.devices.map((d) => `device ${d}`), ...o.nets.map((n) => `net ${n}`)].slice(0, 4).join(', ');
+        clashes.push(`${proposals[i].id} and ${proposals[j].id} overlap (both change ${what}); accept one and scan again`);
+      }
+    }
+  }
+  if (clashes.length) throw new InputError(clashes.map((message) => ({ severity: 'error' as const, code: 'apply.overlap', message })));
+  const ids = new Set<string>();
+  for (const p of proposals) {
+    if (ids.has(p.id)) throw InputError.at('apply.duplicate', `${p.id} is listed twice`);
+    ids.add(p.id);
+  }
+}
+
+export function applyProposals(nl: FlatNetlist, proposals: Proposal[]): FlatNetlist {
+  assertNoOverlap(proposals);
+  for (const p of proposals) {
+    const problems = editProblems(nl, p.edit);
+    if (problems.length) {
+      throw new InputError(problems.map((m) => ({ severity: 'error' as const, code: 'apply.bad-edit', message: `${p.id}: ${m}` })));
+    }
+  }
+  // Net ids: union-find over the old ids for merges; new names get fresh ids afterwards.
+  const parent = nl.nets.map((n) => n.id);
+  const find = (x: number): number => {
+    while (parent[x] !== x) x = parent[x] = parent[parent[x]];
+    return x;
+  };
+  const rails = new Set(nl.rails.map((r) => r.net));
+  for (const p of proposals) {
+    for (const m of p.edit.mergeNets) {
+      let keep = find(nl.netByName.get(m.keep)!);
+      let gone = find(nl.netByName.get(m.remove)!);
+      if (keep === gone) continue;
+      if (rails.has(gone) && !rails.has(keep)) [keep, gone] = [gone, keep];
+      parent[gone] = keep;
+    }
+  }
+  const nets: FlatNet[] = [];
+  const newId = new Map<number, number>();
+  for (const n of nl.nets) {
+    if (find(n.id) !== n.id) continue;
+    newId.set(n.id, nets.length);
+    nets.push({ ...n, id: nets.length });
+  }
+  const netByName = new Map<string, number>();
+  for (const n of nl.nets) netByName.set(n.name, newId.get(find(n.id))!);
+  const netOf = (name: string): number => {
+    const found = netByName.get(name);
+    if (found !== undefined) return found;
+    const id = nets.length;
+    nets.push({ id, name });
+    netByName.set(name, id);
+    return id;
+  };
+  const mapOld = (id: number) => newId.get(find(id))!;
+
+  const removed = new Set(proposals.flatMap((p) => p.edit.removeDevices));
+  const reconnect = new Map<string, { terminal: number; net: string }[]>();
+  for (const p of proposals) for (const r of p.edit.reconnect) reconnect.set(r.device, [...(reconnect.get(r.device) ?? []), r]);
+
+  const devices: FlatDevice[] = [];
+  for (const d of nl.devices) {
+    if (removed.has(d.name)) continue;
+    const terminals = d.terminals.map(mapOld);
+    for (const r of reconnect.get(d.name) ?? []) terminals[r.terminal] = netOf(r.net);
+    devices.push({ ...d, terminals, params: { ...d.params }, path: [...d.path] });
+  }
+  for (const p of proposals) {
+    for (const a of p.edit.addDevices) {
+      devices.push({
+        name: a.name,
+        kind: a.kind,
+        ...(a.op ? { op: a.op } : {}),
+        terminals: a.terminals.map(netOf),
+        ...(a.value !== undefined ? { value: a.value } : {}),
+        ...(a.model ? { model: a.model } : {}),
+        params: { ...(a.params ?? {}) },
+        path: [...(a.path ?? [])],
+        cell: '(rewrite)',
+      });
+    }
+  }
+  const railOut: Rail[] = [];
+  const seenRail = new Set<number>();
+  for (const r of nl.rails) {
+    const id = mapOld(r.net);
+    if (seenRail.has(id)) continue;
+    seenRail.add(id);
+    railOut.push({ ...r, net: id });
+  }
+  return {
+    title: nl.title,
+    devices,
+    nets,
+    netByName,
+    rails: railOut,
+    ports: [...new Set(nl.ports.map(mapOld))],
+    models: { ...nl.models },
+  };
+}
+
+const KIND_LETTER: Record<string, string> = { npn: 'Q', pnp: 'Q', nmos: 'M', pmos: 'M', resistor: 'R', capacitor: 'C', diode: 'D', vsource: 'V', isource: 'I' };
+
+/**
+ * One flat cell holding every device, for the writers. Hierarchical device names become valid
+ * element names (the kind's letter first, dots as underscores: "XS3.Q1" → "Q_XS3_Q1").
+ */
+export function flatToDesign(nl: FlatNetlist, format: Design['format'] = 'spice'): Design {
+  const used = new Set<string>();
+  const devices: Device[] = nl.devices.map((d) => {
+    const letter = d.kind === 'gate' ? '' : KIND_LETTER[d.kind];
+    if (letter === undefined) throw new InternalError(`no element letter for ${d.kind}`);
+    let name = d.name.includes('.') || (letter && d.name[0]?.toUpperCase() !== letter) ? `${letter}${letter ? '_' : ''}${d.name.replace(/\./g, '_')}` : d.name;
+    while (used.has(name.toUpperCase())) name += '_';
+    used.add(name.toUpperCase());
+    return {
+      name,
+      kind: d.kind,
+      ...(d.op ? { op: d.op } : {}),
+      terminals: d.terminals.map((t) => nl.nets[t].name),
+      ...(d.value !== undefined ? { value: d.value } : {}),
+      ...(d.model ? { model: d.model } : {}),
+      params: { ...d.params },
+      ...(d.waveform ? { waveform: d.waveform } : {}),
+      ...(d.loc ? { loc: d.loc } : {}),
+    };
+  });
+  const top = 'TOP';
+  const globals = [...new Set(['0', ...nl.rails.map((r) => nl.nets[r.net].name)])];
+  return {
+    title: nl.title,
+    format,
+    top,
+    cells: { [top]: { name: top, ports: nl.ports.map((p) => nl.nets[p].name), devices, instances: [] } },
+    models: { ...nl.models },
+    globals,
+    params: {},
+    extraCards: [],
+  };
+}

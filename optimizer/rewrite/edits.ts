@@ -1,0 +1,78 @@
+// Checks an edit against the netlist it targets and lists what it touches, so rules that break
+// their contract are caught before anything is applied and overlapping proposals can be found.
+import { TERMINAL_NAMES, type DeviceKind, type FlatNetlist } from '../netlist/ir';
+import type { Edit } from '../rules/types';
+
+/** What an edit removes or modifies: the basis of overlap detection. */
+export interface Touched {
+  devices: Set<string>;
+  nets: Set<string>;
+  /** Names of devices it adds (two proposals adding the same name collide). */
+  added: Set<string>;
+}
+
+export function touched(edit: Edit): Touched {
+  return {
+    devices: new Set([...edit.removeDevices, ...edit.reconnect.map((r) => r.device)]),
+    nets: new Set(edit.mergeNets.flatMap((m) => [m.keep, m.remove])),
+    added: new Set(edit.addDevices.map((d) => d.name)),
+  };
+}
+
+/** Shared devices and nets of two touched sets (empty when they do not overlap). */
+export function overlapOf(a: Touched, b: Touched): { devices: string[]; nets: string[] } {
+  const devices = [...a.devices].filter((d) => b.devices.has(d));
+  devices.push(...[...a.added].filter((d) => b.added.has(d)));
+  const nets = [...a.nets].filter((n) => b.nets.has(n));
+  return { devices, nets };
+}
+
+/** Terminal counts a device of each kind may have. */
+export function terminalCounts(kind: DeviceKind): number[] {
+  if (kind === 'gate') return [];
+  const names = TERMINAL_NAMES[kind];
+  // Bipolar transistors may omit the substrate; everything else has a fixed count.
+  return kind === 'npn' || kind === 'pnp' ? [3, 4] : [names.length];
+}
+
+/** Problems that make an edit inapplicable to `nl` (empty when it is well formed). */
+export function editProblems(nl: FlatNetlist, edit: Edit): string[] {
+  const problems: string[] = [];
+  const byName = new Map(nl.devices.map((d, i) => [d.name, i]));
+  const removed = new Set<string>();
+  for (const name of edit.removeDevices) {
+    if (!byName.has(name)) problems.push(`removes unknown device ${name}`);
+    if (removed.has(name)) problems.push(`removes ${name} twice`);
+    removed.add(name);
+  }
+  for (const r of edit.reconnect) {
+    const i = byName.get(r.device);
+    if (i === undefined) problems.push(`reconnects unknown device ${r.device}`);
+    else if (removed.has(r.device)) problems.push(`reconnects ${r.device}, which it also removes`);
+    else if (!Number.isInteger(r.terminal) || r.terminal < 0 || r.terminal >= nl.devices[i].terminals.length) {
+      problems.push(`reconnects terminal ${r.terminal} of ${r.device}, which has ${nl.devices[i].terminals.length}`);
+    }
+    if (!r.net) problems.push(`reconnects ${r.device} to an empty net name`);
+  }
+  const railNets = new Set(nl.rails.map((r) => nl.nets[r.net].name));
+  for (const m of edit.mergeNets) {
+    if (!nl.netByName.has(m.keep)) problems.push(`merges into unknown net ${m.keep}`);
+    if (!nl.netByName.has(m.remove)) problems.push(`merges unknown net ${m.remove}`);
+    if (m.keep === m.remove) problems.push(`merges net ${m.keep} into itself`);
+    if (railNets.has(m.remove) && railNets.has(m.keep)) problems.push(`merges two rails ${m.keep} and ${m.remove}`);
+  }
+  const added = new Set<string>();
+  for (const d of edit.addDevices) {
+    if ((byName.has(d.name) && !removed.has(d.name)) || added.has(d.name)) problems.push(`adds ${d.name}, a name already in use`);
+    added.add(d.name);
+    const counts = terminalCounts(d.kind);
+    if (d.kind === 'gate') {
+      if (!d.op) problems.push(`adds gate ${d.name} without an operation`);
+      if (d.terminals.length < 1) problems.push(`adds gate ${d.name} without terminals`);
+    } else if (!counts.includes(d.terminals.length)) {
+      problems.push(`adds ${d.kind} ${d.name} with ${d.terminals.length} terminals (needs ${counts.join(' or ')})`);
+    }
+    if (d.terminals.some((t) => !t)) problems.push(`adds ${d.name} with an empty net name`);
+  }
+  return problems;
+}

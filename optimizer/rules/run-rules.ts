@@ -1,0 +1,167 @@
+// Runs every enabled rule over a frozen netlist and logic view. A rule that throws, or proposes an
+// edit that does not fit the design, becomes a recorded rule error and the scan goes on; findings
+// get stable ids; proposals that change the same device or net are returned as an overlap graph.
+import { InputError, RuleError } from '../errors';
+import type { LogicView } from '../extract/types';
+import type { MapFamily } from '../logic/family-parts';
+import { exactMinimiser, type Minimiser } from '../logic/minimiser';
+import { DEFAULT_MARGIN_SETTINGS, type MarginSettings } from '../margins/defaults';
+import type { FlatNetlist } from '../netlist/ir';
+import { editProblems, overlapOf, touched } from '../rewrite/edits';
+import { renderMessage } from './define-rule';
+import { deepFreeze } from './freeze';
+import { RULES } from './index';
+import type { Assumption, Finding, FindingReport, Rule, RuleContext } from './types';
+
+export interface RunOptions {
+  /** The rule map to draw from (default: every rule in the catalogue). */
+  rules?: Record<string, Rule>;
+  /** Rule ids to run (default: all in the map). */
+  enabled?: string[];
+  /** Per-rule options, validated by each rule's schema over its defaults. */
+  ruleOptions?: Record<string, unknown>;
+  assumptions?: Assumption[];
+  margins?: MarginSettings;
+  minimiser?: Minimiser;
+  targetFamily?: MapFamily;
+  clockPeriod?: number;
+}
+
+export interface RuleErrorRecord {
+  ruleId: string;
+  message: string;
+  element?: string;
+}
+
+export interface OverlapGraph {
+  /** Proposal ids. */
+  nodes: string[];
+  edges: { a: string; b: string; devices: string[]; nets: string[] }[];
+}
+
+export interface RunResult {
+  findings: Finding[];
+  ruleErrors: RuleErrorRecord[];
+  overlaps: OverlapGraph;
+}
+
+/** FNV-1a, 32 bits, as 8 hex digits: short stable ids from canonical text. */
+export function stableHash(text: string): string {
+  let h = 0x811c9dc5;
+  for (let i = 0; i < text.length; i++) {
+    h ^= text.charCodeAt(i);
+    h = Math.imul(h, 0x01000193);
+  }
+  return (h >>> 0).toString(16).padStart(8, '0');
+}
+
+function resolveOptions(rule: Rule, given: unknown): unknown {
+  const merged = given && typeof given === 'object' ? { ...(rule.meta.defaultOptions as object), ...given } : rule.meta.defaultOptions;
+  const parsed = rule.meta.optionsSchema.safeParse(merged);
+  if (!parsed.success) {
+    const detail = parsed.error.issues.map((i) => `${i.path.join('.') || 'options'}: ${i.message}`).join('; ');
+    throw InputError.at('rules.bad-options', `options for rule ${rule.id} are invalid: ${detail}`);
+  }
+  return parsed.data;
+}
+
+export async function runRules(netlist: FlatNetlist, view: LogicView, options: RunOptions = {}): Promise<RunResult> {
+  const ruleMap = options.rules ?? RULES;
+  const enabled = options.enabled ?? Object.keys(ruleMap);
+  const unknown = enabled.filter((id) => !Object.prototype.hasOwnProperty.call(ruleMap, id));
+  if (unknown.length) throw InputError.at('rules.unknown', `unknown rule id(s): ${unknown.join(', ')} (known: ${Object.keys(ruleMap).join(', ')})`);
+  for (const id of Object.keys(options.ruleOptions ?? {})) {
+    if (!enabled.includes(id)) throw InputError.at('rules.unknown', `options given for rule ${id}, which is not enabled`);
+  }
+  const resolved = enabled.map((id) => [ruleMap[id], resolveOptions(ruleMap[id], options.ruleOptions?.[id])] as const);
+
+  deepFreeze(netlist);
+  deepFreeze(view);
+  const assumptions = deepFreeze([...(options.assumptions ?? [])]);
+  const findings: Finding[] = [];
+  const ruleErrors: RuleErrorRecord[] = [];
+  const usedIds = new Set<string>();
+
+  for (const [rule, ruleOptions] of resolved) {
+    const reports: FindingReport[] = [];
+    const ctx: RuleContext = {
+      netlist,
+      view,
+      assumptions,
+      margins: options.margins ?? DEFAULT_MARGIN_SETTINGS,
+      minimiser: options.minimiser ?? exactMinimiser,
+      targetFamily: options.targetFamily ?? 'cmos',
+      clockPeriod: options.clockPeriod,
+      report(f) {
+        renderMessage(rule.id, rule.meta.messages, f.messageId, f.data); // unknown id → InternalError now
+        reports.push(f);
+      },
+    };
+    try {
+      await rule.find(ctx, ruleOptions);
+    } catch (err) {
+      const e = err instanceof RuleError ? err : new RuleError(rule.id, err instanceof Error ? err.message : String(err));
+      ruleErrors.push({ ruleId: rule.id, message: e.message, ...(e.element ? { element: e.element } : {}) });
+      continue;
+    }
+    for (const r of reports) {
+      const location = { devices: r.location.devices ?? [], instances: r.location.instances ?? [], nets: r.location.nets ?? [] };
+      const bad = r.proposals.flatMap((p) => editProblems(netlist, p.edit));
+      const knownAssumptions = new Set(assumptions.map((a) => a.id));
+      bad.push(...r.proposals.flatMap((p) => (p.assumptions ?? []).filter((a) => !knownAssumptions.has(a)).map((a) => `relies on unknown assumption ${a}`)));
+      if (bad.length) {
+        const element = location.devices[0] ?? location.nets[0];
+        ruleErrors.push({ ruleId: rule.id, message: new RuleError(rule.id, `proposal does not fit the design: ${bad.slice(0, 3).join('; ')}`, element).message, ...(element ? { element } : {}) });
+        continue;
+      }
+      const canonical = JSON.stringify([rule.id, r.messageId, [...location.devices].sort(), [...location.nets].sort(), r.data ?? {}]);
+      let id = `${rule.id}-${stableHash(canonical)}`;
+      for (let k = 2; usedIds.has(id); k++) id = `${rule.id}-${stableHash(canonical)}-${k}`;
+      usedIds.add(id);
+      findings.push({
+        id,
+        ruleId: rule.id,
+        messageId: r.messageId,
+        data: { ...(r.data ?? {}) },
+        message: renderMessage(rule.id, rule.meta.messages, r.messageId, r.data),
+        location,
+        proposals: r.proposals.map((p, k) => ({
+          id: r.proposals.length === 1 ? id : `${id}.${k + 1}`,
+          title: p.title,
+          edit: p.edit,
+          assumptions: [...(p.assumptions ?? [])],
+        })),
+      });
+    }
+  }
+  return { findings, ruleErrors, overlaps: overlapGraph(findings) };
+}
+
+/** Pairs of proposals that change a common device or net (alternatives of one finding included). */
+export function overlapGraph(findings: Finding[]): OverlapGraph {
+  const proposals = findings.flatMap((f) => f.proposals);
+  const sets = proposals.map((p) => touched(p.edit));
+  // Index by touched element so the pair search is linear in practice, not all pairs.
+  const byKey = new Map<string, number[]>();
+  sets.forEach((s, i) => {
+    for (const k of [...[...s.devices, ...s.added].map((d) => `d:${d}`), ...[...s.nets].map((n) => `n:${n}`)]) {
+      const list = byKey.get(k) ?? [];
+      if (list[list.length - 1] !== i) list.push(i);
+      byKey.set(k, list);
+    }
+  });
+  const pairs = new Set<string>();
+  const edges: OverlapGraph['edges'] = [];
+  for (const list of byKey.values()) {
+    for (let x = 0; x < list.length; x++) {
+      for (let y = x + 1; y < list.length; y++) {
+        const key = `${list[x]}:${list[y]}`;
+        if (pairs.has(key)) continue;
+        pairs.add(key);
+        const o = overlapOf(sets[list[x]], sets[list[y]]);
+        edges.push({ a: proposals[list[x]].id, b: proposals[list[y]].id, ...o });
+      }
+    }
+  }
+  return { nodes: proposals.map((p) => p.id), edges };
+}
