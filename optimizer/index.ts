@@ -10,3 +10,4 @@ export { hierarchyStats, occurrences } from './netlist/hierarchy';
 export { DEFAULT_LIMITS, withDefaults, type Limits } from './netlist/limits';
 export { countParts, countFlat, bucketOf, zeroCounts, type PartCounts, type CountReport, type CellCounts } from './netlist/counts';
 export { writeSpice } from './formats/spice/write';
+export { generateBitSliced, slicesFor, TRANSISTORS_PER_SLICE, type Family, type GenerateOptions } from './netlist/generate';

@@ -55,33 +55,37 @@ export function validateDesign(design: Design, opts: ValidateOptions = {}): Diag
 
 function checkNames(cell: Cell, out: Diagnostic[]): void {
   const seen = new Set<string>();
-  for (const x of [...cell.devices, ...cell.instances]) {
+  const check = (x: { name: string; loc?: Diagnostic['loc'] }) => {
     const key = x.name.toUpperCase();
     if (seen.has(key)) {
       out.push({ severity: 'error', code: 'netlist.duplicate-name', message: `duplicate name ${x.name} in ${cell.name}`, loc: x.loc });
     }
     seen.add(key);
-  }
+  };
+  for (const d of cell.devices) check(d);
+  for (const i of cell.instances) check(i);
 }
 
 function singleTerminalNets(cell: Cell, globals: Set<string>, isTop: boolean, out: Diagnostic[]): void {
   const count = new Map<string, number>();
-  const firstLoc = new Map<string, Diagnostic['loc']>();
-  const touch = (net: string, loc: Diagnostic['loc']) => {
-    const n = count.get(net);
-    count.set(net, (n ?? 0) + 1);
-    if (n === undefined) firstLoc.set(net, loc);
-  };
-  for (const p of cell.ports) touch(p, cell.loc);
-  for (const d of cell.devices) for (const t of d.terminals) touch(t, d.loc);
-  for (const i of cell.instances) for (const t of i.connections) touch(t, i.loc);
-  for (const [net, n] of count) {
-    if (n !== 1 || globals.has(net)) continue;
-    if (!isTop && cell.ports.includes(net)) {
-      out.push({ severity: 'warning', code: 'netlist.unused-port', message: `port ${net} of ${cell.name} connects to nothing inside it`, loc: cell.loc });
+  const touch = (net: string) => count.set(net, (count.get(net) ?? 0) + 1);
+  for (const p of cell.ports) touch(p);
+  for (const d of cell.devices) for (const t of d.terminals) touch(t);
+  for (const i of cell.instances) for (const t of i.connections) touch(t);
+  const lonely = new Set<string>();
+  for (const [net, n] of count) if (n === 1 && !globals.has(net)) lonely.add(net);
+  if (lonely.size === 0) return;
+  const ports = new Set(cell.ports);
+  // A second walk finds where each lonely net is used; lonely nets are few, so this stays cheap.
+  const where = new Map<string, Diagnostic['loc']>();
+  for (const d of cell.devices) for (const t of d.terminals) if (lonely.has(t)) where.set(t, d.loc);
+  for (const i of cell.instances) for (const t of i.connections) if (lonely.has(t)) where.set(t, i.loc);
+  for (const net of lonely) {
+    if (ports.has(net)) {
+      if (!isTop) out.push({ severity: 'warning', code: 'netlist.unused-port', message: `port ${net} of ${cell.name} connects to nothing inside it`, loc: cell.loc });
       continue;
     }
-    out.push({ severity: 'warning', code: 'netlist.single-terminal', message: `net ${net} in ${cell.name} touches only one terminal`, loc: firstLoc.get(net) });
+    out.push({ severity: 'warning', code: 'netlist.single-terminal', message: `net ${net} in ${cell.name} touches only one terminal`, loc: where.get(net) });
   }
 }
 

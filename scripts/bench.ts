@@ -1,0 +1,120 @@
+// `npm run bench`: generated bit-sliced designs of 10k, 100k and 1M transistors, each size run in
+// its own child process for clean peak-memory numbers. The deck is written by the parent (not
+// timed); the child times each stage and reports its peak resident memory. Prints a table.
+import { spawnSync } from 'node:child_process';
+import { mkdirSync, readFileSync, statSync, writeFileSync } from 'node:fs';
+import path from 'node:path';
+import { readSpice } from '@/optimizer/formats/spice/read';
+import { writeSpice } from '@/optimizer/formats/spice/write';
+import { flatten } from '@/optimizer/netlist/flatten';
+import { generateBitSliced, slicesFor, type Family } from '@/optimizer/netlist/generate';
+import type { Design, FlatNetlist } from '@/optimizer/netlist/ir';
+
+/** What the stages share; each stage reads what earlier ones left and may add its own result. */
+interface BenchContext {
+  text: string;
+  design?: Design;
+  flat?: FlatNetlist;
+  /** Devices the stage handled, for the per-device column. */
+  devices: number;
+  [key: string]: unknown;
+}
+
+interface Stage {
+  name: string;
+  run(ctx: BenchContext): void;
+}
+
+/**
+ * The benchmarked stages, in order. Later analyses (logic extraction, switch-level simulation of
+ * 1000 steps) add themselves here as further entries; the table grows a column for each.
+ */
+const STAGES: Stage[] = [
+  {
+    name: 'parse',
+    run(ctx) {
+      ctx.design = readSpice(ctx.text, 'bench.cir').design;
+    },
+  },
+  {
+    name: 'flatten',
+    run(ctx) {
+      ctx.flat = flatten(ctx.design!, { maxDevices: 5_000_000 });
+      ctx.devices = ctx.flat.devices.length;
+    },
+  },
+];
+
+interface Case {
+  label: string;
+  transistors: number;
+  family: Family;
+  flat: boolean;
+}
+
+const SIZES = [10_000, 100_000, 1_000_000];
+const CASES: Case[] = SIZES.flatMap((n) =>
+  (['hier', 'flat'] as const).map((form) => ({ label: `${n >= 1e6 ? n / 1e6 + 'M' : n / 1e3 + 'k'} ${form}`, transistors: n, family: 'rtl' as Family, flat: form === 'flat' })),
+);
+
+interface ChildResult {
+  times: Record<string, number>;
+  devices: number;
+  peakRssMiB: number;
+}
+
+function child(deckPath: string): void {
+  const ctx: BenchContext = { text: readFileSync(deckPath, 'utf8'), devices: 0 };
+  const times: Record<string, number> = {};
+  for (const s of STAGES) {
+    const t0 = performance.now();
+    s.run(ctx);
+    times[s.name] = (performance.now() - t0) / 1000;
+  }
+  const result: ChildResult = { times, devices: ctx.devices, peakRssMiB: process.resourceUsage().maxRSS / 1024 };
+  process.stdout.write(JSON.stringify(result) + '\n');
+}
+
+function parent(): void {
+  const dir = path.resolve(__dirname, '../bench-results');
+  mkdirSync(dir, { recursive: true });
+  const only = process.argv.slice(2).filter((a) => !a.startsWith('--'));
+  const cases = only.length > 0 ? CASES.filter((c) => only.some((o) => c.label.startsWith(o))) : CASES;
+  const rows: string[][] = [];
+  const header = ['design', 'devices', 'deck MiB', ...STAGES.map((s) => `${s.name} s`), 'total s', 'µs/device', 'peak RSS MiB'];
+  for (const c of cases) {
+    const deckPath = path.join(dir, `${c.label.replace(' ', '-')}.cir`);
+    writeFileSync(deckPath, writeSpice(generateBitSliced({ slices: slicesFor(c.transistors, c.family), family: c.family, flat: c.flat })));
+    const run = spawnSync(process.execPath, [...process.execArgv, __filename, '--child', deckPath], {
+      encoding: 'utf8',
+      maxBuffer: 16 * 1024 * 1024,
+    });
+    if (run.status !== 0) {
+      process.stderr.write(`${c.label}: child failed (status ${run.status})\n${run.stderr}\n`);
+      process.exitCode = 1;
+      continue;
+    }
+    const r = JSON.parse(run.stdout.trim().split('\n').pop()!) as ChildResult;
+    const total = Object.values(r.times).reduce((a, b) => a + b, 0);
+    rows.push([
+      c.label,
+      r.devices.toLocaleString('en-US'),
+      (statSync(deckPath).size / 2 ** 20).toFixed(1),
+      ...STAGES.map((s) => r.times[s.name].toFixed(3)),
+      total.toFixed(3),
+      ((total * 1e6) / r.devices).toFixed(2),
+      r.peakRssMiB.toFixed(0),
+    ]);
+    process.stderr.write(`done ${c.label}\n`);
+  }
+  const widths = header.map((h, i) => Math.max(h.length, ...rows.map((r) => r[i].length)));
+  const line = (cells: string[]) => cells.map((x, i) => (i === 0 ? x.padEnd(widths[i]) : x.padStart(widths[i]))).join('  ');
+  console.log(`Trimwire bench — ${process.version}, ${new Date().toISOString()}`);
+  console.log('RTL bit-sliced designs ("hier": one slice subcircuit instantiated; "flat": every device in the deck)');
+  console.log(line(header));
+  console.log(widths.map((w) => '-'.repeat(w)).join('  '));
+  for (const r of rows) console.log(line(r));
+}
+
+if (process.argv[2] === '--child') child(process.argv[3]);
+else parent();
