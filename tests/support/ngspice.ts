@@ -1,130 +1,100 @@
-// Runs SPICE-style decks in ngspice batch mode for tests and parses the vectors they write with
-// `wrdata` (one header line of vector names, then rows) — never the paginated `.print` output.
-// operatingPoints() batches every input combination of a deck into one run with `alter` lines.
-import { execFileSync } from 'node:child_process';
-import { mkdtempSync, readFileSync, rmSync, writeFileSync, existsSync } from 'node:fs';
+// Runs ngspice (the Debian package; scripts/test.sh installs it) in batch mode on a deck and
+// returns the vectors it wrote with `wrdata`, parsed from the table (never from paginated .print).
+// operatingPoints() batches one DC operating point per input combination into a single run.
+import { spawnSync } from 'node:child_process';
+import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 
-/** One row of a wrdata table: vector name (lower case, as ngspice spells it) → value. */
-export type VectorRow = Record<string, number>;
-
 export interface NgspiceRun {
-  /** Every row every `wrdata @OUT …` line wrote, in order. */
-  rows: VectorRow[];
-  stdout: string;
+  /** One row per wrdata call (or per sweep point), vector name (lower case) → value. */
+  rows: Record<string, number>[];
+  log: string;
 }
 
-export class NgspiceError extends Error {
-  constructor(
-    message: string,
-    readonly output: string,
-  ) {
-    super(message);
-    this.name = 'NgspiceError';
-  }
-}
+/** Placeholder a deck uses for the wrdata file: `wrdata {out} v(y)`. */
+export const OUT = '{out}';
 
-const NUMBER = /^[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?$|^[-+]?(nan|inf)$/i;
-
-/** Parses wrdata text: a header of names (wr_vecnames) followed by numeric rows, repeated. */
-export function parseWrdata(text: string): VectorRow[] {
-  const rows: VectorRow[] = [];
-  let header: string[] | undefined;
-  for (const raw of text.split(/\r?\n/)) {
-    const tokens = raw.trim().split(/\s+/).filter(Boolean);
-    if (tokens.length === 0) continue;
-    if (!tokens.every((t) => NUMBER.test(t))) {
-      header = tokens.map((t) => t.toLowerCase());
+/** Parses a wrdata table written with `wr_vecnames`: header lines name the columns that follow. */
+export function parseWrdata(text: string): Record<string, number>[] {
+  const rows: Record<string, number>[] = [];
+  let names: string[] = [];
+  for (const line of text.split(/\r?\n/)) {
+    const cells = line.trim().split(/\s+/).filter(Boolean);
+    if (cells.length === 0) continue;
+    const nums = cells.map(Number);
+    if (nums.some((x) => Number.isNaN(x))) {
+      names = cells.map((c) => c.toLowerCase());
       continue;
     }
-    if (!header) throw new NgspiceError('wrdata output has values before any header (set wr_vecnames)', text);
-    if (tokens.length !== header.length) {
-      throw new NgspiceError(`wrdata row has ${tokens.length} values for ${header.length} names: ${raw.trim()}`, text);
-    }
-    const row: VectorRow = {};
-    header.forEach((name, i) => (row[name] = Number(tokens[i])));
-    rows.push(row);
+    if (names.length !== nums.length) throw new Error(`wrdata row has ${nums.length} values for ${names.length} names: ${line}`);
+    rows.push(Object.fromEntries(names.map((n, i) => [n, nums[i]])));
   }
   return rows;
 }
 
-/**
- * Runs `deck` (full text, title line first, ending in `.end`) with `ngspice -b`. Inside its
- * `.control` block, `@OUT` names the file wrdata appends to; the parsed rows are returned.
- * End the block with `quit` (ngspice otherwise exits non-zero with a "no simulations" note).
- * ngspice errors (a line starting "Error") or a missing output file throw NgspiceError.
- */
-export function runNgspice(deck: string, options: { timeoutMs?: number } = {}): NgspiceRun {
+/** Runs a deck whose `.control` block writes with `wrdata {out} …` (set wr_vecnames, appendwrite). */
+export function runNgspice(deck: string, timeoutMs = 30_000): NgspiceRun {
   const dir = mkdtempSync(path.join(tmpdir(), 'tw-ngspice-'));
   try {
     const out = path.join(dir, 'out.txt');
     const file = path.join(dir, 'deck.cir');
-    writeFileSync(file, deck.replace(/@OUT/g, out));
-    let stdout: string;
-    try {
-      stdout = execFileSync('ngspice', ['-b', file], {
-        encoding: 'utf8',
-        stdio: ['ignore', 'pipe', 'pipe'],
-        timeout: options.timeoutMs ?? 30_000,
-        cwd: dir,
-      });
-    } catch (err) {
-      const e = err as { stdout?: string; stderr?: string; message: string };
-      throw new NgspiceError(`ngspice failed: ${e.message}`, `${e.stdout ?? ''}\n${e.stderr ?? ''}`);
-    }
-    const bad = stdout.split(/\r?\n/).find((l) => /^\s*error/i.test(l));
-    if (bad) throw new NgspiceError(`ngspice reported: ${bad.trim()}`, stdout);
-    if (!existsSync(out)) throw new NgspiceError('ngspice wrote no wrdata output', stdout);
-    return { rows: parseWrdata(readFileSync(out, 'utf8')), stdout };
+    writeFileSync(file, deck.split(OUT).join(out));
+    const r = spawnSync('ngspice', ['-b', file], { encoding: 'utf8', timeout: timeoutMs, cwd: dir });
+    const log = `${r.stdout ?? ''}\n${r.stderr ?? ''}`;
+    if (r.error) throw new Error(`ngspice did not run: ${r.error.message}`);
+    // ngspice exits 1 in batch mode when the deck has no .print/.plot; errors are in the log.
+    const bad = log.split('\n').filter((l) => /^\s*(error|fatal)/i.test(l) || /singular matrix|timestep too small|no convergence/i.test(l));
+    if (bad.length) throw new Error(`ngspice reported: ${bad.slice(0, 5).join(' | ')}`);
+    if (!existsSync(out)) throw new Error(`ngspice wrote no data; log:\n${log.slice(0, 2000)}`);
+    return { rows: parseWrdata(readFileSync(out, 'utf8')), log };
   } finally {
     rmSync(dir, { recursive: true, force: true });
   }
 }
 
-export interface OperatingPointRequest {
-  /** Deck text as written (title first); a trailing `.end` and any `.control` block are replaced. */
-  deck: string;
-  /** Input nets driven by added DC sources, named as in the deck. */
-  inputs: string[];
-  /** One entry per operating point: input net → volts (every input listed). */
-  points: Record<string, number>[];
-  /** Vectors to record, e.g. "v(y)", "i(vcc)". */
-  probes: string[];
+export interface OperatingPointOptions {
+  /** Input nets to drive from ideal sources, with one value (volts) per net per combination. */
+  combinations: Record<string, number>[];
+  /** Nets whose voltages to read back. */
+  probe: string[];
+  /** Extra vectors (e.g. `i(vvcc)`) to read. */
+  extra?: string[];
 }
 
-/** DC operating point at every point in one ngspice run: `alter` the input sources, `op`, `wrdata`. */
-export function operatingPoints(req: OperatingPointRequest): VectorRow[] {
-  if (req.points.length === 0) return [];
-  const body = req.deck
-    .replace(/^\s*\.control[\s\S]*?^\s*\.endc\s*$/gim, '')
-    .replace(/^\s*\.end\s*$/gim, '')
-    .trimEnd();
-  const sourceOf = (net: string, i: number) => `VTWIN${i}`;
-  const sources = req.inputs.map((net, i) => `${sourceOf(net, i)} ${net} 0 DC ${req.points[0][net] ?? 0}`);
-  const control = ['.control', 'set wr_vecnames', 'set wr_singlescale', 'set appendwrite'];
-  for (const point of req.points) {
-    req.inputs.forEach((net, i) => {
-      const volts = point[net];
-      if (volts === undefined || !Number.isFinite(volts)) throw new Error(`operating point lacks a value for input ${net}`);
-      control.push(`alter ${sourceOf(net, i)} = ${volts}`);
-    });
-    control.push('op', `wrdata @OUT ${req.probes.join(' ')}`);
+/**
+ * DC operating point of a written deck (title first, `.end` last) for each input combination,
+ * in one ngspice run: the inputs get sources, then `alter` + `op` + `wrdata` per combination.
+ * Returns, per combination, net name (as given) → volts, plus the extra vectors.
+ */
+export function operatingPoints(deck: string, o: OperatingPointOptions): Record<string, number>[] {
+  if (o.combinations.length === 0) return [];
+  const inputs = Object.keys(o.combinations[0]);
+  const body = deck.replace(/^\s*\.end\s*$/im, '').replace(/^\s*\.(op|tran|dc|ac)\b.*$/gim, '');
+  const src = (n: string) => `VTW_${n.replace(/[^A-Za-z0-9_]/g, '_')}`;
+  const vectors = [...o.probe.map((n) => `v(${n})`), ...(o.extra ?? [])];
+  const lines = [body.trimEnd(), ...inputs.map((n) => `${src(n)} ${n} 0 DC 0`), '.control', 'set wr_vecnames', 'set appendwrite'];
+  for (const combo of o.combinations) {
+    for (const n of inputs) lines.push(`alter ${src(n)} dc=${combo[n]}`);
+    lines.push('op', `wrdata ${OUT} ${vectors.join(' ')}`);
   }
-  // `quit` ends the batch run cleanly (exit status 0) instead of ngspice's "no simulations" note.
-  control.push('quit', '.endc');
-  const { rows } = runNgspice([body, ...sources, ...control, '.end', ''].join('\n'));
-  if (rows.length !== req.points.length) {
-    throw new NgspiceError(`expected ${req.points.length} operating points, ngspice wrote ${rows.length}`, '');
+  lines.push('.endc', '.end', '');
+  const run = runNgspice(lines.join('\n'));
+  if (run.rows.length !== o.combinations.length) {
+    throw new Error(`ngspice gave ${run.rows.length} operating points for ${o.combinations.length} combinations`);
   }
-  return rows;
+  return run.rows.map((row) => {
+    const out: Record<string, number> = {};
+    o.probe.forEach((n) => (out[n] = row[`v(${n.toLowerCase()})`] ?? row[n.toLowerCase()]));
+    for (const e of o.extra ?? []) out[e] = row[e.toLowerCase()];
+    for (const [k, val] of Object.entries(out)) if (val === undefined || Number.isNaN(val)) throw new Error(`ngspice gave no value for ${k}`);
+    return out;
+  });
 }
 
-/** Every 0/1 combination of `names` (first name = most significant bit). */
-export function allCombinations(names: string[]): Record<string, 0 | 1>[] {
-  const out: Record<string, 0 | 1>[] = [];
-  for (let m = 0; m < 2 ** names.length; m++) {
-    out.push(Object.fromEntries(names.map((n, i) => [n, ((m >> (names.length - 1 - i)) & 1) as 0 | 1])));
-  }
+/** Every combination of the given inputs at the two levels (low, high). */
+export function allCombinations(inputs: string[], low: number, high: number): Record<string, number>[] {
+  const out: Record<string, number>[] = [];
+  for (let m = 0; m < 1 << inputs.length; m++) out.push(Object.fromEntries(inputs.map((n, i) => [n, (m >> i) & 1 ? high : low])));
   return out;
 }
