@@ -19,7 +19,7 @@ function shareDriver(): Proposal {
     edit.removeDevices.push(`XS${k}.Q1`, `XS${k}.RC`, `XS${k}.RB`);
     edit.mergeNets.push({ keep: 'XS0.LDN', remove: `XS${k}.LDN` });
   }
-  return { id: 'shared-control-driver-1', title: 'one load inverter for four slices', edit, assumptions: [] };
+  return { id: 'shared-control-driver-1', title: 'one load inverter for four slices', edit, assumptions: [], margins: [] };
 }
 
 describe('applyProposals', () => {
@@ -43,7 +43,7 @@ describe('applyProposals', () => {
     const p: Proposal = {
       id: 'p1',
       title: 'steer',
-      assumptions: [],
+      assumptions: [], margins: [],
       edit: {
         ...emptyEdit(),
         reconnect: [{ device: 'XS1.RB', terminal: 0, net: 'XS0.LDN' }],
@@ -58,15 +58,15 @@ describe('applyProposals', () => {
 
   it('refuses overlapping proposals naming both and what they share', () => {
     const nl = sliceInverters(2);
-    const a: Proposal = { id: 'rule-a', title: 'a', assumptions: [], edit: { ...emptyEdit(), removeDevices: ['XS0.Q1'] } };
-    const b: Proposal = { id: 'rule-b', title: 'b', assumptions: [], edit: { ...emptyEdit(), reconnect: [{ device: 'XS0.Q1', terminal: 1, net: 'LOAD' }] } };
+    const a: Proposal = { id: 'rule-a', title: 'a', assumptions: [], margins: [], edit: { ...emptyEdit(), removeDevices: ['XS0.Q1'] } };
+    const b: Proposal = { id: 'rule-b', title: 'b', assumptions: [], margins: [], edit: { ...emptyEdit(), reconnect: [{ device: 'XS0.Q1', terminal: 1, net: 'LOAD' }] } };
     expect(() => applyProposals(nl, [a, b])).toThrow(InputError);
     expect(() => applyProposals(nl, [a, b])).toThrow(/rule-a and rule-b overlap \(both change device XS0.Q1\)/);
   });
 
   it('refuses an edit that does not fit the netlist', () => {
     const nl = sliceInverters(1);
-    const p: Proposal = { id: 'p', title: 'p', assumptions: [], edit: { ...emptyEdit(), addDevices: [{ name: 'QN', kind: 'npn', terminals: ['a', 'b'] }] } };
+    const p: Proposal = { id: 'p', title: 'p', assumptions: [], margins: [], edit: { ...emptyEdit(), addDevices: [{ name: 'QN', kind: 'npn', terminals: ['a', 'b'] }] } };
     expect(() => applyProposals(nl, [p])).toThrow(/npn QN with 2 terminals/);
   });
 
@@ -77,7 +77,7 @@ describe('applyProposals', () => {
         const removable = nl.devices.filter((d) => d.kind !== 'vsource');
         const proposals: Proposal[] = removable
           .filter((_, i) => picks[i % picks.length])
-          .map((d, i) => ({ id: `p${i}`, title: d.name, assumptions: [], edit: { ...emptyEdit(), removeDevices: [d.name], addDevices: i % 2 ? [{ name: `RNEW${i}`, kind: 'resistor', terminals: ['VCC', `N${i}`], value: 1000 }] : [] } }));
+          .map((d, i) => ({ id: `p${i}`, title: d.name, assumptions: [], margins: [], edit: { ...emptyEdit(), removeDevices: [d.name], addDevices: i % 2 ? [{ name: `RNEW${i}`, kind: 'resistor', terminals: ['VCC', `N${i}`], value: 1000 }] : [] } }));
         const before = countFlat(nl);
         const after = countFlat(applyProposals(nl, proposals));
         const s = sumSavings(proposals.map((p) => editSavings(nl, p.edit)));

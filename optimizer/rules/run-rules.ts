@@ -130,6 +130,7 @@ export async function runRules(netlist: FlatNetlist, view: LogicView, options: R
           title: p.title,
           edit: p.edit,
           assumptions: [...(p.assumptions ?? [])],
+          margins: [...(p.margins ?? [])],
         })),
       });
     }

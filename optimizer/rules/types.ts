@@ -5,6 +5,7 @@ import type { LogicView } from '../extract/types';
 import type { Expr } from '../logic/expr';
 import type { Minimiser } from '../logic/minimiser';
 import type { MapFamily } from '../logic/family-parts';
+import type { MarginResult } from '../margins/corners';
 import type { MarginSettings } from '../margins/defaults';
 import type { DeviceKind, FlatNetlist, GateOp, ParamValue } from '../netlist/ir';
 
@@ -50,6 +51,8 @@ export interface Proposal {
   edit: Edit;
   /** Ids of the assumptions this rewrite is only valid under. */
   assumptions: string[];
+  /** Electrical checks the rule evaluated for this rewrite (worst corner each). */
+  margins: MarginResult[];
 }
 
 export interface FindingLocation {
@@ -76,7 +79,7 @@ export interface FindingReport {
   messageId: string;
   data?: Record<string, string | number>;
   location: Partial<FindingLocation>;
-  proposals: { title: string; edit: Edit; assumptions?: string[] }[];
+  proposals: { title: string; edit: Edit; assumptions?: string[]; margins?: MarginResult[] }[];
 }
 
 export interface RuleContext {

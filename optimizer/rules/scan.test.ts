@@ -1,0 +1,103 @@
+// Proves the scan pipeline's verdicts: a sound shared driver is proved and ready, the same rewrite
+// past its fan-out limit is failing-margins, a wrong rewrite is refuted with a counterexample that
+// distinguishes the designs, and an assumption-dependent rewrite is proved only under it.
+import { describe, expect, it } from 'vitest';
+import { z } from 'zod';
+import { evaluate } from '../logic/expr';
+import { parseExpr } from '../logic/expr-parse';
+import { fanOut } from '../margins/line';
+import { NetlistBuilder } from '../netlist/build';
+import { defineRule } from './define-rule';
+import { scan } from './scan';
+import { sliceInverters } from './test-helpers';
+import { emptyEdit } from './types';
+
+/** Test double of a sharing rule: keep slice 0's inverter, merge every other slice's output into it. */
+const share = defineRule({
+  id: 'test-share',
+  meta: {
+    description: 'share the first slice inverter',
+    messages: { share: '{n} slices each invert {net}' },
+    optionsSchema: z.object({ wrongInput: z.boolean() }),
+    defaultOptions: { wrongInput: false },
+  },
+  find(ctx, options) {
+    const qs = ctx.netlist.devices.filter((d) => d.kind === 'npn');
+    const edit = emptyEdit();
+    if (options.wrongInput) {
+      edit.reconnect.push({ device: 'XS1.RB', terminal: 0, net: 'CLR' });
+    } else {
+      for (const q of qs.slice(1)) {
+        const p = q.path.join('.');
+        edit.removeDevices.push(`${p}.Q1`, `${p}.RC`, `${p}.RB`);
+        edit.mergeNets.push({ keep: 'XS0.LDN', remove: `${p}.LDN` });
+      }
+    }
+    ctx.report({
+      messageId: 'share',
+      data: { n: qs.length, net: 'LOAD' },
+      location: { devices: qs.map((q) => q.name), nets: ['LOAD'] },
+      proposals: [{ title: 'one shared inverter', edit, margins: [fanOut({ loads: qs.length, family: 'rtl' }, ctx.margins)] }],
+    });
+  },
+});
+const rules = { [share.id]: share };
+
+describe('scan', () => {
+  it('proves a shared driver and marks it ready when its margins pass', async () => {
+    const r = await scan(sliceInverters(4), { rules });
+    expect(r.ruleErrors).toEqual([]);
+    const p = r.findings[0].proposals[0];
+    expect(p.verification.status).toBe('proved');
+    expect(p.verification.compared).toEqual(['XS0.LDN', 'XS1.LDN', 'XS2.LDN', 'XS3.LDN']);
+    expect(p.savings).toMatchObject({ transistors: 3, resistors: 6 });
+    expect(p.verdict).toBe('ready');
+  });
+
+  it('marks the same proved rewrite failing-margins past the RTL fan-out', async () => {
+    // Mano (from memory): typical RTL fan-out 5 — eight loads on one driver fails.
+    const r = await scan(sliceInverters(8), { rules });
+    const p = r.findings[0].proposals[0];
+    expect(p.verification.status).toBe('proved');
+    expect(p.margins[0].status).toBe('fail');
+    expect(p.verdict).toBe('failing-margins');
+  });
+
+  it('refutes a wrong rewrite with a counterexample that distinguishes the designs', async () => {
+    const r = await scan(sliceInverters(2), { rules, ruleOptions: { 'test-share': { wrongInput: true } } });
+    const p = r.findings[0].proposals[0];
+    expect(p.verdict).toBe('refuted');
+    const cex = p.verification.counterexample!;
+    expect(cex.LOAD).not.toBe(cex.CLR);
+    expect(p.verification.differing?.map((d) => d.name)).toEqual(['XS1.LDN']);
+  });
+
+  it('proves an assumption-dependent rewrite only under the assumption it names', async () => {
+    // Two CMOS-free gate-level slices: Y = !(A & B) rewritten to Y = !A, valid only while A -> B.
+    const build = () => {
+      const b = new NetlistBuilder('Wren-8 flag gate');
+      b.gate('G1', 'nand', ['Y', 'A', 'B']);
+      return b.build();
+    };
+    const assumeRule = (ids: string[]) =>
+      defineRule({
+        id: 'test-assume',
+        meta: { description: '', messages: { m: 'drop B' }, optionsSchema: z.object({}), defaultOptions: {} },
+        find(ctx) {
+          ctx.report({
+            messageId: 'm',
+            location: { devices: ['G1'] },
+            proposals: [{ title: 'drop B', assumptions: ids, edit: { ...emptyEdit(), removeDevices: ['G1'], addDevices: [{ name: 'G1N', kind: 'gate', op: 'not', terminals: ['Y', 'A'] }] } }],
+          });
+        },
+      });
+    const assumptions = [{ id: 'A1', text: 'A -> B', expr: parseExpr('A -> B') }];
+    const withIt = await scan(build(), { rules: { 'test-assume': assumeRule(['A1']) }, assumptions });
+    expect(withIt.findings[0].proposals[0].verification).toMatchObject({ status: 'proved', assumptions: ['A1'] });
+    expect(withIt.findings[0].proposals[0].savings.gates).toBe(0);
+    const without = await scan(build(), { rules: { 'test-assume': assumeRule([]) }, assumptions });
+    const v = without.findings[0].proposals[0].verification;
+    expect(v.status).toBe('refuted');
+    expect(evaluate(assumptions[0].expr, v.counterexample!)).toBe(0);
+  });
+});

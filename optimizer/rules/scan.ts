@@ -1,0 +1,169 @@
+// The scan pipeline: extract logic, run the rules, then for every proposal prove the changed nets
+// equivalent under the assumptions it relies on, take the rule's margin checks and price its
+// savings, and give a verdict: ready, failing-margins, refuted (or unproved when no proof ran).
+import { extractLogic } from '../extract';
+import type { LogicView } from '../extract/types';
+import { combinationalModel } from '../extract/compose';
+import { v, type Expr } from '../logic/expr';
+import { editSavings, type Savings } from '../cost/cost';
+import { DEFAULT_PARTS_TABLE, type PartsTable } from '../cost/parts-table';
+import type { MarginResult } from '../margins/corners';
+import type { FlatNetlist } from '../netlist/ir';
+import { applyProposals } from '../rewrite/apply';
+import { checkEquivalence, type EquivResult } from '../verify/equivalence';
+import { runRules, type OverlapGraph, type RuleErrorRecord, type RunOptions } from './run-rules';
+import type { Assumption, Finding, Proposal } from './types';
+
+export type Verdict = 'ready' | 'failing-margins' | 'refuted' | 'unproved';
+
+export interface Verification {
+  status: 'proved' | 'refuted' | 'unproved';
+  method: string;
+  /** Ids of the assumptions the proof used (proved) or was run under (refuted). */
+  assumptions: string[];
+  counterexample?: Record<string, 0 | 1>;
+  /** Nets whose values differ on the counterexample, before and after. */
+  differing?: { name: string; before: 0 | 1; after: 0 | 1 }[];
+  /** Nets compared. */
+  compared: string[];
+  note?: string;
+}
+
+export interface ScannedProposal {
+  proposal: Proposal;
+  verification: Verification;
+  margins: MarginResult[];
+  savings: Savings;
+  verdict: Verdict;
+}
+
+export interface ScannedFinding {
+  finding: Finding;
+  proposals: ScannedProposal[];
+}
+
+export interface ScanResult {
+  view: LogicView;
+  findings: ScannedFinding[];
+  ruleErrors: RuleErrorRecord[];
+  overlaps: OverlapGraph;
+}
+
+/** Pluggable so a server can run proofs in a worker thread; the default is in-process. */
+export type Verifier = (before: Record<string, Expr>, after: Record<string, Expr>, assumptions: Assumption[]) => EquivResult;
+
+export interface ScanOptions extends RunOptions {
+  view?: LogicView;
+  partsTable?: PartsTable;
+  verifier?: Verifier;
+}
+
+const defaultVerifier: Verifier = (before, after, assumptions) =>
+  checkEquivalence(before, after, { assumptions: assumptions.map((a) => ({ name: a.id, expr: a.expr })) });
+
+const ownerCache = new WeakMap<LogicView, Map<number, string[]>>();
+
+/** Device index → names of the driven nets whose groups contain it (built once per view). */
+function ownersOf(view: LogicView): Map<number, string[]> {
+  let m = ownerCache.get(view);
+  if (m) return m;
+  m = new Map();
+  for (const node of view.nodes) for (const d of node.devices) m.set(d, [...(m.get(d) ?? []), node.name]);
+  ownerCache.set(view, m);
+  return m;
+}
+
+/**
+ * Nets an edit changes: terminals of removed, reconnected and added devices, merged nets, and
+ * every driven net whose logic group contains a removed or reconnected device (a base resistor
+ * moved changes the collector node it feeds).
+ */
+function changedNets(nl: FlatNetlist, view: LogicView, p: Proposal): string[] {
+  const names = new Set<string>();
+  const index = new Map(nl.devices.map((d, i) => [d.name, i]));
+  const hit = new Set<number>();
+  for (const name of [...p.edit.removeDevices, ...p.edit.reconnect.map((r) => r.device)]) {
+    const i = index.get(name);
+    if (i === undefined) continue;
+    hit.add(i);
+    for (const t of nl.devices[i].terminals) names.add(nl.nets[t].name);
+  }
+  const owners = ownersOf(view);
+  for (const d of hit) for (const n of owners.get(d) ?? []) names.add(n);
+  for (const r of p.edit.reconnect) names.add(r.net);
+  for (const d of p.edit.addDevices) for (const t of d.terminals) names.add(t);
+  for (const m of p.edit.mergeNets) names.add(m.keep).add(m.remove);
+  const rails = new Set(nl.rails.map((r) => nl.nets[r.net].name));
+  return [...names].filter((n) => !rails.has(n)).sort();
+}
+
+/**
+ * Equivalence of the changed nets, each as a function of the primary inputs and state bits.
+ * A net the rewrite leaves undriven and unread (an internal node of removed parts) is skipped;
+ * one that stays read but loses its driver is compared as a free variable, which refutes.
+ */
+export function verifyProposal(
+  before: { nl: FlatNetlist; view: LogicView },
+  p: Proposal,
+  assumptions: Assumption[],
+  verifier: Verifier = defaultVerifier,
+): Verification {
+  const after = applyProposals(before.nl, [p]);
+  const afterView = extractLogic(after);
+  const driven = (view: LogicView, nl: FlatNetlist, name: string) => {
+    const id = nl.netByName.get(name);
+    return id !== undefined && view.nodeByNet.has(id);
+  };
+  const readAfter = new Set(afterView.nodes.flatMap((n) => n.inputs));
+  const compared = changedNets(before.nl, before.view, p).filter(
+    (n) => driven(before.view, before.nl, n) && (driven(afterView, after, n) || readAfter.has(after.nets[after.netByName.get(n) ?? 0]?.name)),
+  );
+  const used = assumptions.filter((a) => p.assumptions.includes(a.id));
+  if (compared.length === 0) {
+    return { status: 'unproved', method: 'none', assumptions: used.map((a) => a.id), compared, note: 'the rewrite changes no driven net the extractor can see' };
+  }
+  const bModel = combinationalModel(before.view, compared.map((n) => before.nl.nets[before.nl.netByName.get(n)!].name));
+  const afterNames = compared.map((n) => after.nets[after.netByName.get(n)!].name);
+  const drivenAfter = afterNames.filter((n) => afterView.nodeByNet.has(after.netByName.get(n)!));
+  const aModel = combinationalModel(afterView, drivenAfter);
+  const beforeFns: Record<string, Expr> = {};
+  const afterFns: Record<string, Expr> = {};
+  compared.forEach((name, k) => {
+    beforeFns[name] = bModel.outputs[before.nl.nets[before.nl.netByName.get(name)!].name];
+    afterFns[name] = aModel.outputs[afterNames[k]] ?? v(afterNames[k]);
+  });
+  try {
+    const r = verifier(beforeFns, afterFns, used);
+    if (r.verdict === 'proved') return { status: 'proved', method: r.method, assumptions: r.assumptionsUsed, compared };
+    return { status: 'refuted', method: r.method, assumptions: used.map((a) => a.id), counterexample: r.counterexample, differing: r.outputs, compared };
+  } catch (err) {
+    return { status: 'unproved', method: 'none', assumptions: used.map((a) => a.id), compared, note: err instanceof Error ? err.message : String(err) };
+  }
+}
+
+export function verdictOf(verification: Verification, margins: MarginResult[]): Verdict {
+  if (verification.status === 'refuted') return 'refuted';
+  if (verification.status === 'unproved') return 'unproved';
+  return margins.some((m) => m.status === 'fail') ? 'failing-margins' : 'ready';
+}
+
+export async function scan(netlist: FlatNetlist, options: ScanOptions = {}): Promise<ScanResult> {
+  const view = options.view ?? extractLogic(netlist);
+  const run = await runRules(netlist, view, options);
+  const assumptions = options.assumptions ?? [];
+  const family = options.targetFamily ?? 'cmos';
+  const findings = run.findings.map((finding) => ({
+    finding,
+    proposals: finding.proposals.map((proposal) => {
+      const verification = verifyProposal({ nl: netlist, view }, proposal, assumptions, options.verifier);
+      return {
+        proposal,
+        verification,
+        margins: proposal.margins,
+        savings: editSavings(netlist, proposal.edit, family, options.partsTable ?? DEFAULT_PARTS_TABLE),
+        verdict: verdictOf(verification, proposal.margins),
+      };
+    }),
+  }));
+  return { view, findings, ruleErrors: run.ruleErrors, overlaps: run.overlaps };
+}
