@@ -7,11 +7,11 @@ export type TabId = 'bench' | 'sign-off' | 'lessons' | 'team' | 'account';
 export type TabSpec = { id: TabId; title: string; description: string; roles: readonly Role[] };
 
 export const TABS: readonly TabSpec[] = [
-  { id: 'bench', title: 'Bench', description: 'Designs, scans and proposals', roles: ['designer', 'admin', 'reviewer', 'educator'] },
-  { id: 'sign-off', title: 'Sign-off', description: 'Proposals waiting for a decision', roles: ['reviewer', 'admin'] },
-  { id: 'lessons', title: 'Lessons', description: 'Trade-offs to explore and share', roles: ['educator', 'designer', 'viewer', 'admin'] },
-  { id: 'team', title: 'Team', description: 'Members, invites, outbox and audit log', roles: ['admin'] },
-  { id: 'account', title: 'Account', description: 'Your name, notifications and teams', roles: ['admin', 'designer', 'reviewer', 'educator', 'viewer'] },
+  { id: 'bench', title: 'Bench', description: 'Designs and scans', roles: ['designer', 'admin', 'reviewer', 'educator'] },
+  { id: 'sign-off', title: 'Sign-off', description: 'Rewrites to decide', roles: ['reviewer', 'admin'] },
+  { id: 'lessons', title: 'Lessons', description: 'Trade-offs to teach', roles: ['educator', 'designer', 'viewer', 'admin'] },
+  { id: 'team', title: 'Team', description: 'People, mail, audit', roles: ['admin'] },
+  { id: 'account', title: 'Account', description: 'Profile and teams', roles: ['admin', 'designer', 'reviewer', 'educator', 'viewer'] },
 ];
 
 export function tabsForRole(role: Role): TabSpec[] {

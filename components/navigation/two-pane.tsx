@@ -11,6 +11,8 @@ export type TwoPaneProps = {
   detail: ReactNode | null;
   // What the wide detail pane shows while nothing is selected.
   placeholder: ReactNode;
+  // Shown above the list on phones and above the detail on wide windows (e.g. a create form).
+  aside?: ReactNode;
   onBack: () => void;
   backLabel: string;
   testID: string;
@@ -20,21 +22,29 @@ export function TwoPane(props: TwoPaneProps) {
   return useLayoutSize() === 'wide' ? <TwoPaneWide {...props} /> : <TwoPanePhone {...props} />;
 }
 
-function TwoPaneWide({ list, detail, placeholder, testID }: TwoPaneProps) {
+function TwoPaneWide({ list, detail, placeholder, aside, testID }: TwoPaneProps) {
   const { spacing, sizes } = useTheme();
   return (
     <View testID={testID} style={{ flexDirection: 'row', gap: spacing.lg, alignItems: 'flex-start' }}>
       <View style={{ width: sizes.listPane }}>{list}</View>
-      <View testID={`${testID}-detail`} style={{ flex: 1, minWidth: 0 }}>
+      <View testID={`${testID}-detail`} style={{ flex: 1, minWidth: 0, gap: spacing.lg }}>
+        {aside}
         {detail ?? placeholder}
       </View>
     </View>
   );
 }
 
-function TwoPanePhone({ list, detail, onBack, backLabel, testID }: TwoPaneProps) {
+function TwoPanePhone({ list, detail, aside, onBack, backLabel, testID }: TwoPaneProps) {
   const { spacing } = useTheme();
-  if (detail === null) return <View testID={testID}>{list}</View>;
+  if (detail === null) {
+    return (
+      <View testID={testID} style={{ gap: spacing.lg }}>
+        {aside}
+        {list}
+      </View>
+    );
+  }
   return (
     <View testID={`${testID}-detail`} style={{ gap: spacing.md }}>
       <View style={{ alignSelf: 'flex-start' }}>

@@ -45,17 +45,15 @@ export function MembersSection() {
   );
 
   return (
-    <View style={{ gap: spacing.lg }}>
-      <InviteForm />
-      <TwoPane
-        testID="members"
-        list={list}
-        detail={member ? <MemberDetail key={member.userId} member={member} isSelf={member.userId === me?.user.id} onRemoved={() => setSelected(null)} /> : null}
-        placeholder={<EmptyState icon="members" title="Choose a member" body="Pick someone on the left to change their role or remove them from the team." testID="member-placeholder" />}
-        onBack={() => setSelected(null)}
-        backLabel="All members"
-      />
-    </View>
+    <TwoPane
+      testID="members"
+      list={list}
+      aside={<InviteForm />}
+      detail={member ? <MemberDetail key={member.userId} member={member} isSelf={member.userId === me?.user.id} onRemoved={() => setSelected(null)} /> : null}
+      placeholder={<EmptyState icon="members" title="Choose a member" body="Pick someone on the left to change their role or remove them from the team." testID="member-placeholder" />}
+      onBack={() => setSelected(null)}
+      backLabel="All members"
+    />
   );
 }
 
