@@ -25,7 +25,7 @@ function modelVto(cx: ExtractContext, dev: number): number | undefined {
  * An always-on load transistor from a positive rail: depletion NMOS (negative VTO, or gate tied
  * to its own source), or a PMOS with its gate on ground (pseudo-NMOS). Returns the loaded net.
  */
-function loadTransistor(cx: ExtractContext, dev: number): { net: number; rail: number } | undefined {
+export function loadTransistor(cx: ExtractContext, dev: number): { net: number; rail: number } | undefined {
   const d = cx.nl.devices[dev];
   const [dr, g, s] = d.terminals;
   const railEnd = isHighRail(cx, dr) ? dr : isHighRail(cx, s) ? s : -1;

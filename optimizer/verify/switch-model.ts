@@ -1,0 +1,193 @@
+// The switch network a switch-level simulation walks, built once from a FlatNetlist: channel
+// edges (MOS channels, bipolar collector–emitter paths, loads, plain resistors, one-way diodes)
+// with their controls, groups of nets joined by edges (union-find), and who reads each net.
+import { InputError } from '../errors';
+import type { FlatNetlist } from '../netlist/ir';
+import type { Expr } from '../logic/expr';
+import { makeContext, isRail } from '../extract/context';
+import { BaseResolver } from '../extract/bipolar';
+import { loadTransistor } from '../extract/mos';
+
+/** Strengths (Bryant 1984): rail > driven transistor > pull-up resistor > stored charge. */
+export const RAIL = 4;
+export const DRIVEN = 3;
+export const WEAK = 2;
+export const CHARGE = 1;
+
+export interface Edge {
+  device: number;
+  a: number;
+  b: number;
+  /** Strongest signal the edge passes. */
+  cap: number;
+  /** 'nmos' on at 1, 'pmos' on at 0, 'expr' = bipolar base drive, 'always' = resistor/load. */
+  control: 'nmos' | 'pmos' | 'expr' | 'always';
+  gate: number;
+  expr?: Expr;
+  /** Diodes: a (anode) passes 1 toward b; b (cathode) passes 0 toward a. */
+  oneWay: boolean;
+}
+
+export interface SwitchModel {
+  nl: FlatNetlist;
+  edges: Edge[];
+  /** Group per net (-1 for rails and inputs, which are sources). */
+  groupOf: Int32Array;
+  groups: { nets: number[]; edges: number[]; gates: number[] }[];
+  /** Edges per net (adjacency, by edge index). */
+  edgesAt: number[][];
+  /** Groups that must be re-evaluated when this net changes (controls and source adjacency). */
+  readers: number[][];
+  /** Gate-level devices reading a net. */
+  gateReaders: number[][];
+  /** Gate-level devices (indices into nl.devices) and their output net. */
+  gates: number[];
+  railValue: Map<number, 0 | 1>;
+  isInput: Uint8Array;
+  netIdsOf: (name: string) => number;
+}
+
+function find(p: Int32Array, x: number): number {
+  while (p[x] !== x) {
+    p[x] = p[p[x]];
+    x = p[x];
+  }
+  return x;
+}
+
+export function buildSwitchModel(nl: FlatNetlist, inputNames: string[]): SwitchModel {
+  const cx = makeContext(nl);
+  const nNets = nl.nets.length;
+  const netIdsOf = (name: string): number => {
+    const id = nl.netByName.get(name);
+    if (id === undefined) throw InputError.at('simulate.unknown-net', `the stimulus names net "${name}", which the design does not have`);
+    return id;
+  };
+  const isInput = new Uint8Array(nNets);
+  for (const n of inputNames) isInput[netIdsOf(n)] = 1;
+  const railValue = new Map<number, 0 | 1>();
+  for (const r of nl.rails) railValue.set(r.net, r.volts > 0 ? 1 : 0);
+  const isSource = (n: number) => isInput[n] === 1 || isRail(cx, n);
+
+  const bases = new BaseResolver(cx);
+  const baseNet = new Set<number>();
+  const inBaseNetwork = new Uint8Array(nl.devices.length);
+  const edges: Edge[] = [];
+  const gates: number[] = [];
+  nl.devices.forEach((d, i) => {
+    if (d.kind === 'npn' || d.kind === 'pnp') {
+      const drive = bases.drive(i);
+      for (const x of drive.devices) inBaseNetwork[x] = 1;
+      baseNet.add(d.terminals[1]);
+    }
+  });
+  nl.devices.forEach((d, i) => {
+    const t = d.terminals;
+    switch (d.kind) {
+      case 'nmos':
+      case 'pmos': {
+        if (loadTransistor(cx, i)) edges.push({ device: i, a: t[0], b: t[2], cap: WEAK, control: 'always', gate: -1, oneWay: false });
+        else edges.push({ device: i, a: t[0], b: t[2], cap: DRIVEN, control: d.kind, gate: t[1], oneWay: false });
+        break;
+      }
+      case 'npn':
+        edges.push({ device: i, a: t[0], b: t[2], cap: DRIVEN, control: 'expr', gate: -1, expr: bases.drive(i).on, oneWay: false });
+        break;
+      case 'pnp':
+        // a PNP conducts while its base is pulled low
+        edges.push({ device: i, a: t[0], b: t[2], cap: DRIVEN, control: 'pmos', gate: t[1], oneWay: false });
+        break;
+      case 'resistor':
+        if (!inBaseNetwork[i] && !baseNet.has(t[0]) && !baseNet.has(t[1])) {
+          edges.push({ device: i, a: t[0], b: t[1], cap: WEAK, control: 'always', gate: -1, oneWay: false });
+        }
+        break;
+      case 'diode':
+        if (!inBaseNetwork[i]) edges.push({ device: i, a: t[0], b: t[1], cap: DRIVEN, control: 'always', gate: -1, oneWay: true });
+        break;
+      case 'gate':
+        gates.push(i);
+        break;
+      default:
+        break; // capacitors and non-rail sources carry no switch-level signal
+    }
+  });
+  // Groups: nets joined by edges, never through sources.
+  const parent = new Int32Array(nNets);
+  for (let i = 0; i < nNets; i++) parent[i] = i;
+  for (const e of edges) {
+    if (isSource(e.a) || isSource(e.b)) continue;
+    const x = find(parent, e.a);
+    const y = find(parent, e.b);
+    if (x !== y) parent[x] = y;
+  }
+  const groupOf = new Int32Array(nNets).fill(-1);
+  const groups: SwitchModel['groups'] = [];
+  const rootGroup = new Map<number, number>();
+  const groupFor = (n: number): number => {
+    if (isSource(n)) return -1;
+    if (groupOf[n] >= 0) return groupOf[n];
+    const r = find(parent, n);
+    let g = rootGroup.get(r);
+    if (g === undefined) {
+      g = groups.length;
+      groups.push({ nets: [], edges: [], gates: [] });
+      rootGroup.set(r, g);
+    }
+    groupOf[n] = g;
+    groups[g].nets.push(n);
+    return g;
+  };
+  const edgesAt: number[][] = Array.from({ length: nNets }, () => []);
+  const readers: number[][] = Array.from({ length: nNets }, () => []);
+  const gateReaders: number[][] = Array.from({ length: nNets }, () => []);
+  const addReader = (net: number, g: number) => {
+    const list = readers[net];
+    if (list[list.length - 1] !== g) list.push(g);
+  };
+  edges.forEach((e, ei) => {
+    const g = groupFor(e.a) >= 0 ? groupFor(e.a) : groupFor(e.b);
+    groupFor(e.b);
+    if (g < 0) return; // an edge between two sources carries nothing
+    groups[g].edges.push(ei);
+    edgesAt[e.a].push(ei);
+    edgesAt[e.b].push(ei);
+    if (isSource(e.a)) addReader(e.a, g);
+    if (isSource(e.b)) addReader(e.b, g);
+    if (e.gate >= 0) addReader(e.gate, g);
+    if (e.expr) for (const n of exprNets(e.expr, nl)) addReader(n, g);
+  });
+  for (const gi of gates) {
+    const d = nl.devices[gi];
+    const g = groupFor(d.terminals[0]);
+    if (g >= 0) groups[g].gates.push(gi);
+    for (const n of d.terminals.slice(1)) gateReaders[n].push(gi);
+  }
+  return { nl, edges, groupOf, groups, edgesAt, readers, gateReaders, gates, railValue, isInput, netIdsOf };
+}
+
+function exprNets(e: Expr, nl: FlatNetlist, out: number[] = []): number[] {
+  switch (e.op) {
+    case 'var': {
+      const id = nl.netByName.get(e.name);
+      if (id !== undefined) out.push(id);
+      break;
+    }
+    case 'not':
+      exprNets(e.arg, nl, out);
+      break;
+    case 'and':
+    case 'or':
+    case 'xor':
+      for (const a of e.args) exprNets(a, nl, out);
+      break;
+    case 'implies':
+    case 'iff':
+      exprNets(e.left, nl, out);
+      exprNets(e.right, nl, out);
+      break;
+    default:
+      break;
+  }
+  return out;
+}
