@@ -1,0 +1,107 @@
+// Bridges PLA tables and gate-level designs: a PLA becomes an AND–OR design (one AND per cube,
+// one OR per output, shared input inverters); a small combinational gate-level design becomes a
+// PLA by exhaustive evaluation (one cube per true minterm, type f).
+import { InputError } from '../../errors';
+import type { Cell, Design, Device, GateOp } from '../../netlist/ir';
+import { flatten } from '../../netlist/flatten';
+import type { Pla } from './pla';
+
+export const PLA_TOP = 'PLA';
+const CONST1 = 'CONST1';
+const CONST0 = 'CONST0';
+
+export function plaToDesign(pla: Pla, title = 'PLA'): Design {
+  const devices: Device[] = [];
+  const gate = (name: string, op: GateOp, terminals: string[]) => devices.push({ name, kind: 'gate', op, terminals, params: {} });
+  const inverted = new Set<number>();
+  const netKinds: Cell['netKinds'] = {};
+  const cubeNets: string[] = [];
+  pla.cubes.forEach((c, k) => {
+    const lits: string[] = [];
+    for (let i = 0; i < c.in.length; i++) {
+      if (c.in[i] === '1') lits.push(pla.inputs[i]);
+      else if (c.in[i] === '0') {
+        inverted.add(i);
+        lits.push(`${pla.inputs[i]}_N`);
+      }
+    }
+    if (lits.length === 0) {
+      netKinds[CONST1] = 'supply1';
+      cubeNets.push(CONST1);
+    } else if (lits.length === 1) cubeNets.push(lits[0]);
+    else {
+      gate(`AND${k}`, 'and', [`CUBE${k}`, ...lits]);
+      cubeNets.push(`CUBE${k}`);
+    }
+  });
+  for (const i of [...inverted].sort((a, b) => a - b)) gate(`INV_${pla.inputs[i]}`, 'not', [`${pla.inputs[i]}_N`, pla.inputs[i]]);
+  pla.outputs.forEach((o, j) => {
+    // fr/fdr list the off-set too; the on-set (1s) defines the function either way.
+    const terms = pla.cubes.flatMap((c, k) => (c.out[j] === '1' ? [cubeNets[k]] : []));
+    if (terms.length === 0) {
+      netKinds[CONST0] = 'supply0';
+      gate(`OR_${o}`, 'buf', [o, CONST0]);
+    } else if (terms.length === 1) gate(`OR_${o}`, 'buf', [o, terms[0]]);
+    else gate(`OR_${o}`, 'or', [o, ...terms]);
+  });
+  const directions: Record<string, 'input' | 'output'> = {};
+  for (const i of pla.inputs) directions[i] = 'input';
+  for (const o of pla.outputs) directions[o] = 'output';
+  const cell: Cell = { name: PLA_TOP, ports: [...pla.inputs, ...pla.outputs], directions, devices, instances: [] };
+  if (Object.keys(netKinds).length > 0) cell.netKinds = netKinds;
+  return { title, format: 'pla', top: PLA_TOP, cells: { [PLA_TOP]: cell }, models: {}, globals: [], params: {}, extraCards: [] };
+}
+
+const MAX_PLA_INPUTS = 16;
+const EVAL: Partial<Record<GateOp, (x: boolean[]) => boolean>> = {
+  buf: (x) => x[0],
+  not: (x) => !x[0],
+  and: (x) => x.every(Boolean),
+  nand: (x) => !x.every(Boolean),
+  or: (x) => x.some(Boolean),
+  nor: (x) => !x.some(Boolean),
+  xor: (x) => x.reduce((a, b) => a !== b, false),
+  xnor: (x) => !x.reduce((a, b) => a !== b, false),
+};
+
+export function designToPla(design: Design): Pla {
+  const flat = flatten(design);
+  const top = design.cells[design.top];
+  const dir = top.directions ?? {};
+  const inputs = top.ports.filter((p) => dir[p] === 'input');
+  const outputs = top.ports.filter((p) => dir[p] === 'output');
+  if (inputs.length === 0 || outputs.length === 0) {
+    throw InputError.at('pla.write-ports', 'a PLA needs a top cell with input and output ports (a gate-level design with port directions)');
+  }
+  if (inputs.length > MAX_PLA_INPUTS) throw InputError.at('pla.write-size', `a PLA is written by exhaustive evaluation: at most ${MAX_PLA_INPUTS} inputs, found ${inputs.length}`);
+  const driver = new Map<number, (typeof flat.devices)[number]>();
+  for (const d of flat.devices) {
+    if (d.kind !== 'gate' || !EVAL[d.op!]) throw InputError.at('pla.write-kind', `${d.name} (${d.op ?? d.kind}) is not a combinational gate; only and/or/nand/nor/xor/xnor/not/buf designs can be written as a PLA`, d.loc);
+    if (driver.has(d.terminals[0])) throw InputError.at('pla.write-wired', `net ${flat.nets[d.terminals[0]].name} has more than one driver`, d.loc);
+    driver.set(d.terminals[0], d);
+  }
+  const inIds = inputs.map((p) => flat.netByName.get(p)!);
+  const supply = new Map<number, boolean>();
+  for (const n of flat.nets) if (n.kind === 'supply1' || n.kind === 'supply0') supply.set(n.id, n.kind === 'supply1');
+  const cubes: Pla['cubes'] = [];
+  for (let m = 0; m < 1 << inputs.length; m++) {
+    const value = new Map<number, boolean>(supply);
+    inIds.forEach((id, k) => value.set(id, ((m >> (inputs.length - 1 - k)) & 1) === 1));
+    const onPath = new Set<number>();
+    const evalNet = (id: number): boolean => {
+      const known = value.get(id);
+      if (known !== undefined) return known;
+      const d = driver.get(id);
+      if (!d) throw InputError.at('pla.write-undriven', `net ${flat.nets[id].name} has no driver and is not an input`);
+      if (onPath.has(id)) throw InputError.at('pla.write-loop', `combinational loop through ${flat.nets[id].name}`, d.loc);
+      onPath.add(id);
+      const v = EVAL[d.op!]!(d.terminals.slice(1).map(evalNet));
+      onPath.delete(id);
+      value.set(id, v);
+      return v;
+    };
+    const out = outputs.map((o) => (evalNet(flat.netByName.get(o)!) ? '1' : '0')).join('');
+    if (out.includes('1')) cubes.push({ in: m.toString(2).padStart(inputs.length, '0'), out });
+  }
+  return { inputs, outputs, cubes, type: 'f' };
+}
