@@ -72,6 +72,6 @@ export_web() {
   fi
   info "expo export --platform web → dist/"
   (cd "$ROOT" && EXPO_OFFLINE=1 EXPO_NO_TELEMETRY=1 CI=1 npx expo export --platform web --output-dir dist >"$DATA_DIR/expo-export.log" 2>&1) \
-    || { tail -n 40 "$DATA_DIR/expo-export.log" >&2; fail "expo export failed (full log: .data/expo-export.log)"; }
+    || { tail -n 40 "$DATA_DIR/expo-export.log" >&2; echo "expo export failed (full log: .data/expo-export.log)" >&2; return 1; }
   echo "$hash" >"$stamp"
 }

@@ -18,15 +18,21 @@ mkdir -p "$RESULTS"
 STARTED=$SECONDS
 SUMMARY=()
 
-count() { # count <json> <field>
-  node -e 'try{const r=require(process.argv[1]);console.log(r[process.argv[2]]??0)}catch{console.log(0)}' "$1" "$2"
+# Prints "<passed> <failed>" from a vitest JSON report. A file that failed before any test ran
+# (an import error, a failing beforeAll) counts as one failure, so it can never read as a pass.
+counts() {
+  node -e '
+    let r; try { r = require(process.argv[1]); } catch { console.log("0 1"); process.exit(0); }
+    const broken = (r.testResults || []).filter((f) => f.status === "failed" && !(f.assertionResults || []).some((a) => a.status === "failed")).length;
+    console.log(`${r.numPassedTests || 0} ${(r.numFailedTests || 0) + broken}`);
+  ' "$1"
 }
 
 summary() {
-  local passed=0 failed=0 f p x
+  local passed=0 failed=$EXTRA_FAILED f p x
   for f in "$RESULTS"/*.json; do
     [ -e "$f" ] || continue
-    p="$(count "$f" numPassedTests)"; x="$(count "$f" numFailedTests)"
+    read -r p x < <(counts "$f")
     passed=$((passed + p)); failed=$((failed + x))
   done
   printf '\n\033[1m==> Summary (%ss)\033[0m\n' "$((SECONDS - STARTED))"
@@ -35,17 +41,22 @@ summary() {
   echo "$passed passed, $failed failed"
 }
 
-stage_failed() { SUMMARY+=("$1: FAILED"); summary; exit 1; }
+# A failing non-test stage (set-up, type check, build) counts as one failure in the last line.
+EXTRA_FAILED=0
+stage_failed() { SUMMARY+=("$1: FAILED"); EXTRA_FAILED=1; summary; exit 1; }
 
 run_vitest() { # run_vitest <label> <result-name> <vitest args...>
   local label="$1" name="$2"; shift 2
   step "$label"
-  local out="$RESULTS/$name.json"
+  local out="$RESULTS/$name.json" p x
   if node_modules/.bin/vitest run "$@" --passWithNoTests --reporter=default --reporter=json --outputFile.json="$out"; then
-    SUMMARY+=("$label: $(count "$out" numPassedTests) passed, $(count "$out" numFailedTests) failed")
+    read -r p x < <(counts "$out")
+    SUMMARY+=("$label: $p passed, $x failed")
   else
-    [ -f "$out" ] && SUMMARY+=("$label: $(count "$out" numPassedTests) passed, $(count "$out" numFailedTests) failed")
-    stage_failed "$label"
+    read -r p x < <(counts "$out")
+    SUMMARY+=("$label: $p passed, $x failed — FAILED")
+    summary
+    exit 1
   fi
 }
 
