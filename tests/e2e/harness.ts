@@ -44,11 +44,24 @@ function portAnswers(port: number): Promise<boolean> {
   });
 }
 
+// A free port chosen up front, because the invite links in mail must name the server's address
+// before it starts, and a fixed port would collide with another run on the same machine.
+function freePort(): Promise<number> {
+  return new Promise((resolve, reject) => {
+    const probe = net.createServer();
+    probe.once('error', reject);
+    probe.listen(0, '127.0.0.1', () => {
+      const { port } = probe.address() as net.AddressInfo;
+      probe.close(() => resolve(port));
+    });
+  });
+}
+
 export async function startE2e(): Promise<E2e> {
   if (!fs.existsSync(path.join(ROOT, 'dist/index.html'))) {
     throw new Error('dist/index.html is missing: export the web build first (npm test does; by hand: EXPO_OFFLINE=1 EXPO_NO_TELEMETRY=1 CI=1 npx expo export --platform web).');
   }
-  const port = Number(process.env.E2E_PORT ?? 8091);
+  const port = process.env.E2E_PORT ? Number(process.env.E2E_PORT) : await freePort();
   const databaseUrl = process.env.DATABASE_URL ?? LOCAL_DATABASE_URLS.test;
   const smtpPort = Number(process.env.FAKE_SMTP_TEST_PORT ?? 2526);
 
