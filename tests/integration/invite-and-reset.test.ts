@@ -155,3 +155,27 @@ describe('invites and password resets', () => {
     await c.agent.post('/api/auth/set-password').set('X-CSRF-Token', c.csrf).send({ token, password: 'long-enough-password' }).expect(200);
   });
 });
+
+describe('when the mail server is unreachable', () => {
+  let h: Harness;
+  beforeAll(async () => {
+    // Port 1: connection refused, as when the SMTP server is down.
+    h = await startHarness({ SMTP_URL: 'smtp://127.0.0.1:1' });
+  });
+  afterAll(async () => {
+    await h.close();
+  });
+
+  it('an invite answers 503 and leaves no dead invite behind', async () => {
+    const admin = await signIn(h.app, 'admin@trimwire.test');
+    const res = await admin.agent.post('/api/team/invites').set('X-CSRF-Token', admin.csrf).send({ email: 'lost@example.test', role: 'viewer' });
+    expect(res.status).toBe(503);
+    expect(res.body.error.code).toBe('unavailable');
+    expect(await h.db.models.Token.count({ where: { email: 'lost@example.test' } })).toBe(0);
+  });
+
+  it('a reset request still answers 202 (it must not reveal which accounts exist)', async () => {
+    const c = await newClient(h.app);
+    await c.agent.post('/api/auth/password-reset').set('X-CSRF-Token', c.csrf).send({ email: 'viewer@trimwire.test' }).expect(202);
+  });
+});

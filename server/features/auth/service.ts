@@ -56,7 +56,13 @@ export async function requestPasswordReset(deps: AppDeps, email: string): Promis
   });
   const teamIds = await teamIdsOf(db, user.id);
   const link = `${env.PUBLIC_URL}/set-password?token=${encodeURIComponent(token)}`;
-  await mailer.send({ to: user.email, teamIds, ...resetMessage({ name: user.name, link, expiresAt }) });
+  try {
+    await mailer.send({ to: user.email, teamIds, ...resetMessage({ name: user.name, link, expiresAt }) });
+  } catch (err) {
+    // The caller still gets 202: an error here would tell strangers which e-mails have accounts.
+    console.error('[trimwire] reset mail failed:', err instanceof Error ? err.message : err);
+    return;
+  }
   await recordAuditForTeams(db, teamIds, { actor: null, action: 'password-reset-requested', target: user.email });
 }
 

@@ -5,7 +5,7 @@ import type { AppDeps } from '@/server/deps';
 import type { Db } from '@/server/db';
 import type { Membership, User } from '@/server/db/models';
 import { INVITE_TTL_MS, newToken } from '@/server/auth/tokens';
-import { Conflict, NotFound } from '@/server/http/errors';
+import { Conflict, HttpError, NotFound } from '@/server/http/errors';
 import { recordAudit } from '@/server/features/audit/service';
 import { inviteMessage } from '@/server/mail/templates';
 import type { Invite, Member, TeamResponse } from '@/shared/api/team';
@@ -55,7 +55,14 @@ export async function invite(deps: AppDeps, inviter: User, teamId: string, email
     );
   });
   const link = `${env.PUBLIC_URL}/set-password?token=${encodeURIComponent(token)}`;
-  await mailer.send({ to: email, teamIds: [teamId], ...inviteMessage({ teamName: team.name, inviterName: inviter.name, role, link, expiresAt }) });
+  try {
+    await mailer.send({ to: email, teamIds: [teamId], ...inviteMessage({ teamName: team.name, inviterName: inviter.name, role, link, expiresAt }) });
+  } catch (err) {
+    // The link only exists in the e-mail, so an invite whose mail failed is useless: drop it.
+    await row.destroy();
+    console.error('[trimwire] invite mail failed:', err instanceof Error ? err.message : err);
+    throw new HttpError(503, 'unavailable', 'The invite e-mail could not be sent. Check the mail settings and try again.');
+  }
   await recordAudit(db, { teamId, actor: { id: inviter.id, email: inviter.email }, action: 'invite-sent', target: email, details: { role } });
   return { id: row.id, email, role, expiresAt: expiresAt.toISOString() };
 }
