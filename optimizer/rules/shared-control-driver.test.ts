@@ -5,7 +5,7 @@ import { describe, expect, it } from 'vitest';
 import { NetlistBuilder } from '../netlist/build';
 import type { FlatNetlist } from '../netlist/ir';
 import { sharedControlDriver } from './shared-control-driver';
-import { countDelta, deckToFlat, docExamples, runOne } from './support/rule-test-kit';
+import { countDelta, deckToFlat, docExamples, runOne } from './support/sharing-test-kit';
 import { sliceInverters } from './test-helpers';
 import type { Rule } from './types';
 
