@@ -1,6 +1,7 @@
 // Signs in through the real sign-in page as each demo role, at a phone size and a wide size, and
 // checks the shell shows exactly that role's tabs (bottom tabs on phones, side rail when wide),
-// that tabs outside the role redirect, and that signing out returns to sign-in.
+// that tabs outside the role redirect, and that signing out returns to sign-in; plus the
+// not-found page and the password reset request.
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_PASSWORD, screenshot, signIn, startE2e, visibleTabs, type E2e, type SizeName } from './harness';
 
@@ -36,6 +37,32 @@ describe.each(SIZE_NAMES)('at %s size', (size) => {
       await page.getByTestId('sign-in-screen').waitFor();
       expect(new URL(page.url()).pathname).toBe('/sign-in');
       await screenshot(page, 'sign-in', 'signed-out', size);
+    } finally {
+      await context.close();
+    }
+  });
+
+  it('shows the not-found page for an unknown address', async () => {
+    const { context, page } = await e2e.newPage(size);
+    try {
+      await page.goto('/no-such-place');
+      await page.getByTestId('not-found-screen').waitFor();
+      await screenshot(page, 'not-found', 'signed-out', size);
+    } finally {
+      await context.close();
+    }
+  });
+
+  it('asks for a password reset from the sign-in page', async () => {
+    const { context, page } = await e2e.newPage(size);
+    try {
+      await page.goto('/sign-in');
+      await page.getByTestId('sign-in-forgot').click();
+      await page.getByTestId('forgot-password-screen').waitFor();
+      await page.getByTestId('forgot-password-email').fill('educator@trimwire.test');
+      await page.getByTestId('forgot-password-submit').click();
+      await expect(page.getByTestId('forgot-password-sent').innerText()).resolves.toContain('educator@trimwire.test');
+      await screenshot(page, 'forgot-password', 'signed-out', size);
     } finally {
       await context.close();
     }
