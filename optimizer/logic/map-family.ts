@@ -15,7 +15,8 @@ export interface MappedGate {
 
 export interface MappedOutput {
   name: string;
-  form: 'nand' | 'nor' | 'wire' | 'constant';
+  /** 'not': the output is one literal's complement, made by an inverter of its own. */
+  form: 'nand' | 'nor' | 'not' | 'wire' | 'constant';
   /** True when the output was built from its complement's cover. */
   fromComplement: boolean;
   /** For wire: the signal it equals; for constant: its value. */
@@ -85,8 +86,9 @@ function realise(name: string, cover: Cover, inputs: string[], form: 'nand' | 'n
   if (cover.length === 1) {
     const lits = literals(cover[0], inputs);
     if (lits.length === 1) {
-      const s = signal(lits[0], !invert);
-      return { gates, needs, out: { ...base, form: 'wire', source: s } };
+      if (lits[0].positive === !invert) return { gates, needs, out: { ...base, form: 'wire', source: lits[0].name } };
+      gates.push({ op: 'not', inputs: [lits[0].name], output: name });
+      return { gates, needs, out: { ...base, form: 'not' } };
     }
     // G = AND(lits): NAND gives NOT G; NOR of complemented literals gives G.
     const gateOp = form;

@@ -161,3 +161,17 @@ export function constantValue(o: OutputTable, n: number): 0 | 1 | undefined {
   if (allOnOrDc) return 1;
   return undefined;
 }
+
+/** The same function with on-set and off-set swapped (don't-cares kept): the complement's table. */
+export function complementTable(t: TruthTable): TruthTable {
+  const n = t.inputs.length;
+  const all = fullSet(n);
+  return {
+    inputs: [...t.inputs],
+    outputs: t.outputs.map((o) => {
+      const on = new Uint32Array(o.on.length);
+      for (let w = 0; w < on.length; w++) on[w] = ~(o.on[w] | o.dc[w]) & all[w];
+      return { name: o.name, on, dc: o.dc.slice() };
+    }),
+  };
+}

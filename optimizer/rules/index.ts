@@ -2,7 +2,9 @@
 // so what a scan runs is visible in one place.
 import type { Rule } from './types';
 import { doubleInversion } from './double-inversion';
+import { twoLevelMinimise } from './two-level-minimise';
 
 export const RULES: Record<string, Rule> = {
   [doubleInversion.id]: doubleInversion as unknown as Rule,
+  [twoLevelMinimise.id]: twoLevelMinimise as unknown as Rule,
 };

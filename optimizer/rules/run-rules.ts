@@ -96,6 +96,9 @@ export async function runRules(netlist: FlatNetlist, view: LogicView, options: R
         renderMessage(rule.id, rule.meta.messages, f.messageId, f.data); // unknown id → InternalError now
         reports.push(f);
       },
+      reportError(element, message) {
+        ruleErrors.push({ ruleId: rule.id, message: new RuleError(rule.id, message, element).message, element });
+      },
     };
     try {
       await rule.find(ctx, ruleOptions);

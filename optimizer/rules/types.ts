@@ -93,6 +93,8 @@ export interface RuleContext {
   /** Clock period in seconds, when the design or board gives one. */
   readonly clockPeriod?: number;
   report(finding: FindingReport): void;
+  /** Records a problem with one element (recorded as a rule error) and lets the rule go on. */
+  reportError(element: string, message: string): void;
 }
 
 export interface RuleMeta<S extends z.ZodType> {

@@ -1,0 +1,148 @@
+// two-level-minimise: re-synthesises a fanout-free combinational cone as the minimised sum of
+// products of its function (the stated assumptions over its inputs become don't-cares), mapped
+// to the family's cheapest two-level form, and proposes it when it takes fewer parts.
+import { z } from 'zod';
+import { GROUND } from '../netlist/ir';
+import { editSavings } from '../cost/cost';
+import { evaluate, support } from '../logic/expr';
+import type { MapFamily } from '../logic/family-parts';
+import { mapCover } from '../logic/map-family';
+import { coverToText } from '../logic/cubes';
+import { complementTable, fromFunction } from '../logic/truth-table';
+import { fanOut } from '../margins/line';
+import { worstOf } from '../margins/corners';
+import { emitNetwork, type EmitContext } from '../rewrite/emit-gates';
+import { defineRule } from './define-rule';
+import { fanoutFreeCones, readersOf, type Cone } from './lib/cones';
+import type { Assumption, RuleContext } from './types';
+
+const OptionsSchema = z.object({
+  /** Largest cone input count minimised (2^n truth-table rows). */
+  maxInputs: z.number().int().min(2).max(16),
+  /** Per-function limit on the minimiser. */
+  timeoutMs: z.number().int().min(100).max(600_000),
+});
+
+const FAMILIES: readonly MapFamily[] = ['rtl', 'dtl', 'cmos', 'nmos', 'gate'];
+
+/** Values, models and rails for new gates, taken from the devices being replaced. */
+function emitContext(ctx: RuleContext, cone: Cone): EmitContext | undefined {
+  const nl = ctx.netlist;
+  const devs = cone.devices.map((d) => nl.devices[d]);
+  const modelOf = (kind: string) => devs.find((d) => d.kind === kind)?.model;
+  const high = [...nl.rails].filter((r) => r.volts > 0).sort((a, b) => b.volts - a.volts)[0];
+  const pullUp = cone.nodes.find((n) => n.pullUp?.ohms)?.pullUp;
+  if (!high && cone.root.family !== 'gate') return undefined;
+  const bases = cone.nodes.flatMap((n) => n.groups.flatMap((g) => g.bases));
+  const baseOhms = bases.flatMap((b) => b.baseResistors.map((r) => r.ohms)).find((x) => x !== undefined);
+  const dp = bases.find((b) => b.diodePullUp?.ohms)?.diodePullUp?.ohms;
+  const bleed = bases.find((b) => b.bleed !== undefined)?.bleed;
+  const paramsOf = (kind: string) => devs.find((d) => d.kind === kind)?.params;
+  return {
+    prefix: `${cone.root.name}.TLM`,
+    vcc: high ? nl.nets[high.net].name : '',
+    gnd: GROUND,
+    path: [...(cone.nodes[0].groups[0]?.path ?? [])],
+    models: { npn: modelOf('npn'), nmos: modelOf('nmos'), pmos: modelOf('pmos'), diode: modelOf('diode') },
+    mosParams: { nmos: paramsOf('nmos'), pmos: paramsOf('pmos') },
+    // Fall back to common DTL/RTL values only where the replaced gates give none.
+    ohms: {
+      load: pullUp?.ohms ?? 2000,
+      base: baseOhms ?? 4700,
+      diodePullUp: dp ?? 2000,
+      bleed: bleed !== undefined ? (nl.devices[bleed].value ?? 5000) : 5000,
+    },
+    existing: new Set([...cone.leaves, cone.root.name]),
+  };
+}
+
+/** Minimise and map one cone under a set of assumptions; undefined when it maps to a wire or constant. */
+async function resynthesise(ctx: RuleContext, cone: Cone, family: MapFamily, assumptions: Assumption[], timeoutMs: number) {
+  const care = assumptions.length ? (bits: number[]) => assumptions.every((a) => evaluate(a.expr, Object.fromEntries(cone.leaves.map((x, i) => [x, bits[i] as 0 | 1]))) === 1) : undefined;
+  const table = fromFunction(cone.leaves, [cone.root.name], (bits) => [evaluate(cone.fn, Object.fromEntries(cone.leaves.map((x, i) => [x, bits[i] as 0 | 1]))) === 1], care);
+  const [on, off] = await Promise.all([
+    ctx.minimiser.minimiseCover(table, { timeoutMs }),
+    ctx.minimiser.minimiseCover(complementTable(table), { timeoutMs }),
+  ]);
+  const network = mapCover(on.cover, family, { complement: off.cover });
+  if (network.outputs.some((o) => o.form === 'wire' || o.form === 'constant')) return undefined;
+  return { network, cover: on.cover };
+}
+
+export const twoLevelMinimise = defineRule({
+  id: 'two-level-minimise',
+  meta: {
+    description:
+      'Replaces a combinational block by its minimised two-level form (Espresso, with the assumptions as don\'t-cares) in the family\'s cheapest gates, when that takes fewer parts.',
+    messages: {
+      smaller: 'the logic driving {net} ({inputs} inputs, {before} parts) can be built as {form} of {after} parts: {sop}',
+      smallerAssuming: 'the logic driving {net} ({inputs} inputs, {before} parts) can be built as {form} of {after} parts while {assumptions} hold: {sop}',
+    },
+    optionsSchema: OptionsSchema,
+    defaultOptions: { maxInputs: 8, timeoutMs: 10_000 },
+  },
+  async find(ctx, options) {
+    const nl = ctx.netlist;
+    const view = ctx.view;
+    const ports = new Set(nl.ports.map((p) => nl.nets[p].name));
+    const readers = readersOf(view);
+    for (const cone of fanoutFreeCones(view, options.maxInputs, ports)) {
+      if (cone.leaves.length < 2) continue;
+      const family = cone.root.family;
+      if (!FAMILIES.includes(family) || cone.nodes.some((n) => n.family !== family)) continue;
+      const cx = emitContext(ctx, cone);
+      if (!cx) continue;
+      const leafSet = new Set(cone.leaves);
+      const usable = ctx.assumptions.filter((a) => [...support(a.expr)].every((x) => leafSet.has(x)));
+      let plain;
+      let assumed;
+      try {
+        plain = await resynthesise(ctx, cone, family, [], options.timeoutMs);
+        assumed = usable.length ? await resynthesise(ctx, cone, family, usable, options.timeoutMs) : undefined;
+      } catch (err) {
+        // A minimiser timeout or failure skips this block only; the scan records it.
+        ctx.reportError(cone.root.name, `could not minimise the block driving ${cone.root.name}: ${err instanceof Error ? err.message : String(err)}`);
+        continue;
+      }
+      // Rely on assumptions only when they buy something over the plain minimum.
+      const pick = assumed && (!plain || assumed.network.parts.transistors + assumed.network.parts.resistors + assumed.network.parts.diodes <
+        plain.network.parts.transistors + plain.network.parts.resistors + plain.network.parts.diodes) ? { ...assumed, relies: usable } : plain && { ...plain, relies: [] as Assumption[] };
+      if (!pick) continue;
+      let added;
+      try {
+        added = emitNetwork(pick.network, family, cx);
+      } catch {
+        continue; // a family model the block lacks (e.g. no diode model): nothing to build with
+      }
+      const edit = { removeDevices: cone.devices.map((d) => nl.devices[d].name), addDevices: added, reconnect: [], mergeNets: [] };
+      const savings = editSavings(nl, edit, family === 'gate' ? ctx.targetFamily : family);
+      const discrete = savings.transistors + savings.resistors + savings.diodes;
+      if (discrete < 0 || (discrete === 0 && savings.gates <= 0)) continue;
+      const before = cone.devices.length;
+      const after = added.length;
+      // Each leaf's load count after the rewrite: readers outside the cone plus new gates reading it.
+      const coneNames = new Set(cone.nodes.map((n) => n.name));
+      const margins = cone.leaves.map((leaf) => {
+        const outside = (readers.get(leaf) ?? []).filter((i) => !coneNames.has(view.nodes[i].name)).length;
+        const inside = pick.network.gates.filter((g) => g.inputs.includes(leaf)).length;
+        return fanOut({ loads: outside + inside, family }, ctx.margins);
+      });
+      const worst = worstOf(margins);
+      const data = {
+        net: cone.root.name,
+        inputs: cone.leaves.length,
+        before,
+        after,
+        form: family === 'rtl' || (family !== 'dtl' && pick.network.gates.some((g) => g.op === 'nor')) ? 'NOR–NOR' : 'NAND–NAND',
+        sop: coverToText(pick.cover.outputs[0].cover, cone.leaves),
+        ...(pick.relies.length ? { assumptions: pick.relies.map((a) => a.id).join(', ') } : {}),
+      };
+      ctx.report({
+        messageId: pick.relies.length ? 'smallerAssuming' : 'smaller',
+        data,
+        location: { devices: edit.removeDevices, instances: [...new Set(cone.nodes.map((n) => n.groups[0]?.path.join('.') ?? '').filter(Boolean))], nets: [cone.root.name, ...cone.leaves] },
+        proposals: [{ title: `rebuild ${cone.root.name} as ${data.form}`, edit, assumptions: pick.relies.map((a) => a.id), margins: worst ? [worst] : [] }],
+      });
+    }
+  },
+});
