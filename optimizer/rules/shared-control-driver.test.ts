@@ -5,7 +5,7 @@ import { describe, expect, it } from 'vitest';
 import { NetlistBuilder } from '../netlist/build';
 import type { FlatNetlist } from '../netlist/ir';
 import { sharedControlDriver } from './shared-control-driver';
-import { countDelta, deckToFlat, docExamples, runOne } from './support/sharing-test-kit';
+import { countDelta, deckToFlat, deckExamples, runOne } from './support/sharing-test-kit';
 import { sliceInverters } from './test-helpers';
 import type { Rule } from './types';
 
@@ -215,7 +215,7 @@ describe('shared-control-driver: invalid (findings)', () => {
 });
 
 describe('shared-control-driver: doc examples', () => {
-  const examples = docExamples(path.join(__dirname, 'shared-control-driver.md'));
+  const examples = deckExamples(path.join(__dirname, 'shared-control-driver.md'));
   it('has examples', () => expect(examples.length).toBeGreaterThanOrEqual(3));
   it.each(examples.map((e) => [e.label, e] as const))('%s', async (_l, ex) => {
     const nl = deckToFlat(ex.deck);

@@ -1,105 +1,77 @@
 // Test kit for the sharing rules (shared-control-driver, shared-enable-switch, common-override):
 // run one rule on a netlist or a flattened SPICE-style deck, read a rule doc's fenced deck examples
 // with their `* expect:` lines, and compare the part-count change of a proposal with its savings.
-import { partsOf, editSavings, type Savings } from '../../cost/cost';
+import { readFileSync } from 'node:fs';
+import { editSavings } from '../../cost/cost';
 import { extractLogic } from '../../extract';
 import { readSpice } from '../../formats/spice/read';
-import type { MapFamily } from '../../logic/family-parts';
 import { parseExpr } from '../../logic/expr-parse';
+import { marginSettings, type MarginSettings } from '../../margins/defaults';
+import { countFlat } from '../../netlist/counts';
 import { flatten } from '../../netlist/flatten';
 import type { FlatNetlist } from '../../netlist/ir';
 import { applyProposals } from '../../rewrite/apply';
 import { runRules, type RunResult } from '../run-rules';
-import { scan, type ScanResult } from '../scan';
 import type { Assumption, Proposal, Rule } from '../types';
 
-export const assumptionsOf = (texts: readonly string[] = []): Assumption[] =>
-  texts.map((text, i) => ({ id: `A${i + 1}`, text, expr: parseExpr(text) }));
-
-export interface RunOne {
-  assumptions?: string[];
-  options?: unknown;
-  clockPeriod?: number;
-  targetFamily?: MapFamily;
+export function deckToFlat(text: string, file = 'example.cir'): FlatNetlist {
+  const { design, diagnostics } = readSpice(text, file);
+  const errors = diagnostics.filter((d) => d.severity === 'error');
+  if (errors.length) throw new Error(`${file}: ${errors.map((e) => e.message).join('; ')}`);
+  return flatten(design);
 }
 
-export function runOne(rule: Rule, nl: FlatNetlist, o: RunOne = {}): Promise<RunResult> {
-  return runRules(nl, extractLogic(nl), {
+export function assumption(id: string, text: string): Assumption {
+  return { id, text, expr: parseExpr(text) };
+}
+
+export async function runOne(
+  rule: Rule,
+  nl: FlatNetlist,
+  options: { ruleOptions?: unknown; assumptions?: Assumption[]; margins?: Partial<MarginSettings> } = {},
+): Promise<RunResult> {
+  const view = extractLogic(nl);
+  return runRules(nl, view, {
     rules: { [rule.id]: rule },
-    assumptions: assumptionsOf(o.assumptions),
-    ...(o.options ? { ruleOptions: { [rule.id]: o.options } } : {}),
-    ...(o.clockPeriod ? { clockPeriod: o.clockPeriod } : {}),
-    ...(o.targetFamily ? { targetFamily: o.targetFamily } : {}),
+    ...(options.ruleOptions ? { ruleOptions: { [rule.id]: options.ruleOptions } } : {}),
+    assumptions: options.assumptions ?? [],
+    margins: marginSettings(options.margins ?? {}),
   });
 }
 
-export function scanOne(rule: Rule, nl: FlatNetlist, o: RunOne = {}): Promise<ScanResult> {
-  return scan(nl, {
-    rules: { [rule.id]: rule },
-    assumptions: assumptionsOf(o.assumptions),
-    ...(o.options ? { ruleOptions: { [rule.id]: o.options } } : {}),
-    ...(o.clockPeriod ? { clockPeriod: o.clockPeriod } : {}),
-    ...(o.targetFamily ? { targetFamily: o.targetFamily } : {}),
-  });
-}
-
-const DIFF_KEYS = ['transistors', 'resistors', 'diodes', 'capacitors', 'gates'] as const;
-
-/** Stated savings of a proposal and the part counts the applied design really lost. */
-export function savingsProperty(nl: FlatNetlist, p: Proposal, family: MapFamily = 'cmos'): { stated: Savings; actual: Record<string, number> } {
-  const stated = editSavings(nl, p.edit, family);
-  const before = partsOf(nl.devices, family);
-  const after = partsOf(applyProposals(nl, [p]).devices, family);
-  const actual = Object.fromEntries(DIFF_KEYS.map((k) => [k, before[k] - after[k]]));
-  return { stated, actual };
-}
-
-export const pick = (s: Savings): Record<string, number> => Object.fromEntries(DIFF_KEYS.map((k) => [k, s[k]]));
-
-export interface DocExample {
-  /** From the fence's info string: ```spice name=… findings=… message=… */
-  name: string;
-  findings: number;
-  message?: string;
+export interface DeckExample {
+  /** The deck's title line, as a label. */
+  label: string;
   deck: string;
-  assumptions: string[];
-  clockPeriod?: number;
-  verdict?: string;
+  /** From `* expect: none` or `* expect: <messageId> key=value …`. */
+  expect: { messageId: string | null; data: Record<string, string> };
+  /** `* assume: ID EXPR` lines. */
+  assumptions: Assumption[];
 }
 
-const SUFFIX: Record<string, number> = { f: 1e-15, p: 1e-12, n: 1e-9, u: 1e-6, m: 1e-3, k: 1e3 };
-
-/**
- * Examples in a rule's doc: fenced blocks whose info string starts with `spice`, carrying
- * `name=`, `findings=`, optional `message=` and `verdict=`. Inside the deck, comment cards
- * `* assume: EXPR` state assumptions and `* clock: 1u` a clock period (plain comments to a reader).
- */
-export function docExamples(markdown: string): DocExample[] {
-  const out: DocExample[] = [];
-  const fence = /```spice([^\n]*)\n([\s\S]*?)```/g;
-  for (let m = fence.exec(markdown); m; m = fence.exec(markdown)) {
-    const attrs = Object.fromEntries([...m[1].matchAll(/(\w+)=(\S+)/g)].map((a) => [a[1], a[2]]));
-    if (!attrs.name || attrs.findings === undefined) throw new Error(`doc example without name= and findings=: ${m[1]}`);
-    const deck = m[2];
-    const assumptions = [...deck.matchAll(/^\*\s*assume:\s*(.+)$/gim)].map((a) => a[1].trim());
-    const clock = /^\*\s*clock:\s*([\d.]+)([fpnumk]?)s?\s*$/im.exec(deck);
-    out.push({
-      name: attrs.name,
-      findings: Number(attrs.findings),
-      ...(attrs.message ? { message: attrs.message } : {}),
-      ...(attrs.verdict ? { verdict: attrs.verdict } : {}),
-      deck,
-      assumptions,
-      ...(clock ? { clockPeriod: Number(clock[1]) * (SUFFIX[clock[2]] ?? 1) } : {}),
-    });
+/** Every ```spice block of a rule doc, with its expectation. */
+export function deckExamples(mdPath: string): DeckExample[] {
+  const md = readFileSync(mdPath, 'utf8');
+  const out: DeckExample[] = [];
+  for (const m of md.matchAll(/```spice\n([\s\S]*?)```/g)) {
+    const deck = m[1];
+    const expectLine = /^\*\s*expect:\s*(.+)$/m.exec(deck);
+    if (!expectLine) throw new Error(`${mdPath}: a spice example lacks a "* expect:" line`);
+    const [head, ...pairs] = expectLine[1].trim().split(/\s+/);
+    const data = Object.fromEntries(pairs.map((p) => p.split('=') as [string, string]));
+    const assumptions = [...deck.matchAll(/^\*\s*assume:\s*(\S+)\s+(.+)$/gm)].map((a) => assumption(a[1], a[2].trim()));
+    out.push({ label: deck.split('\n')[0].trim(), deck, expect: { messageId: head === 'none' ? null : head, data }, assumptions });
   }
   return out;
 }
 
-/** A SPICE-style deck as a flat netlist (reader errors fail the example loudly). */
-export function deckNetlist(deck: string, file = 'example.cir'): FlatNetlist {
-  const { design, diagnostics } = readSpice(deck, file);
-  const errors = diagnostics.filter((d) => d.severity === 'error');
-  if (errors.length) throw new Error(`${file}: ${errors.map((e) => e.message).join('; ')}`);
-  return flatten(design);
+/** Part counts after applying `proposal` minus before, against the savings the edit states. */
+export function countDelta(nl: FlatNetlist, proposal: Proposal): { actual: Record<string, number>; stated: Record<string, number> } {
+  const before = countFlat(nl);
+  const after = countFlat(applyProposals(nl, [proposal]));
+  const s = editSavings(nl, proposal.edit);
+  return {
+    actual: { transistors: before.transistors - after.transistors, resistors: before.resistors - after.resistors, diodes: before.diodes - after.diodes },
+    stated: { transistors: s.transistors, resistors: s.resistors, diodes: s.diodes },
+  };
 }
