@@ -4,13 +4,13 @@
 import { z } from 'zod';
 import type { LogicNode } from '../extract/types';
 import { exprToString, type Expr } from '../logic/expr';
-import { worstOf, type MarginResult } from '../margins/corners';
 import { checkEquivalence } from '../verify/equivalence';
 import { defineRule } from './define-rule';
 import { sharedDriverMargins } from './support/driver-margins';
 import { deviceOwnerCounts, sameFunctionClasses } from './support/same-function';
 import { DriverLoadIndex, mergeDriverLoads, type DriverLoads } from './support/driver-loads';
 import { describePlaces } from './support/places';
+import { chunked, fewestParts, worstPerName, type Chunk } from './support/chunks';
 import { emptyEdit, type Edit } from './types';
 
 const OptionsSchema = z.object({
@@ -19,32 +19,6 @@ const OptionsSchema = z.object({
   /** Fewest copies worth a finding. */
   minCopies: z.number().int().min(2),
 });
-
-export interface Chunk {
-  keep: number;
-  others: number[];
-}
-
-/** Members split into k runs of near-equal size, in design order; each run keeps its first. */
-export function chunked(members: number[], k: number): Chunk[] {
-  const out: Chunk[] = [];
-  const base = Math.floor(members.length / k);
-  const extra = members.length % k;
-  let at = 0;
-  for (let i = 0; i < k; i++) {
-    const size = base + (i < extra ? 1 : 0);
-    const run = members.slice(at, at + size);
-    at += size;
-    out.push({ keep: run[0], others: run.slice(1) });
-  }
-  return out;
-}
-
-/** Worst result per margin name over several drivers (design order of first appearance). */
-export function worstPerName(all: MarginResult[]): MarginResult[] {
-  const names = [...new Set(all.map((m) => m.name))];
-  return names.map((n) => worstOf(all.filter((m) => m.name === n))!);
-}
 
 export const sharedControlDriver = defineRule({
   id: 'shared-control-driver',
@@ -83,18 +57,7 @@ export const sharedControlDriver = defineRule({
             sharedDriverMargins(nl, view.nodes[ch.keep], mergeDriverLoads([ch.keep, ...ch.others].map((i) => loads.get(i)!)), ctx.margins),
           ),
         );
-      const single = marginsFor(chunked(cls.members, 1));
-      let drivers = 1;
-      let margins = single;
-      while (margins.some((m) => m.status === 'fail') && drivers + 1 < cls.members.length) {
-        drivers++;
-        margins = marginsFor(chunked(cls.members, drivers));
-      }
-      const passes = !margins.some((m) => m.status === 'fail');
-      if (!passes) {
-        drivers = 1;
-        margins = single;
-      }
+      const { parts: drivers, margins, single, passes } = fewestParts(cls.members, marginsFor);
       const chunks = chunked(cls.members, drivers);
       const totalLoads = [...loads.values()].reduce((s, l) => s + l.total, 0);
       const failed = single.filter((m) => m.status === 'fail').map((m) => m.name).join(', ');
