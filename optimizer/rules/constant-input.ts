@@ -1,0 +1,196 @@
+// constant-input: a gate input tied to a rail, or to a net the stated assumptions hold constant,
+// does not need its transistor (or its input): switches that never conduct go, switches that always
+// conduct are shorted out, base resistors / input diodes of constant inputs go, and gate-level
+// primitives lose the input. A gate whose output becomes constant is left alone.
+import { z } from 'zod';
+import type { LogicNode, SwitchNetwork } from '../extract/types';
+import { c, support, substitute, type Expr } from '../logic/expr';
+import type { GateOp } from '../netlist/ir';
+import type { MapFamily } from '../logic/family-parts';
+import { defineRule } from './define-rule';
+import { fixedByAssumptions, type FixedValue } from './support/fixed-nets';
+import { instancesOf, listWords, placeOf } from './support/finding-words';
+import { lineLoads, lineMargins } from './support/line-load-margins';
+import { NetIndex } from './support/net-index';
+import { emptyEdit, type Edit, type FindingReport, type RuleContext } from './types';
+
+const MAX_PATHS = 256;
+
+/** Every conduction path of a switch network as a device list (series = concatenation). */
+export function networkPaths(n: SwitchNetwork): number[][] {
+  if (n.type === 'switch') return [[n.device]];
+  if (n.type === 'parallel') return n.parts.flatMap(networkPaths).slice(0, MAX_PATHS + 1);
+  let acc: number[][] = [[]];
+  for (const part of n.parts) {
+    const next: number[][] = [];
+    for (const a of acc) for (const b of networkPaths(part)) next.push([...a, ...b]);
+    acc = next.slice(0, MAX_PATHS + 1);
+  }
+  return acc;
+}
+
+function switchesOn(n: SwitchNetwork, into = new Map<number, Expr>()): Map<number, Expr> {
+  if (n.type === 'switch') into.set(n.device, n.on);
+  else for (const p of n.parts) switchesOn(p, into);
+  return into;
+}
+
+interface Fixed extends FixedValue {
+  why: string;
+}
+
+export const constantInput = defineRule({
+  id: 'constant-input',
+  meta: {
+    description: 'A gate input tied to a rail or held constant by the assumptions: drop the input and the transistor that serves it.',
+    messages: {
+      simplify: '{gate} ({place}) has {inputs}; {removed} part(s) can go and it still computes the same output',
+      gate: 'gate {gate} ({place}) has {inputs}; it becomes {result}',
+    },
+    optionsSchema: z.object({}),
+    defaultOptions: {},
+  },
+  find(ctx) {
+    const { netlist: nl, view } = ctx;
+    const idx = new NetIndex(nl, view);
+    const fixed = new Map<string, Fixed>();
+    for (const r of nl.rails) fixed.set(nl.nets[r.net].name, { value: r.volts > 0 ? 1 : 0, assumptions: [], why: `tied to ${nl.nets[r.net].name}` });
+    for (const [name, f] of fixedByAssumptions(ctx.assumptions)) {
+      if (!fixed.has(name)) fixed.set(name, { ...f, why: `held at ${f.value} by ${f.assumptions.join(', ')}` });
+    }
+    if (fixed.size === 0) return;
+    for (const node of view.nodes) {
+      if (!['static', 'open-collector', 'wired'].includes(node.kind) || !idx.ownsAlone(node)) continue;
+      if (node.family === 'gate') gateLevel(ctx, idx, node, fixed);
+      else transistorLevel(ctx, idx, node, fixed);
+    }
+  },
+});
+
+function transistorLevel(ctx: RuleContext, idx: NetIndex, node: LogicNode, fixed: Map<string, Fixed>): void {
+  const nl = ctx.netlist;
+  const removed = new Set<number>();
+  const merges: { keep: string; remove: string }[] = [];
+  const reasons = new Map<string, Fixed>();
+  const railName = (net: number) => (idx.railNets.has(net) ? nl.nets[net].name : undefined);
+  for (const g of node.groups) {
+    const nets = [g.pullDown, g.pullUp].filter((x): x is SwitchNetwork => !!x);
+    for (const network of nets) {
+      const on = switchesOn(network);
+      const value = new Map<number, Expr>();
+      for (const [d, e] of on) {
+        const used = [...support(e)].filter((n) => fixed.has(n) && !idx.railNets.has(idx.netId(n)!));
+        const after = substitute(e, (n) => (fixed.has(n) ? c(fixed.get(n)!.value) : undefined));
+        value.set(d, after);
+        if (after.op !== 'const') continue;
+        for (const n of used) reasons.set(n, fixed.get(n)!);
+        if (e.op === 'const') {
+          // tied to a rail where the extractor read it: name the control net the device sees
+          const dev = nl.devices[d];
+          const base = g.bases.find((b) => b.transistor === d);
+          const railNet = base ? base.baseResistors.map((r) => railName(r.from)).find(Boolean) ?? railName(dev.terminals[1]) : railName(dev.terminals[1]);
+          if (railNet) reasons.set(railNet, fixed.get(railNet)!);
+        }
+      }
+      const isOpen = (d: number) => value.get(d)!.op === 'const' && (value.get(d) as { value: number }).value === 0;
+      const isShort = (d: number) => value.get(d)!.op === 'const' && (value.get(d) as { value: number }).value === 1;
+      const paths = networkPaths(network);
+      if (paths.length > MAX_PATHS) return;
+      const surviving = paths.filter((p) => !p.some(isOpen));
+      // a network that never or always conducts makes the output constant: not this rule's rewrite
+      if (surviving.length === 0 || surviving.some((p) => p.every(isShort))) return;
+      const keep = new Set(surviving.flat().filter((d) => !isShort(d)));
+      for (const d of on.keys()) {
+        if (keep.has(d)) continue;
+        removed.add(d);
+        const base = g.bases.find((b) => b.transistor === d);
+        for (const bd of base?.devices ?? []) removed.add(bd);
+        if (isShort(d) && surviving.some((p) => p.includes(d))) {
+          const [a, , b] = nl.devices[d].terminals;
+          const [k, r] = idx.railNets.has(b) || b === node.net ? [b, a] : [a, b];
+          merges.push({ keep: nl.nets[k].name, remove: nl.nets[r].name });
+        }
+      }
+      // Base networks of kept transistors: summed base resistors from nets held at 0, DTL input
+      // diodes on nets held at 1 (the AND ignores them) — each only while another input remains.
+      for (const b of g.bases) {
+        if (!keep.has(b.transistor)) continue;
+        if (b.kind === 'resistor-sum') {
+          const dead = b.baseResistors.filter((r) => fixed.get(nl.nets[r.from].name)?.value === 0 && !idx.railNets.has(r.from));
+          if (dead.length && dead.length < b.baseResistors.length) for (const r of dead) { removed.add(r.device); reasons.set(nl.nets[r.from].name, fixed.get(nl.nets[r.from].name)!); }
+        } else if (b.kind === 'diode-and') {
+          const dead = b.inputDiodes.filter((d) => fixed.get(nl.nets[nl.devices[d].terminals[1]].name)?.value === 1);
+          if (dead.length && dead.length < b.inputDiodes.length) for (const d of dead) { removed.add(d); const n = nl.nets[nl.devices[d].terminals[1]].name; reasons.set(n, fixed.get(n)!); }
+        }
+      }
+    }
+  }
+  if (removed.size === 0 || reasons.size === 0) return;
+  const devices = [...removed].map((d) => nl.devices[d].name);
+  const margins = lineMargins(node, lineLoads(idx, node.net, ctx.margins), node.family as MapFamily, ctx.margins);
+  ctx.report(report(node, nl.devices[node.groups[0].devices[0]].name, reasons, {
+    messageId: 'simplify',
+    data: { removed: removed.size },
+    location: { devices, instances: instancesOf([...removed].map((d) => nl.devices[d].path)), nets: [node.name, ...reasons.keys()] },
+    proposals: [{ title: `simplify the gate driving ${node.name}: remove ${listWords(devices)}`, edit: { ...emptyEdit(), removeDevices: devices, mergeNets: merges }, margins }],
+  }));
+}
+
+const SIMPLE: Partial<Record<GateOp, { controlling?: 0 | 1; invert: boolean; parity?: boolean }>> = {
+  and: { controlling: 0, invert: false },
+  nand: { controlling: 0, invert: true },
+  or: { controlling: 1, invert: false },
+  nor: { controlling: 1, invert: true },
+  xor: { invert: false, parity: true },
+  xnor: { invert: true, parity: true },
+};
+
+function gateLevel(ctx: RuleContext, idx: NetIndex, node: LogicNode, fixed: Map<string, Fixed>): void {
+  const nl = ctx.netlist;
+  if (node.devices.length !== 1) return;
+  const dev = nl.devices[node.devices[0]];
+  const shape = dev.op ? SIMPLE[dev.op] : undefined;
+  if (!shape) return;
+  const ins = dev.terminals.slice(1).map((t) => nl.nets[t].name);
+  const held = ins.filter((n) => fixed.has(n));
+  if (held.length === 0) return;
+  if (!shape.parity && held.some((n) => fixed.get(n)!.value === shape.controlling)) return; // constant output
+  const rest = ins.filter((n) => !fixed.has(n));
+  if (rest.length === 0) return;
+  let invert = shape.invert;
+  if (shape.parity) for (const n of held) if (fixed.get(n)!.value === 1) invert = !invert;
+  const base = dev.op === 'and' || dev.op === 'nand' ? 'and' : dev.op === 'or' || dev.op === 'nor' ? 'or' : 'xor';
+  const op: GateOp = rest.length === 1 ? (invert ? 'not' : 'buf') : (({ and: ['and', 'nand'], or: ['or', 'nor'], xor: ['xor', 'xnor'] } as const)[base][invert ? 1 : 0]);
+  const reasons = new Map(held.map((n) => [n, fixed.get(n)!]));
+  const named = new Set<string>();
+  for (const a of ctx.assumptions) support(a.expr, named);
+  const edit: Edit = { ...emptyEdit(), removeDevices: [dev.name] };
+  let margins = lineMargins(node, lineLoads(idx, node.net, ctx.margins), 'gate', ctx.margins);
+  let result: string;
+  if (op === 'buf' && !named.has(node.name) && !idx.ports.has(node.net)) {
+    // a buffer is a wire: its loads move onto the remaining input
+    edit.mergeNets.push({ keep: rest[0], remove: node.name });
+    const inNet = idx.netId(rest[0])!;
+    margins = lineMargins(idx.nodeOfNet(inNet), [...lineLoads(idx, inNet, ctx.margins, new Set([node.devices[0]])), ...lineLoads(idx, node.net, ctx.margins)], 'gate', ctx.margins);
+    result = `a wire from ${rest[0]}`;
+  } else {
+    edit.addDevices.push({ name: dev.name, kind: 'gate', op, terminals: [node.name, ...rest], path: [...dev.path] });
+    result = `${op}(${rest.join(', ')})`;
+  }
+  ctx.report(report(node, dev.name, reasons, {
+    messageId: 'gate',
+    data: { result },
+    location: { devices: [dev.name], instances: instancesOf([dev.path]), nets: [node.name, ...held] },
+    proposals: [{ title: `make ${dev.name} ${result}`, edit, margins }],
+  }));
+}
+
+function report(node: LogicNode, gate: string, reasons: Map<string, Fixed>, r: FindingReport): FindingReport {
+  const assumptions = [...new Set([...reasons.values()].flatMap((f) => f.assumptions))].sort();
+  const inputs = [...reasons].map(([n, f]) => `input ${n} ${f.why}`);
+  return {
+    ...r,
+    data: { gate, place: placeOf(node.groups[0]?.path ?? []), inputs: listWords(inputs), ...r.data },
+    proposals: r.proposals.map((p) => ({ ...p, assumptions })),
+  };
+}
