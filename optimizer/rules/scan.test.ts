@@ -100,4 +100,28 @@ describe('scan', () => {
     expect(v.status).toBe('refuted');
     expect(evaluate(assumptions[0].expr, v.counterexample!)).toBe(0);
   });
+
+  it('catches contention a logic proof missed with the switch-level check', async () => {
+    // Two gate-level inverters of different inputs merged onto one net. A verifier that wrongly
+    // says "proved" stands in for a proof that cannot see drive strength.
+    const b = new NetlistBuilder('Wren-8 bus, two drivers');
+    b.gate('U1', 'not', ['Y1', 'A']);
+    b.gate('U2', 'not', ['Y2', 'B']);
+    const merge = defineRule({
+      id: 'test-merge',
+      meta: { description: '', messages: { m: 'merge' }, optionsSchema: z.object({}), defaultOptions: {} },
+      find(ctx) {
+        ctx.report({ messageId: 'm', location: {}, proposals: [{ title: 'merge', edit: { ...emptyEdit(), mergeNets: [{ keep: 'Y1', remove: 'Y2' }] } }] });
+      },
+    });
+    const r = await scan(b.build(), {
+      rules: { 'test-merge': merge },
+      verifier: (before) => ({ verdict: 'proved', method: 'exhaustive', assumptionsUsed: [], inputs: Object.keys(before) }),
+    });
+    const v = r.findings[0].proposals[0].verification;
+    expect(v.status).toBe('refuted');
+    expect(v.method).toBe('switch-level');
+    expect(v.counterexample!.A).not.toBe(v.counterexample!.B);
+    expect(v.note).toMatch(/driven both ways/);
+  });
 });

@@ -11,6 +11,7 @@ import type { MarginResult } from '../margins/corners';
 import type { FlatNetlist } from '../netlist/ir';
 import { applyProposals } from '../rewrite/apply';
 import { checkEquivalence, type EquivResult } from '../verify/equivalence';
+import { simulationCheck } from './sim-check';
 import { runRules, type OverlapGraph, type RuleErrorRecord, type RunOptions } from './run-rules';
 import type { Assumption, Finding, Proposal } from './types';
 
@@ -26,6 +27,8 @@ export interface Verification {
   differing?: { name: string; before: 0 | 1; after: 0 | 1 }[];
   /** Nets compared. */
   compared: string[];
+  /** Input vectors the switch-level check simulated before and after (0 when it did not run). */
+  simulatedVectors: number;
   note?: string;
 }
 
@@ -54,6 +57,8 @@ export type Verifier = (before: Record<string, Expr>, after: Record<string, Expr
 
 export interface ScanOptions extends RunOptions {
   view?: LogicView;
+  /** Designs up to this many devices get the switch-level before/after check (default 20000). */
+  simulateUpTo?: number;
   partsTable?: PartsTable;
   verifier?: Verifier;
 }
@@ -107,6 +112,7 @@ export function verifyProposal(
   p: Proposal,
   assumptions: Assumption[],
   verifier: Verifier = defaultVerifier,
+  simulateUpTo = 20_000,
 ): Verification {
   const after = applyProposals(before.nl, [p]);
   const afterView = extractLogic(after);
@@ -120,7 +126,7 @@ export function verifyProposal(
   );
   const used = assumptions.filter((a) => p.assumptions.includes(a.id));
   if (compared.length === 0) {
-    return { status: 'unproved', method: 'none', assumptions: used.map((a) => a.id), compared, note: 'the rewrite changes no driven net the extractor can see' };
+    return { status: 'unproved', method: 'none', assumptions: used.map((a) => a.id), compared, simulatedVectors: 0, note: 'the rewrite changes no driven net the extractor can see' };
   }
   const bModel = combinationalModel(before.view, compared.map((n) => before.nl.nets[before.nl.netByName.get(n)!].name));
   const afterNames = compared.map((n) => after.nets[after.netByName.get(n)!].name);
@@ -132,13 +138,32 @@ export function verifyProposal(
     beforeFns[name] = bModel.outputs[before.nl.nets[before.nl.netByName.get(name)!].name];
     afterFns[name] = aModel.outputs[afterNames[k]] ?? v(afterNames[k]);
   });
+  let r: EquivResult;
   try {
-    const r = verifier(beforeFns, afterFns, used);
-    if (r.verdict === 'proved') return { status: 'proved', method: r.method, assumptions: r.assumptionsUsed, compared };
-    return { status: 'refuted', method: r.method, assumptions: used.map((a) => a.id), counterexample: r.counterexample, differing: r.outputs, compared };
+    r = verifier(beforeFns, afterFns, used);
   } catch (err) {
-    return { status: 'unproved', method: 'none', assumptions: used.map((a) => a.id), compared, note: err instanceof Error ? err.message : String(err) };
+    return { status: 'unproved', method: 'none', assumptions: used.map((a) => a.id), compared, simulatedVectors: 0, note: err instanceof Error ? err.message : String(err) };
   }
+  if (r.verdict === 'refuted') {
+    return { status: 'refuted', method: r.method, assumptions: used.map((a) => a.id), counterexample: r.counterexample, differing: r.outputs, compared, simulatedVectors: 0 };
+  }
+  if (before.nl.devices.length > simulateUpTo) {
+    return { status: 'proved', method: r.method, assumptions: r.assumptionsUsed, compared, simulatedVectors: 0, note: 'design too large for the switch-level check' };
+  }
+  // The logic is proved; now look for contention and floating nodes the rewrite introduces.
+  const sim = simulationCheck(before.nl, after, bModel.inputs, used);
+  if (sim.problem) {
+    return {
+      status: 'refuted',
+      method: 'switch-level',
+      assumptions: used.map((a) => a.id),
+      counterexample: sim.problem.vector,
+      compared,
+      simulatedVectors: sim.vectors,
+      note: `after the rewrite net ${sim.problem.net} ${sim.problem.kind === 'contention' ? 'is driven both ways' : 'floats while read'} (${sim.problem.detail.slice(0, 4).join(', ')})`,
+    };
+  }
+  return { status: 'proved', method: r.method, assumptions: r.assumptionsUsed, compared, simulatedVectors: sim.vectors };
 }
 
 export function verdictOf(verification: Verification, margins: MarginResult[]): Verdict {
@@ -155,7 +180,7 @@ export async function scan(netlist: FlatNetlist, options: ScanOptions = {}): Pro
   const findings = run.findings.map((finding) => ({
     finding,
     proposals: finding.proposals.map((proposal) => {
-      const verification = verifyProposal({ nl: netlist, view }, proposal, assumptions, options.verifier);
+      const verification = verifyProposal({ nl: netlist, view }, proposal, assumptions, options.verifier, options.simulateUpTo);
       return {
         proposal,
         verification,
