@@ -42,7 +42,7 @@ export function SideRail({ items, me }: { items: NavItem[]; me: Me }) {
               paddingVertical: spacing.sm,
               paddingHorizontal: spacing.sm,
               borderRadius: radii.md,
-              backgroundColor: item.focused ? colours.accentSoft : pressed ? colours.surfaceMuted : 'transparent',
+              backgroundColor: item.focused ? colours.accentSoft : pressed ? colours.surfaceMuted : colours.transparent,
             })}
           >
             <Icon name={TAB_ICONS[item.id]} colour={item.focused ? colours.accent : colours.textMuted} />

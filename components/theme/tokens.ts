@@ -65,6 +65,8 @@ export const palettes = {
     successSoft: '#E4F3E9',
     overlay: 'rgba(23, 32, 42, 0.04)',
     focus: '#2E7DBA',
+    transparent: 'transparent',
+    switchThumb: '#FFFFFF',
   },
   dark: {
     background: '#0F1318',
@@ -88,6 +90,8 @@ export const palettes = {
     successSoft: '#15301F',
     overlay: 'rgba(229, 233, 238, 0.05)',
     focus: '#8CC3EA',
+    transparent: 'transparent',
+    switchThumb: '#E5E9EE',
   },
 } as const;
 

@@ -25,7 +25,7 @@ export function Button({ label, onPress, testID, accessibilityLabel, variant = '
     primary: { bg: colours.accent, pressed: colours.accentPressed, fg: colours.onAccent, border: colours.accent },
     secondary: { bg: colours.surface, pressed: colours.surfaceMuted, fg: colours.text, border: colours.borderStrong },
     danger: { bg: colours.surface, pressed: colours.dangerSoft, fg: colours.danger, border: colours.danger },
-    ghost: { bg: 'transparent', pressed: colours.overlay, fg: colours.accent, border: 'transparent' },
+    ghost: { bg: colours.transparent, pressed: colours.overlay, fg: colours.accent, border: colours.transparent },
   }[variant];
   return (
     <Pressable

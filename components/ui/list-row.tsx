@@ -26,7 +26,7 @@ export function ListRow({ title, subtitle, meta, trailing, onPress, selected, te
         gap: spacing.md,
         paddingVertical: spacing.md,
         paddingHorizontal: spacing.lg,
-        backgroundColor: selected ? colours.accentSoft : pressed ? colours.surfaceMuted : 'transparent',
+        backgroundColor: selected ? colours.accentSoft : pressed ? colours.surfaceMuted : colours.transparent,
         borderBottomWidth: last ? 0 : sizes.hairline,
         borderBottomColor: colours.border,
       }}

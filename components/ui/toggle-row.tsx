@@ -20,8 +20,8 @@ export function ToggleRow({ label, description, value, onChange, testID, disable
         disabled={disabled}
         onValueChange={onChange}
         trackColor={{ false: colours.borderStrong, true: colours.accent }}
-        thumbColor={colours.surface}
-        {...({ activeThumbColor: colours.surface } as object)}
+        thumbColor={colours.switchThumb}
+        {...({ activeThumbColor: colours.switchThumb } as object)}
       />
     </View>
   );
