@@ -131,6 +131,12 @@ export class BaseResolver {
       if (dev.kind === 'capacitor') return; // speed-up capacitors do not change the logic
       direct = true;
     });
+    if (!direct && terms.length === 0 && drive.bleed !== undefined) {
+      // only a resistor to ground (or a base tied low through one): the transistor stays off
+      drive.kind = 'resistor';
+      drive.on = { op: 'const', value: 0 };
+      return drive;
+    }
     if (direct || terms.length === 0) {
       // driven straight by another stage (or an undriven input): the base net is the signal
       terms.push(v(netName(cx, base)));

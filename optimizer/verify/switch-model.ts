@@ -38,6 +38,8 @@ export interface SwitchModel {
   edgesAt: number[][];
   /** Groups that must be re-evaluated when this net changes (controls and source adjacency). */
   readers: number[][];
+  /** Evaluation order: groups fed only by earlier ranks come later (feedback loops broken). */
+  rank: Int32Array;
   /** Gate-level devices reading a net. */
   gateReaders: number[][];
   /** Gate-level devices (indices into nl.devices) and their output net. */
@@ -161,9 +163,51 @@ export function buildSwitchModel(nl: FlatNetlist, inputNames: string[]): SwitchM
     const d = nl.devices[gi];
     const g = groupFor(d.terminals[0]);
     if (g >= 0) groups[g].gates.push(gi);
-    for (const n of d.terminals.slice(1)) gateReaders[n].push(gi);
+    for (const n of d.terminals.slice(1)) {
+      gateReaders[n].push(gi);
+      if (g >= 0) addReader(n, g);
+    }
   }
-  return { nl, edges, groupOf, groups, edgesAt, readers, gateReaders, gates, railValue, isInput, netIdsOf };
+  const rank = rankGroups(groups, readers);
+  return { nl, edges, groupOf, groups, edgesAt, readers, rank, gateReaders, gates, railValue, isInput, netIdsOf };
+}
+
+/**
+ * Topological ranks of the group graph (Kahn): evaluating in rank order settles acyclic logic with
+ * one evaluation per group instead of unit-delay ripples that are quadratic in chain length.
+ * Groups on loops get ranks after their ranked predecessors.
+ */
+function rankGroups(groups: SwitchModel['groups'], readers: number[][]): Int32Array {
+  const n = groups.length;
+  const succ: number[][] = groups.map((g) => {
+    const out = new Set<number>();
+    for (const net of g.nets) for (const r of readers[net]) if (r !== -1) out.add(r);
+    return [...out];
+  });
+  const indeg = new Int32Array(n);
+  succ.forEach((s, g) => s.forEach((t) => t !== g && indeg[t]++));
+  const rank = new Int32Array(n).fill(-1);
+  const queue: number[] = [];
+  for (let g = 0; g < n; g++) if (indeg[g] === 0) queue.push(g);
+  let next = 0;
+  let head = 0;
+  let assigned = 0;
+  for (;;) {
+    while (head < queue.length) {
+      const g = queue[head++];
+      if (rank[g] >= 0) continue;
+      rank[g] = next++;
+      assigned++;
+      for (const t of succ[g]) if (t !== g && --indeg[t] === 0 && rank[t] < 0) queue.push(t);
+    }
+    if (assigned === n) break;
+    // a loop: start it at its first unranked group
+    let g = 0;
+    while (rank[g] >= 0) g++;
+    indeg[g] = 0;
+    queue.push(g);
+  }
+  return rank;
 }
 
 function exprNets(e: Expr, nl: FlatNetlist, out: number[] = []): number[] {

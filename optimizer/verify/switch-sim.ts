@@ -1,8 +1,8 @@
 // Switch-level simulation after Bryant, "A switch-level model and simulator for MOS digital
 // systems", IEEE Trans. Computers C-33(2), 1984: values 0/1/X/Z, strengths rail > driven
 // transistor > pull-up resistor > stored charge, contention → X, floating → Z with the charge kept.
-// Event-driven: a group is re-evaluated only when a net it reads changes; each step iterates to a
-// fixed point with a bound, and a group that keeps changing is set to X and reported.
+// Event-driven: a group is re-evaluated only when a net it reads changes, in topological rank order;
+// each step iterates to a fixed point with a bound, and a group that keeps changing is set to X.
 import { InputError } from '../errors';
 import type { FlatNetlist } from '../netlist/ir';
 import type { Expr } from '../logic/expr';
@@ -146,15 +146,140 @@ export class SwitchSimulator {
     return this.evalExpr(f.value, d.name);
   }
 
-  /** Strength propagation over one group; returns the nets whose value or strength changed. */
-  private evaluateGroup(g: number): number[] {
+  // Scratch space reused by every group evaluation (no allocation per evaluation).
+  private edgeSt!: Uint8Array;
+  private sureLevel!: Uint8Array;
+  private sureMask!: Uint8Array;
+  private oldLevel!: Uint8Array;
+  private oldMask!: Uint8Array;
+  private pure0!: Int32Array;
+  private pure1!: Int32Array;
+  private readonly pureTouched: number[] = [];
+  private stack!: Int32Array;
+  private top = 0;
+  private curLevel = 0;
+  private tracking = false;
+
+  private scratch(): void {
+    if (this.stack) return;
+    const n = this.model.nl.nets.length;
+    this.edgeSt = new Uint8Array(this.model.edges.length);
+    this.sureLevel = new Uint8Array(n);
+    this.sureMask = new Uint8Array(n);
+    this.oldLevel = new Uint8Array(n);
+    this.oldMask = new Uint8Array(n);
+    this.pure0 = new Int32Array(n);
+    this.pure1 = new Int32Array(n);
+    this.stack = new Int32Array(n + 1);
+  }
+
+  private deliver(n: number, mk: Mask, dev: number, pure: boolean): void {
+    const lvl = this.curLevel;
+    const level = this.level;
+    if (level[n] > lvl) return;
+    if (pure && this.tracking) {
+      if (mk === 1 && this.pure0[n] === 0) {
+        this.pure0[n] = dev + 1;
+        this.pureTouched.push(n);
+      } else if (mk === 2 && this.pure1[n] === 0) {
+        this.pure1[n] = dev + 1;
+        this.pureTouched.push(n);
+      }
+    }
+    const next = (level[n] === lvl ? this.mask[n] : 0) | mk;
+    if (level[n] === lvl && next === this.mask[n]) return;
+    level[n] = lvl;
+    this.mask[n] = next;
+    this.stack[this.top++] = n;
+  }
+
+  /** One strength-propagation pass over a group; unknown switches conduct only when includeX. */
+  private propagate(g: number, includeX: boolean): void {
+    const m = this.model;
+    const grp = m.groups[g];
+    const { level, mask, charge, edgeSt } = this;
+    const nl = m.nl;
+    for (const n of grp.nets) {
+      level[n] = 0;
+      mask[n] = 0;
+    }
+    this.tracking = !includeX;
+    for (const lvl of [DRIVEN, WEAK, CHARGE]) {
+      this.curLevel = lvl;
+      this.top = 0;
+      for (const ei of grp.edges) {
+        const e = m.edges[ei];
+        const st = edgeSt[ei];
+        if (e.cap < lvl || st === 1 || (st === 3 && !includeX)) continue;
+        for (let side = 0; side < 2; side++) {
+          const from = side ? e.b : e.a;
+          const to = side ? e.a : e.b;
+          if (m.groupOf[to] < 0) continue;
+          const fromIsSrc = m.groupOf[from] < 0;
+          if (!fromIsSrc && level[from] <= lvl) continue;
+          let mk = fromIsSrc ? (m.railValue.has(from) ? (m.railValue.get(from)! ? 2 : 1) : mask[from]) : mask[from];
+          if (e.oneWay) mk &= side === 0 ? 2 : 1; // the anode passes a 1 down, the cathode a 0 up
+          if (mk) this.deliver(to, mk, e.device, mk !== 3 && st === 2);
+        }
+      }
+      for (const gi of grp.gates) {
+        const d = nl.devices[gi];
+        const weak = d.op === 'pullup' || d.op === 'pulldown';
+        if ((weak ? WEAK : DRIVEN) !== lvl) continue;
+        const out = d.terminals[0];
+        const mk = weak ? (d.op === 'pullup' ? 2 : 1) : this.gateOut[gi];
+        if (!mk) continue;
+        const kind = nl.nets[out].kind;
+        if (!weak && (kind === 'wand' || kind === 'wor') && level[out] === lvl) {
+          // wired nets of gate-level designs resolve their drivers instead of fighting
+          const a = mask[out];
+          const both = kind === 'wand' ? (a === 1 || mk === 1 ? 1 : a === 2 && mk === 2 ? 2 : 3) : a === 2 || mk === 2 ? 2 : a === 1 && mk === 1 ? 1 : 3;
+          mask[out] = both;
+          continue;
+        }
+        this.deliver(out, mk, gi, mk !== 3 && kind !== 'wand' && kind !== 'wor');
+      }
+      if (lvl === CHARGE) for (const n of grp.nets) if (level[n] === 0 && charge[n]) this.deliver(n, charge[n], -1, false);
+      while (this.top > 0) {
+        const n = this.stack[--this.top];
+        if (level[n] !== lvl) continue;
+        const mn = mask[n];
+        for (const ei of m.edgesAt[n]) {
+          const e = m.edges[ei];
+          const st = edgeSt[ei];
+          if (e.cap < lvl || st === 1 || (st === 3 && !includeX)) continue;
+          const to = e.a === n ? e.b : e.a;
+          if (m.groupOf[to] < 0) continue;
+          let mk = mn;
+          if (e.oneWay) mk &= e.a === n ? 2 : 1;
+          if (mk) this.deliver(to, mk, e.device, mk !== 3 && st === 2);
+        }
+      }
+      if (this.tracking) {
+        for (const n of this.pureTouched) {
+          if (this.pure0[n] && this.pure1[n] && level[n] === lvl && lvl >= WEAK) {
+            this.pendingContention.set(n, [this.pure0[n], this.pure1[n]].map((d) => nl.devices[d - 1].name));
+          }
+          this.pure0[n] = 0;
+          this.pure1[n] = 0;
+        }
+        this.pureTouched.length = 0;
+      }
+    }
+  }
+
+  /** Ternary evaluation of one group; pushes the nets whose value or strength changed. */
+  private evaluateGroup(g: number, changed: number[]): void {
+    this.scratch();
     const m = this.model;
     const grp = m.groups[g];
     const nl = m.nl;
-    const { level, mask, charge } = this;
-    const oldLevel = grp.nets.map((n) => level[n]);
-    const oldMask = grp.nets.map((n) => mask[n]);
-    const edgeState = new Map<number, Mask>();
+    const { level, mask, charge, edgeSt } = this;
+    for (const gi of grp.gates) {
+      if (nl.devices[gi].op !== 'dff') this.gateOut[gi] = this.evalGate(gi);
+    }
+    // controls are read before the group's own nets are cleared (a gate may sit in its own group)
+    let unknown = false;
     for (const ei of grp.edges) {
       const e = m.edges[ei];
       let st: Mask = 2;
@@ -163,140 +288,40 @@ export class SwitchSimulator {
         const r = this.read(e.gate, nl.devices[e.device].name);
         st = ((r & 1) << 1) | ((r >> 1) & 1);
       } else if (e.control === 'expr') st = this.evalExpr(e.expr!, nl.devices[e.device].name);
-      edgeState.set(ei, st); // 1 = off, 2 = on, 3 = unknown
+      edgeSt[ei] = st; // 1 = off, 2 = on, 3 = unknown
+      if (st === 3) unknown = true;
     }
-    const pure0 = new Map<number, string>();
-    const pure1 = new Map<number, string>();
-    const injections = new Map<number, { lvl: number; m: Mask; by: string }[]>();
-    for (const gi of grp.gates) {
-      const d = nl.devices[gi];
-      const out = d.terminals[0];
-      let lvl = DRIVEN;
-      let v = this.gateOut[gi];
-      if (d.op === 'pullup' || d.op === 'pulldown') {
-        lvl = WEAK;
-        v = d.op === 'pullup' ? 2 : 1;
-      }
-      if (!v) continue;
-      const list = injections.get(out) ?? [];
-      list.push({ lvl, m: v, by: d.name });
-      injections.set(out, list);
+    for (const n of grp.nets) {
+      this.oldLevel[n] = level[n];
+      this.oldMask[n] = mask[n];
     }
-    // wired nets of gate-level designs resolve their drivers before strengths do
-    for (const [net, list] of injections) {
-      const kind = nl.nets[net].kind;
-      const strong = list.filter((x) => x.lvl === DRIVEN);
-      if ((kind === 'wand' || kind === 'wor') && strong.length > 1) {
-        const vals = strong.map((x) => x.m);
-        const m0 = kind === 'wand' ? (vals.some((x) => x === 1) ? 1 : vals.every((x) => x === 2) ? 2 : 3) : vals.some((x) => x === 2) ? 2 : vals.every((x) => x === 1) ? 1 : 3;
-        injections.set(net, [...list.filter((x) => x.lvl !== DRIVEN), { lvl: DRIVEN, m: m0, by: strong.map((x) => x.by).join('+') }]);
-      }
-    }
-    const queue: number[] = [];
-    const deliver = (n: number, lvl: number, mk: Mask, by: string, pure: boolean) => {
-      if (level[n] > lvl) return;
-      if (pure && mk === 1 && !pure0.has(n)) pure0.set(n, by);
-      if (pure && mk === 2 && !pure1.has(n)) pure1.set(n, by);
-      const next = (level[n] === lvl ? mask[n] : 0) | mk;
-      if (level[n] === lvl && next === mask[n]) return;
-      level[n] = lvl;
-      mask[n] = next;
-      queue.push(n);
-    };
-    const passes = (ei: number, from: number, mk: Mask): Mask => {
-      const e = m.edges[ei];
-      const st = edgeState.get(ei)!;
-      if (st === 1) return 0;
-      if (st === 3 && !includeX) return 0;
-      let out = mk;
-      if (e.oneWay) out &= from === e.a ? 2 : 1; // anode passes 1 down, cathode passes 0 up
-      return out;
-    };
-    const srcMask = (n: number): Mask => (m.railValue.has(n) ? (m.railValue.get(n)! ? 2 : 1) : this.mask[n]);
-    let includeX = false;
-    const run = () => {
+    this.propagate(g, false);
+    if (unknown) {
+      // Ternary evaluation: once with only the switches surely on, once with the unknown ones on
+      // too; a net whose two answers differ is X (an unknown switch matters only if it changes
+      // something).
       for (const n of grp.nets) {
-        level[n] = 0;
-        mask[n] = 0;
+        this.sureLevel[n] = level[n];
+        this.sureMask[n] = mask[n];
       }
-      for (const lvl of [DRIVEN, WEAK, CHARGE]) {
-        pure0.clear();
-        pure1.clear();
-        // seeds: sources and stronger nets through edges that pass this level, injections, charge
-        for (const ei of grp.edges) {
-          const e = m.edges[ei];
-          if (e.cap < lvl) continue;
-          for (const [from, to] of [
-            [e.a, e.b],
-            [e.b, e.a],
-          ]) {
-            const fromIsSrc = m.groupOf[from] < 0;
-            if (m.groupOf[to] < 0) continue;
-            if (fromIsSrc || level[from] > lvl) {
-              const sm = fromIsSrc ? srcMask(from) : mask[from];
-              const pm = passes(ei, from, sm);
-              if (pm) deliver(to, lvl, pm, nl.devices[e.device].name, pm !== 3 && edgeState.get(ei) === 2);
-            }
-          }
-        }
-        for (const [net, list] of injections) for (const x of list) if (x.lvl === lvl) deliver(net, lvl, x.m, x.by, x.m !== 3);
-        if (lvl === CHARGE) for (const n of grp.nets) if (level[n] === 0 && charge[n]) deliver(n, CHARGE, charge[n], 'charge', false);
-        while (queue.length) {
-          const n = queue.pop()!;
-          if (level[n] !== lvl) continue;
-          for (const ei of m.edgesAt[n]) {
-            const e = m.edges[ei];
-            if (e.cap < lvl) continue;
-            const to = e.a === n ? e.b : e.a;
-            if (m.groupOf[to] < 0) continue;
-            const pm = passes(ei, n, mask[n]);
-            if (pm) deliver(to, lvl, pm, nl.devices[e.device].name, pm !== 3 && edgeState.get(ei) === 2 && mask[n] !== 3);
-          }
-        }
-        if (lvl >= WEAK && !includeX) {
-          for (const [n, by0] of pure0) {
-            const by1 = pure1.get(n);
-            if (by1 && level[n] === lvl) {
-              this.pendingContention.set(n, [by0, by1]);
-            }
-          }
-        }
+      this.propagate(g, true);
+      for (const n of grp.nets) {
+        mask[n] |= this.sureMask[n];
+        if (this.sureLevel[n] > level[n]) level[n] = this.sureLevel[n];
       }
-    };
-    // Ternary evaluation: once with only the transistors surely on, once with the unknown ones
-    // on too; a net whose two answers differ is X (an unknown switch only matters if it changes
-    // something).
-    run();
-    const sureLevel = grp.nets.map((n) => level[n]);
-    const sureMask = grp.nets.map((n) => mask[n]);
-    if ([...edgeState.values()].includes(3)) {
-      includeX = true;
-      run();
-      grp.nets.forEach((n, i) => {
-        mask[n] |= sureMask[i];
-        level[n] = Math.max(level[n], sureLevel[i]);
-      });
     }
-    const changed: number[] = [];
-    grp.nets.forEach((n, i) => {
-      if (level[n] >= WEAK) charge[n] = mask[n];
-      else if (level[n] === CHARGE) charge[n] = mask[n];
-      if (level[n] !== oldLevel[i] || mask[n] !== oldMask[i]) changed.push(n);
-    });
-    return changed;
+    for (const n of grp.nets) {
+      if (level[n] >= CHARGE) charge[n] = mask[n];
+      if (level[n] !== this.oldLevel[n] || mask[n] !== this.oldMask[n]) changed.push(n);
+    }
   }
 
-  /** Applies one input vector and settles the network; returns the step number. */
+  /** Applies one input vector and settles the network in unit-delay waves; returns the step. */
   apply(vector: Record<string, 0 | 1 | 'X'>): number {
     const m = this.model;
     this.step++;
     const first = this.step === 0;
-    const groupQueue = new Set<number>();
-    const gateQueue = new Set<number>();
-    const touch = (net: number) => {
-      for (const g of m.readers[net]) groupQueue.add(g);
-      for (const gi of m.gateReaders[net]) gateQueue.add(gi);
-    };
+    const groups = new Set<number>();
     // edge-triggered flip-flops sample d on the rising clock before anything else moves
     const dffUpdates: [number, Mask][] = [];
     for (const [name, value] of Object.entries(vector)) {
@@ -312,50 +337,72 @@ export class SwitchSimulator {
         }
         this.mask[net] = mk;
         this.level[net] = 4;
-        touch(net);
+        for (const g of m.readers[net]) groups.add(g);
       }
     }
     for (const [gi, mk] of dffUpdates) {
       this.gateOut[gi] = mk;
       const g = m.groupOf[m.nl.devices[gi].terminals[0]];
-      if (g >= 0) groupQueue.add(g);
+      if (g >= 0) groups.add(g);
     }
-    if (first) {
-      m.groups.forEach((_, g) => groupQueue.add(g));
-      for (const gi of m.gates) gateQueue.add(gi);
-    }
+    if (first) m.groups.forEach((_, g) => groups.add(g));
+    // Rank-ordered worklist (a binary heap on the topological rank): each group of acyclic logic
+    // settles in one evaluation; loops iterate up to the bound.
+    const heap: number[] = [];
+    const queued = new Uint8Array(m.groups.length);
+    const push = (g: number) => {
+      if (queued[g]) return;
+      queued[g] = 1;
+      heap.push(g);
+      let i = heap.length - 1;
+      while (i > 0) {
+        const p = (i - 1) >> 1;
+        if (m.rank[heap[p]] <= m.rank[heap[i]]) break;
+        [heap[p], heap[i]] = [heap[i], heap[p]];
+        i = p;
+      }
+    };
+    const pop = (): number => {
+      const topG = heap[0];
+      const last = heap.pop()!;
+      if (heap.length) {
+        heap[0] = last;
+        let i = 0;
+        for (;;) {
+          const l = 2 * i + 1;
+          const r = l + 1;
+          let k = i;
+          if (l < heap.length && m.rank[heap[l]] < m.rank[heap[k]]) k = l;
+          if (r < heap.length && m.rank[heap[r]] < m.rank[heap[k]]) k = r;
+          if (k === i) break;
+          [heap[k], heap[i]] = [heap[i], heap[k]];
+          i = k;
+        }
+      }
+      queued[topG] = 0;
+      return topG;
+    };
+    for (const g of groups) push(g);
     const evals = new Map<number, number>();
     const stuck = new Set<number>();
-    while (groupQueue.size || gateQueue.size) {
-      for (const gi of gateQueue) {
-        gateQueue.delete(gi);
-        const d = m.nl.devices[gi];
-        if (d.op === 'dff') continue;
-        const out = this.evalGate(gi);
-        if (out !== this.gateOut[gi] || first) {
-          this.gateOut[gi] = out;
-          const g = m.groupOf[d.terminals[0]];
-          if (g >= 0) groupQueue.add(g);
+    const changed: number[] = [];
+    while (heap.length) {
+      const g = pop();
+      if (stuck.has(g)) continue;
+      const count = (evals.get(g) ?? 0) + 1;
+      evals.set(g, count);
+      changed.length = 0;
+      if (count > this.maxEval) {
+        stuck.add(g);
+        for (const n of m.groups[g].nets) {
+          this.mask[n] = 3;
+          this.charge[n] = 3;
+          this.level[n] = Math.max(this.level[n], WEAK);
+          changed.push(n);
         }
-      }
-      for (const g of groupQueue) {
-        groupQueue.delete(g);
-        if (stuck.has(g)) continue;
-        const count = (evals.get(g) ?? 0) + 1;
-        evals.set(g, count);
-        let changed = this.evaluateGroup(g);
-        if (count > this.maxEval) {
-          stuck.add(g);
-          for (const n of m.groups[g].nets) {
-            this.mask[n] = 3;
-            this.level[n] = Math.max(this.level[n], WEAK);
-          }
-          changed = m.groups[g].nets;
-          this.result.oscillations.push({ step: this.step, nets: m.groups[g].nets.slice(0, 8).map((n) => m.nl.nets[n].name) });
-        }
-        for (const n of changed) touch(n);
-        if (gateQueue.size) break; // let gate outputs catch up before more groups move
-      }
+        this.result.oscillations.push({ step: this.step, nets: m.groups[g].nets.slice(0, 8).map((n) => m.nl.nets[n].name) });
+      } else this.evaluateGroup(g, changed);
+      for (const n of changed) for (const r of m.readers[n]) push(r);
     }
     for (const [net, readers] of this.pendingFloating) {
       if (this.level[net] < WEAK) this.result.floatingReads.push({ net: m.nl.nets[net].name, step: this.step, readers });
