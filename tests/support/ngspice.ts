@@ -98,3 +98,8 @@ export function allCombinations(inputs: string[], low: number, high: number): Re
   for (let m = 0; m < 1 << inputs.length; m++) out.push(Object.fromEntries(inputs.map((n, i) => [n, (m >> i) & 1 ? high : low])));
   return out;
 }
+
+/** Logic level of a voltage against input thresholds: 0 below V_IL, 1 above V_IH, 'X' between. */
+export function levelOf(volts: number, vil: number, vih: number): 0 | 1 | 'X' {
+  return volts <= vil ? 0 : volts >= vih ? 1 : 'X';
+}

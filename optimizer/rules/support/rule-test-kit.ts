@@ -5,10 +5,12 @@ import { partsOf, editSavings, type Savings } from '../../cost/cost';
 import { extractLogic } from '../../extract';
 import { readSpice } from '../../formats/spice/read';
 import type { MapFamily } from '../../logic/family-parts';
+import type { MarginSettings } from '../../margins/defaults';
 import { parseExpr } from '../../logic/expr-parse';
 import { flatten } from '../../netlist/flatten';
 import type { FlatNetlist } from '../../netlist/ir';
-import { applyProposals } from '../../rewrite/apply';
+import { applyProposals, flatToDesign } from '../../rewrite/apply';
+import { writeSpice } from '../../formats/spice/write';
 import { runRules, type RunResult } from '../run-rules';
 import { scan, type ScanResult } from '../scan';
 import type { Assumption, Proposal, Rule } from '../types';
@@ -21,6 +23,7 @@ export interface RunOne {
   options?: unknown;
   clockPeriod?: number;
   targetFamily?: MapFamily;
+  margins?: MarginSettings;
 }
 
 export function runOne(rule: Rule, nl: FlatNetlist, o: RunOne = {}): Promise<RunResult> {
@@ -30,6 +33,7 @@ export function runOne(rule: Rule, nl: FlatNetlist, o: RunOne = {}): Promise<Run
     ...(o.options ? { ruleOptions: { [rule.id]: o.options } } : {}),
     ...(o.clockPeriod ? { clockPeriod: o.clockPeriod } : {}),
     ...(o.targetFamily ? { targetFamily: o.targetFamily } : {}),
+    ...(o.margins ? { margins: o.margins } : {}),
   });
 }
 
@@ -40,6 +44,7 @@ export function scanOne(rule: Rule, nl: FlatNetlist, o: RunOne = {}): Promise<Sc
     ...(o.options ? { ruleOptions: { [rule.id]: o.options } } : {}),
     ...(o.clockPeriod ? { clockPeriod: o.clockPeriod } : {}),
     ...(o.targetFamily ? { targetFamily: o.targetFamily } : {}),
+    ...(o.margins ? { margins: o.margins } : {}),
   });
 }
 
@@ -53,6 +58,14 @@ export function savingsProperty(nl: FlatNetlist, p: Proposal, family: MapFamily 
   const actual = Object.fromEntries(DIFF_KEYS.map((k) => [k, before[k] - after[k]]));
   return { stated, actual };
 }
+
+/** Writes a flat netlist as a SPICE-style deck (one flat cell). */
+export function deckOf(nl: FlatNetlist): string {
+  return writeSpice(flatToDesign(nl));
+}
+
+/** The netlist after one proposal. */
+export const applied = (nl: FlatNetlist, p: Proposal): FlatNetlist => applyProposals(nl, [p]);
 
 export const pick = (s: Savings): Record<string, number> => Object.fromEntries(DIFF_KEYS.map((k) => [k, s[k]]));
 
