@@ -12,6 +12,12 @@ export const AUDIT_ACTIONS = [
   'member-removed',
   'password-reset-requested',
   'password-set',
+  'upload',
+  'scan-started',
+  'scan-finished',
+  'decision',
+  'apply',
+  'export',
 ] as const;
 export const AuditActionSchema = z.enum(AUDIT_ACTIONS);
 export type AuditAction = z.infer<typeof AuditActionSchema>;

@@ -18,6 +18,16 @@ export const ERROR_CODES = [
   'rate-limited',
   'unavailable',
   'internal',
+  // Review workflow (designs, scans, proposals, apply, exports).
+  'parse-error',
+  'assumption-parse',
+  'revision-moved',
+  'proposals-overlap',
+  'not-accepted',
+  'own-scan',
+  'not-open',
+  'scan-finished',
+  'export-unsupported',
 ] as const;
 export const ErrorCodeSchema = z.enum(ERROR_CODES);
 export type ErrorCode = z.infer<typeof ErrorCodeSchema>;
