@@ -1,0 +1,148 @@
+// shared-enable-switch: valid cases (no finding) and invalid ones (message id, data, part delta),
+// RTL and NMOS stacks, the split into the fewest switches, the sneak-path refusal, the doc examples.
+import path from 'node:path';
+import { describe, expect, it } from 'vitest';
+import { extractLogic } from '../extract';
+import { exprToString } from '../logic/expr';
+import { NetlistBuilder } from '../netlist/build';
+import type { FlatNetlist } from '../netlist/ir';
+import { applyProposals } from '../rewrite/apply';
+import { sharedEnableSwitch } from './shared-enable-switch';
+import { countDelta, deckExamples, deckToFlat, runOne } from './support/sharing-test-kit';
+import type { Rule } from './types';
+
+const rule = sharedEnableSwitch as unknown as Rule;
+
+/**
+ * Per bit k: output Yk pulled up by RC, data transistor QD (base from Dk) over an enable
+ * transistor QE (base from EN or from `enable(k)`), emitter to ground.
+ *
+ *   VCC ─RC─ Yk ─ QD(Dk) ─ Nk ─ QE(EN) ─ 0
+ */
+function rtlStacks(n: number, o: { rc?: number; rbe?: number; enable?: (k: number) => string; extra?: boolean } = {}): FlatNetlist {
+  const b = new NetlistBuilder('Wren-8 bus output stacks');
+  b.rail('VCC', 5);
+  b.model('QN', 'npn', { IS: 1e-14, BF: 100 });
+  for (let k = 0; k < n; k++) {
+    b.within([`XO${k}`], () => {
+      b.resistor('RC', 'VCC', 'Y', o.rc ?? 1000);
+      b.resistor('RD', `/D${k}`, 'BD', 4700);
+      b.npn('QD', 'Y', 'BD', 'N');
+      b.resistor('RE', `/${o.enable ? o.enable(k) : 'EN'}`, 'BE', o.rbe ?? 2200);
+      b.npn('QE', 'N', 'BE', '0');
+      if (o.extra) {
+        // a second pull-down straight to ground (e.g. a clear), parallel to the stack
+        b.resistor('RX', `/X${k}`, 'BX', 4700);
+        b.npn('QX', 'Y', 'BX', '0');
+      }
+    });
+  }
+  return b.build();
+}
+
+function nmosStacks(n: number): FlatNetlist {
+  const b = new NetlistBuilder('Wren-8 NMOS bus stacks');
+  b.rail('VDD', 5);
+  b.model('NM', 'nmos', { VTO: 1, KP: 2e-5 });
+  for (let k = 0; k < n; k++) {
+    b.within([`XN${k}`], () => {
+      b.resistor('RL', 'VDD', 'Y', 20000);
+      b.nmos('MD', 'Y', `/D${k}`, 'N');
+      b.nmos('ME', 'N', '/EN', '0');
+    });
+  }
+  return b.build();
+}
+
+describe('shared-enable-switch: valid (no finding)', () => {
+  it.each([
+    ['one stack only', rtlStacks(1)],
+    ['every stack has its own enable', rtlStacks(4, { enable: (k) => `EN${k}` })],
+  ])('%s', async (_l, nl) => {
+    const r = await runOne(rule, nl);
+    expect(r.ruleErrors).toEqual([]);
+    expect(r.findings).toEqual([]);
+  });
+});
+
+describe('shared-enable-switch: invalid (findings)', () => {
+  it('four RTL stacks on EN meet on one switch (3 transistors, 3 resistors saved) and keep their functions', async () => {
+    const nl = rtlStacks(4);
+    const r = await runOne(rule, nl);
+    expect(r.ruleErrors).toEqual([]);
+    const f = r.findings[0];
+    expect(f.messageId).toBe('share');
+    expect(f.data).toMatchObject({ count: 4, enable: 'EN', switches: 1 });
+    expect(f.data.where).toBe('bit 0 of slice XO0, bit 1 of slice XO1, bit 2 of slice XO2, bit 3 of slice XO3');
+    const p = f.proposals[0];
+    expect(p.edit.removeDevices).toEqual(['XO1.QE', 'XO1.RE', 'XO2.QE', 'XO2.RE', 'XO3.QE', 'XO3.RE']);
+    expect(p.edit.mergeNets).toEqual([1, 2, 3].map((k) => ({ keep: 'XO0.N', remove: `XO${k}.N` })));
+    expect(p.margins.map((m) => [m.name, m.status])).toEqual([
+      ['sink current', 'pass'],
+      ['forced β', 'warn'],
+      ['stacked low level', 'warn'],
+      ['sneak paths', 'pass'],
+    ]);
+    const d = countDelta(nl, p);
+    expect(d.actual).toEqual({ transistors: 3, resistors: 3, diodes: 0 });
+    expect(d.actual).toEqual(d.stated);
+    // Re-extracting the rewrite gives each output !(Dk & EN) still.
+    const after = extractLogic(applyProposals(nl, [p]));
+    for (let k = 0; k < 4; k++) {
+      const node = after.nodes.find((n) => n.name === `XO${k}.Y`)!;
+      expect(exprToString(node.fn)).toBe(`!(D${k} & EN)`);
+    }
+  });
+
+  it('eight stacks fail forced β on one switch and pass as the fewest that keep it', async () => {
+    // 8 × 1k pull-ups ≈ 40 mA through one switch fed by 6.8k: forced β ≈ 67 (common practice:
+    // keep ≤ 10; fail above β_min 50) — the rule splits until forced β passes.
+    const nl = rtlStacks(8, { rbe: 6800 });
+    const f = (await runOne(rule, nl)).findings[0];
+    expect(f.messageId).toBe('share');
+    expect(f.data.switches).toBe(2);
+    const beta = f.proposals[0].margins.find((m) => m.name === 'forced β')!;
+    expect(beta.status).not.toBe('fail');
+    const d = countDelta(nl, f.proposals[0]);
+    expect(d.actual.transistors).toBe(8 - Number(f.data.switches));
+    expect(d.actual).toEqual(d.stated);
+  });
+
+  it('refuses the rewrite when a parallel pull-down makes a sneak path through the common node', async () => {
+    // With EN off, D0 and D1 on and X1 on, Y0 reaches ground through QD0, the common node, QD1
+    // (either way in a switch-level model) and QX1: Y0 would read 0 where it read 1.
+    const nl = rtlStacks(2, { extra: true });
+    const f = (await runOne(rule, nl)).findings[0];
+    expect(f.messageId).toBe('failing');
+    const sneak = f.proposals[0].margins.find((m) => m.name === 'sneak paths')!;
+    expect(sneak.status).toBe('fail');
+    expect(sneak.value).toBeGreaterThan(0);
+    expect(f.data.failed).toContain('sneak paths');
+  });
+
+  it('shares the enable transistor of NMOS stacks (sneak check only: no bipolar margins)', async () => {
+    const nl = nmosStacks(3);
+    const f = (await runOne(rule, nl)).findings[0];
+    expect(f.messageId).toBe('share');
+    expect(f.proposals[0].margins.map((m) => m.name)).toEqual(['sneak paths']);
+    expect(countDelta(nl, f.proposals[0]).actual).toEqual({ transistors: 2, resistors: 0, diodes: 0 });
+  });
+});
+
+describe('shared-enable-switch: doc examples', () => {
+  const examples = deckExamples(path.join(__dirname, 'shared-enable-switch.md'));
+  it('has examples', () => expect(examples.length).toBeGreaterThanOrEqual(2));
+  it.each(examples.map((e) => [e.label, e] as const))('%s', async (_l, ex) => {
+    const nl = deckToFlat(ex.deck);
+    const r = await runOne(rule, nl, { assumptions: ex.assumptions });
+    expect(r.ruleErrors).toEqual([]);
+    if (ex.expect.messageId === null) {
+      expect(r.findings).toEqual([]);
+      return;
+    }
+    expect(r.findings.map((f) => f.messageId)).toEqual([ex.expect.messageId]);
+    for (const [k, v] of Object.entries(ex.expect.data)) expect(String(r.findings[0].data[k])).toBe(v);
+    const d = countDelta(nl, r.findings[0].proposals[0]);
+    expect(d.actual).toEqual(d.stated);
+  });
+});
