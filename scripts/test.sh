@@ -48,10 +48,10 @@ stage_failed() { SUMMARY+=("$1: FAILED"); EXTRA_FAILED=1; summary; exit 1; }
 run_vitest() { # run_vitest <label> <result-name> <vitest args...>
   local label="$1" name="$2"; shift 2
   step "$label"
-  local out="$RESULTS/$name.json" p x
+  local out="$RESULTS/$name.json" p x t0=$SECONDS
   if node_modules/.bin/vitest run "$@" --passWithNoTests --reporter=default --reporter=json --outputFile.json="$out"; then
     read -r p x < <(counts "$out")
-    SUMMARY+=("$label: $p passed, $x failed")
+    SUMMARY+=("$label: $p passed, $x failed ($((SECONDS - t0))s)")
   else
     read -r p x < <(counts "$out")
     SUMMARY+=("$label: $p passed, $x failed — FAILED")
@@ -66,18 +66,20 @@ ensure_apt_packages chromium ngspice
 bash "$ROOT/scripts/db.sh" || stage_failed "PostgreSQL"
 node_modules/.bin/tsx server/db/cli.ts migrate || stage_failed "Migrations"
 ensure_fake_smtp "$FAKE_SMTP_TEST_PORT" "$DATABASE_URL"
-SUMMARY+=("Set-up: ok")
+SUMMARY+=("Set-up: ok (${SECONDS}s)")
 
 step "Type check (tsc --noEmit)"
+T0=$SECONDS
 node_modules/.bin/tsc --noEmit -p tsconfig.json || stage_failed "Type check"
-SUMMARY+=("Type check: ok")
+SUMMARY+=("Type check: ok ($((SECONDS - T0))s)")
 
 run_vitest "Unit and component tests" unit --project unit --project components
 run_vitest "API tests (PostgreSQL trimwire_test)" api --project api
 
 step "Web build"
+T0=$SECONDS
 export_web || stage_failed "Web build"
-SUMMARY+=("Web build: ok")
+SUMMARY+=("Web build: ok ($((SECONDS - T0))s)")
 
 run_vitest "End-to-end tests (Chromium)" e2e --project e2e
 
