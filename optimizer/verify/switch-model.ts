@@ -8,10 +8,15 @@ import { makeContext, isRail } from '../extract/context';
 import { BaseResolver } from '../extract/bipolar';
 import { loadTransistor } from '../extract/mos';
 
-/** Strengths (Bryant 1984): rail > driven transistor > pull-up resistor > stored charge. */
-export const RAIL = 4;
-export const DRIVEN = 3;
-export const WEAK = 2;
+/**
+ * Strengths (Bryant 1984): rail > driven transistor > pull-up resistor > stored charge, plus a
+ * bleed level below the pull-ups for resistors to ground (loads and base bleeds), so an output
+ * pulled up against a load to ground reads high, as it does on the bench.
+ */
+export const RAIL = 5;
+export const DRIVEN = 4;
+export const WEAK = 3;
+export const BLEED = 2;
 export const CHARGE = 1;
 
 export interface Edge {
@@ -45,6 +50,10 @@ export interface SwitchModel {
   /** Gate-level devices (indices into nl.devices) and their output net. */
   gates: number[];
   railValue: Map<number, 0 | 1>;
+  /** Per net: 0 or 1 for a rail, -1 otherwise (array form of railValue for the inner loops). */
+  railVal: Int8Array;
+  /** Per edge with control 'expr': the base drive compiled over net ids. */
+  compiled: (CompiledExpr | undefined)[];
   isInput: Uint8Array;
   netIdsOf: (name: string) => number;
 }
@@ -101,7 +110,8 @@ export function buildSwitchModel(nl: FlatNetlist, inputNames: string[]): SwitchM
         break;
       case 'resistor':
         if (!inBaseNetwork[i] && !baseNet.has(t[0]) && !baseNet.has(t[1])) {
-          edges.push({ device: i, a: t[0], b: t[1], cap: WEAK, control: 'always', gate: -1, oneWay: false });
+          const toLow = (isRail(cx, t[0]) && !railValue.get(t[0])) || (isRail(cx, t[1]) && !railValue.get(t[1]));
+          edges.push({ device: i, a: t[0], b: t[1], cap: toLow ? BLEED : WEAK, control: 'always', gate: -1, oneWay: false });
         }
         break;
       case 'diode':
@@ -169,7 +179,38 @@ export function buildSwitchModel(nl: FlatNetlist, inputNames: string[]): SwitchM
     }
   }
   const rank = rankGroups(groups, readers);
-  return { nl, edges, groupOf, groups, edgesAt, readers, rank, gateReaders, gates, railValue, isInput, netIdsOf };
+  const railVal = new Int8Array(nNets).fill(-1);
+  for (const [net, v] of railValue) railVal[net] = v;
+  const compiled = edges.map((e) => (e.expr ? compileExpr(e.expr, nl) : undefined));
+  return { nl, edges, groupOf, groups, edgesAt, readers, rank, gateReaders, gates, railValue, railVal, compiled, isInput, netIdsOf };
+}
+
+/** A control expression with net names resolved to ids once, evaluated in three values. */
+export type CompiledExpr =
+  | { op: 'const'; mask: number }
+  | { op: 'net'; net: number }
+  | { op: 'not'; arg: CompiledExpr }
+  | { op: 'and' | 'or' | 'xor'; args: CompiledExpr[] };
+
+export function compileExpr(e: Expr, nl: FlatNetlist): CompiledExpr {
+  switch (e.op) {
+    case 'const':
+      return { op: 'const', mask: e.value ? 2 : 1 };
+    case 'var': {
+      const id = nl.netByName.get(e.name);
+      return id === undefined ? { op: 'const', mask: 3 } : { op: 'net', net: id };
+    }
+    case 'not':
+      return { op: 'not', arg: compileExpr(e.arg, nl) };
+    case 'and':
+    case 'or':
+    case 'xor':
+      return { op: e.op, args: e.args.map((a) => compileExpr(a, nl)) };
+    case 'implies':
+      return { op: 'or', args: [{ op: 'not', arg: compileExpr(e.left, nl) }, compileExpr(e.right, nl)] };
+    case 'iff':
+      return { op: 'not', arg: { op: 'xor', args: [compileExpr(e.left, nl), compileExpr(e.right, nl)] } };
+  }
 }
 
 /**

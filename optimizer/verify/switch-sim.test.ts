@@ -42,6 +42,15 @@ describe('switch-level simulation', () => {
     expect(r.contention).toEqual([]);
   });
 
+  it('a pulled-up output with a load resistor to ground reads high (bleed is weaker than a pull-up)', () => {
+    const b = netlist().rail('VCC', 5);
+    rtlInverter(b, 'A', 'Y');
+    b.resistor('RLOAD', 'Y', '0', 10e3);
+    const r = simulate(b.build(), { kind: 'vectors', vectors: [{ A: 0 }, { A: 1 }] });
+    expect(r.waveforms.Y).toEqual([1, 0]);
+    expect(r.contention).toEqual([]);
+  });
+
   it('two driven outputs fighting give X and name both drivers', () => {
     const b = netlist().rail('VDD', 5);
     cmosInverter(b, 'A', 'BUS', 'U1');

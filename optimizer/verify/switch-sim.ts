@@ -7,7 +7,9 @@ import { InputError } from '../errors';
 import type { FlatNetlist } from '../netlist/ir';
 import type { Expr } from '../logic/expr';
 import { gateFunction } from '../extract/gates';
-import { buildSwitchModel, CHARGE, DRIVEN, WEAK, type SwitchModel } from './switch-model';
+import { buildSwitchModel, BLEED, CHARGE, DRIVEN, RAIL, WEAK, type CompiledExpr, type SwitchModel } from './switch-model';
+
+const PASSES = [DRIVEN, WEAK, BLEED, CHARGE] as const;
 
 export type Level = 0 | 1 | 'X' | 'Z';
 type Mask = number; // bit 0: can be 0, bit 1: can be 1 (3 = X, 0 = nothing)
@@ -64,7 +66,7 @@ export class SwitchSimulator {
     this.charge = new Uint8Array(n).fill(3);
     this.gateOut = new Uint8Array(nl.devices.length);
     for (const [net, v] of this.model.railValue) {
-      this.level[net] = 4;
+      this.level[net] = RAIL;
       this.mask[net] = v ? 2 : 1;
     }
     this.maxEval = options.maxEvaluationsPerGroup ?? 50;
@@ -74,7 +76,7 @@ export class SwitchSimulator {
 
   /** Value a control terminal sees: a driven net's value, a floating net's stored charge. */
   private read(net: number, reader: string): Mask {
-    if (this.level[net] >= WEAK) return this.mask[net];
+    if (this.level[net] >= BLEED) return this.mask[net];
     // confirmed only if the net is still floating once the step has settled
     const list = this.pendingFloating.get(net) ?? [];
     if (!list.includes(reader) && list.length < 8) list.push(reader);
@@ -130,6 +132,49 @@ export class SwitchSimulator {
     }
   }
 
+  /** Three-valued evaluation of a compiled control (bipolar base drives). */
+  private evalCompiled(e: CompiledExpr, reader: string): Mask {
+    switch (e.op) {
+      case 'const':
+        return e.mask;
+      case 'net':
+        return this.read(e.net, reader);
+      case 'not': {
+        const m = this.evalCompiled(e.arg, reader);
+        return ((m & 1) << 1) | ((m >> 1) & 1);
+      }
+      case 'and': {
+        let can0 = 0;
+        let can1 = 1;
+        for (const a of e.args) {
+          const m = this.evalCompiled(a, reader);
+          can0 |= m & 1;
+          can1 &= (m >> 1) & 1;
+        }
+        return can0 | (can1 << 1);
+      }
+      case 'or': {
+        let can0 = 1;
+        let can1 = 0;
+        for (const a of e.args) {
+          const m = this.evalCompiled(a, reader);
+          can0 &= m & 1;
+          can1 |= (m >> 1) & 1;
+        }
+        return can0 | (can1 << 1);
+      }
+      case 'xor': {
+        let r = 1;
+        for (const a of e.args) {
+          const m = this.evalCompiled(a, reader);
+          if (m === 3 || r === 3) r = 3;
+          else if (m === 2) r = r === 1 ? 2 : 1;
+        }
+        return r;
+      }
+    }
+  }
+
   private evalGate(gi: number): Mask {
     const d = this.model.nl.devices[gi];
     const ins: Expr[] = d.terminals.slice(1).map((t) => ({ op: 'var', name: this.model.nl.nets[t].name }));
@@ -157,6 +202,7 @@ export class SwitchSimulator {
   private readonly pureTouched: number[] = [];
   private stack!: Int32Array;
   private top = 0;
+  private queued?: Uint8Array;
   private curLevel = 0;
   private tracking = false;
 
@@ -204,7 +250,7 @@ export class SwitchSimulator {
       mask[n] = 0;
     }
     this.tracking = !includeX;
-    for (const lvl of [DRIVEN, WEAK, CHARGE]) {
+    for (const lvl of PASSES) {
       this.curLevel = lvl;
       this.top = 0;
       for (const ei of grp.edges) {
@@ -217,7 +263,8 @@ export class SwitchSimulator {
           if (m.groupOf[to] < 0) continue;
           const fromIsSrc = m.groupOf[from] < 0;
           if (!fromIsSrc && level[from] <= lvl) continue;
-          let mk = fromIsSrc ? (m.railValue.has(from) ? (m.railValue.get(from)! ? 2 : 1) : mask[from]) : mask[from];
+          const rv = m.railVal[from];
+          let mk = fromIsSrc && rv >= 0 ? rv + 1 : mask[from];
           if (e.oneWay) mk &= side === 0 ? 2 : 1; // the anode passes a 1 down, the cathode a 0 up
           if (mk) this.deliver(to, mk, e.device, mk !== 3 && st === 2);
         }
@@ -287,7 +334,7 @@ export class SwitchSimulator {
       else if (e.control === 'pmos') {
         const r = this.read(e.gate, nl.devices[e.device].name);
         st = ((r & 1) << 1) | ((r >> 1) & 1);
-      } else if (e.control === 'expr') st = this.evalExpr(e.expr!, nl.devices[e.device].name);
+      } else if (e.control === 'expr') st = this.evalCompiled(m.compiled[ei]!, nl.devices[e.device].name);
       edgeSt[ei] = st; // 1 = off, 2 = on, 3 = unknown
       if (st === 3) unknown = true;
     }
@@ -328,7 +375,7 @@ export class SwitchSimulator {
       const net = m.netIdsOf(name);
       if (!m.isInput[net]) throw InputError.at('simulate.not-input', `"${name}" is not one of the stimulus inputs`);
       const mk = maskOf(value);
-      if (this.mask[net] !== mk || this.level[net] !== 4) {
+      if (this.mask[net] !== mk || this.level[net] !== RAIL) {
         if (this.mask[net] === 1 && mk === 2) {
           for (const gi of m.gateReaders[net]) {
             const d = m.nl.devices[gi];
@@ -336,7 +383,7 @@ export class SwitchSimulator {
           }
         }
         this.mask[net] = mk;
-        this.level[net] = 4;
+        this.level[net] = RAIL;
         for (const g of m.readers[net]) groups.add(g);
       }
     }
@@ -349,7 +396,7 @@ export class SwitchSimulator {
     // Rank-ordered worklist (a binary heap on the topological rank): each group of acyclic logic
     // settles in one evaluation; loops iterate up to the bound.
     const heap: number[] = [];
-    const queued = new Uint8Array(m.groups.length);
+    const queued = (this.queued ??= new Uint8Array(m.groups.length));
     const push = (g: number) => {
       if (queued[g]) return;
       queued[g] = 1;
@@ -405,7 +452,7 @@ export class SwitchSimulator {
       for (const n of changed) for (const r of m.readers[n]) push(r);
     }
     for (const [net, readers] of this.pendingFloating) {
-      if (this.level[net] < WEAK) this.result.floatingReads.push({ net: m.nl.nets[net].name, step: this.step, readers });
+      if (this.level[net] < BLEED) this.result.floatingReads.push({ net: m.nl.nets[net].name, step: this.step, readers });
     }
     for (const [net, drivers] of this.pendingContention) {
       if (this.mask[net] === 3 && this.level[net] >= WEAK) this.result.contention.push({ net: m.nl.nets[net].name, step: this.step, drivers });
@@ -416,7 +463,7 @@ export class SwitchSimulator {
   }
 
   value(net: number): Level {
-    if (this.level[net] < WEAK) return 'Z';
+    if (this.level[net] < BLEED) return 'Z';
     return LEVELS[this.mask[net]];
   }
 }
