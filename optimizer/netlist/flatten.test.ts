@@ -93,3 +93,14 @@ describe('flatten', () => {
     }
   });
 });
+
+it('refuses a cell that lists a port twice', () => {
+  const d: Design = {
+    title: 't', format: 'json', top: 'T', models: {}, globals: [], params: {}, extraCards: [],
+    cells: {
+      T: { name: 'T', ports: [], devices: [], instances: [{ name: 'X1', cell: 'S', connections: ['a', 'b'], params: {} }] },
+      S: { name: 'S', ports: ['p', 'p'], devices: [{ name: 'R1', kind: 'resistor', terminals: ['p', '0'], value: 1, params: {} }], instances: [] },
+    },
+  };
+  expect(() => flatten(d)).toThrow('port p is listed twice in S');
+});

@@ -45,35 +45,52 @@ export function flatten(design: Design, limits: Partial<Limits> = {}): FlatNetli
   const globals = new Map<string, number>([[GROUND, 0]]);
   for (const g of design.globals) if (!globals.has(g)) globals.set(g, newNet(g, design.cells[design.top].netKinds?.[g]));
 
-  // Explicit stack instead of recursion: depth is bounded by the limit, but this keeps the
-  // walk's cost independent of the engine's call-stack size.
+  const compiled = new Map<string, CompiledCell>();
+  const compiledOf = (cell: Cell): CompiledCell => {
+    let c = compiled.get(cell.name);
+    if (!c) {
+      c = compileCell(cell, globals);
+      compiled.set(cell.name, c);
+    }
+    return c;
+  };
+
+  /** Gives an instance's local nets their flat ids: ports from the parent, globals shared, the rest new. */
+  const bind = (c: CompiledCell, prefix: string, portIds: ArrayLike<number> | null): Int32Array => {
+    const ids = new Int32Array(c.nets.length);
+    for (let i = 0; i < c.nets.length; i++) {
+      const g = c.globalOf[i];
+      if (g >= 0) ids[i] = g;
+      else if (portIds && i < c.portCount) ids[i] = portIds[i];
+      else ids[i] = newNet(prefix + c.nets[i], c.kinds[i]);
+    }
+    return ids;
+  };
+
+  // Explicit stack instead of recursion: depth is bounded by the limit, but this keeps the walk
+  // independent of the engine's call-stack size. Each cell's local nets are numbered once
+  // (compileCell), so an instance costs array indexing, not a name lookup per terminal.
   interface Frame {
     cell: Cell;
+    c: CompiledCell;
     prefix: string;
     path: string[];
-    local: Map<string, number>;
+    ids: Int32Array;
   }
   const top = design.cells[design.top];
-  const frames: Frame[] = [{ cell: top, prefix: '', path: [], local: new Map() }];
-  const ports = top.ports.map((p) => resolve(frames[0], p));
-
-  function resolve(f: Frame, name: string): number {
-    const g = globals.get(name);
-    if (g !== undefined) return g;
-    let id = f.local.get(name);
-    if (id === undefined) {
-      id = newNet(f.prefix + name, f.cell.netKinds?.[name]);
-      f.local.set(name, id);
-    }
-    return id;
-  }
+  const topC = compiledOf(top);
+  const frames: Frame[] = [{ cell: top, c: topC, prefix: '', path: [], ids: bind(topC, '', null) }];
+  const ports = top.ports.map((_, i) => frames[0].ids[i]);
 
   while (frames.length > 0) {
     const f = frames.pop()!;
-    for (const d of f.cell.devices) {
-      const terminals = new Array<number>(d.terminals.length);
-      for (let i = 0; i < d.terminals.length; i++) terminals[i] = resolve(f, d.terminals[i]);
-      const fd: FlatDevice = { name: f.prefix + d.name, kind: d.kind, terminals, params: d.params, path: f.path, cell: f.cell.name };
+    const { cell, c, ids } = f;
+    for (let k = 0; k < cell.devices.length; k++) {
+      const d = cell.devices[k];
+      const local = c.devTerms[k];
+      const terminals = new Array<number>(local.length);
+      for (let i = 0; i < local.length; i++) terminals[i] = ids[local[i]];
+      const fd: FlatDevice = { name: f.prefix + d.name, kind: d.kind, terminals, params: d.params, path: f.path, cell: cell.name };
       if (d.op !== undefined) fd.op = d.op;
       if (d.value !== undefined) fd.value = d.value;
       if (d.model !== undefined) fd.model = d.model;
@@ -82,17 +99,55 @@ export function flatten(design: Design, limits: Partial<Limits> = {}): FlatNetli
       devices[nDev++] = fd;
     }
     // Children pushed in reverse so devices come out in file order.
-    for (let k = f.cell.instances.length - 1; k >= 0; k--) {
-      const inst = f.cell.instances[k];
+    for (let k = cell.instances.length - 1; k >= 0; k--) {
+      const inst = cell.instances[k];
       const child = design.cells[inst.cell];
-      const local = new Map<string, number>();
-      for (let i = 0; i < child.ports.length; i++) local.set(child.ports[i], resolve(f, inst.connections[i]));
-      frames.push({ cell: child, prefix: f.prefix + inst.name + '.', path: [...f.path, inst.name], local });
+      const cc = compiledOf(child);
+      const conn = c.instConns[k];
+      const portIds = new Int32Array(conn.length);
+      for (let i = 0; i < conn.length; i++) portIds[i] = ids[conn[i]];
+      const prefix = f.prefix + inst.name + '.';
+      frames.push({ cell: child, c: cc, prefix, path: [...f.path, inst.name], ids: bind(cc, prefix, portIds) });
     }
   }
   devices.length = nDev;
 
   return { title: design.title, devices, nets, netByName, rails: rails(devices, nets), ports, models: design.models };
+}
+
+interface CompiledCell {
+  /** Local net names, the cell's ports first (index i < portCount is port i). */
+  nets: string[];
+  portCount: number;
+  kinds: FlatNet['kind'][];
+  /** Flat id of a local net that is global (ground, .global), else -1. */
+  globalOf: Int32Array;
+  devTerms: Int32Array[];
+  instConns: Int32Array[];
+}
+
+function compileCell(cell: Cell, globals: Map<string, number>): CompiledCell {
+  const index = new Map<string, number>();
+  const nets: string[] = [];
+  const idx = (n: string): number => {
+    let i = index.get(n);
+    if (i === undefined) {
+      i = nets.length;
+      index.set(n, i);
+      nets.push(n);
+    }
+    return i;
+  };
+  for (const p of cell.ports) idx(p);
+  const portCount = nets.length;
+  if (portCount !== cell.ports.length) {
+    const dup = cell.ports.find((p, i) => cell.ports.indexOf(p) !== i);
+    throw InputError.at('netlist.duplicate-port', `port ${dup} is listed twice in ${cell.name}`, cell.loc);
+  }
+  const devTerms = cell.devices.map((d) => Int32Array.from(d.terminals, idx));
+  const instConns = cell.instances.map((i) => Int32Array.from(i.connections, idx));
+  const globalOf = Int32Array.from(nets, (n) => globals.get(n) ?? -1);
+  return { nets, portCount, kinds: nets.map((n) => cell.netKinds?.[n]), globalOf, devTerms, instConns };
 }
 
 function rails(devices: FlatDevice[], nets: FlatNet[]): Rail[] {

@@ -55,8 +55,9 @@ export function validateDesign(design: Design, opts: ValidateOptions = {}): Diag
 
 function checkNames(cell: Cell, out: Diagnostic[]): void {
   const seen = new Set<string>();
+  // Exact comparison: deck readers have already upper-cased names, and Verilog names are case-sensitive.
   const check = (x: { name: string; loc?: Diagnostic['loc'] }) => {
-    const key = x.name.toUpperCase();
+    const key = x.name;
     if (seen.has(key)) {
       out.push({ severity: 'error', code: 'netlist.duplicate-name', message: `duplicate name ${x.name} in ${cell.name}`, loc: x.loc });
     }
@@ -64,6 +65,11 @@ function checkNames(cell: Cell, out: Diagnostic[]): void {
   };
   for (const d of cell.devices) check(d);
   for (const i of cell.instances) check(i);
+  const ports = new Set<string>();
+  for (const p of cell.ports) {
+    if (ports.has(p)) out.push({ severity: 'error', code: 'netlist.duplicate-port', message: `port ${p} is listed twice in ${cell.name}`, loc: cell.loc });
+    ports.add(p);
+  }
 }
 
 function singleTerminalNets(cell: Cell, globals: Set<string>, isTop: boolean, out: Diagnostic[]): void {
