@@ -5,6 +5,7 @@ import { ErrorBodySchema } from '@/shared/api/error';
 import { ROLES, type Role } from '@/shared/domain/roles';
 import { DEMO_PASSWORD } from '@/server/db/seed';
 import { newToken, INVITE_TTL_MS } from '@/server/auth/tokens';
+import { listRoutes } from '@/server/http/list-routes';
 import { addMember, newClient, roleEmail, signIn, startHarness, type Client, type Harness } from './support/harness';
 
 type Caller = Role | 'signed-out';
@@ -118,6 +119,13 @@ describe('role matrix: every route as every role and signed out', () => {
   async function clientFor(caller: Caller): Promise<Client> {
     return caller === 'signed-out' ? newClient(h.app) : signIn(h.app, roleEmail(caller));
   }
+
+  it('has a row for every API route the app answers', () => {
+    const routes = listRoutes(h.app).filter((r) => r.includes(' /api/'));
+    expect(routes.length).toBeGreaterThanOrEqual(17);
+    const covered = new Set(MATRIX.map((row) => row.route.replace(/ \(.*\)$/, '')));
+    expect(routes.filter((r) => !covered.has(r)), 'routes with no row in the role matrix').toEqual([]);
+  });
 
   for (const row of MATRIX) {
     it.each(CALLERS.map((c) => [c, row.expect[c]] as const))(`${row.route} as %s → %i`, async (caller, status) => {
