@@ -63,9 +63,13 @@ ensure_fake_smtp() {
 
 # Exports the web build into dist/ unless the sources' hash matches the last export.
 export_web() {
-  local stamp="$ROOT/dist/.source-hash" hash
-  hash="$(cd "$ROOT" && find app components assets shared app.json package-lock.json -type f 2>/dev/null \
-    | LC_ALL=C sort | xargs sha256sum | sha256sum | cut -d' ' -f1)"
+  local stamp="$ROOT/dist/.source-hash" hash p inputs=()
+  # Everything the bundle is built from (the client also imports the engine for what-if maths).
+  for p in app components assets shared optimizer app.json package-lock.json tsconfig.json babel.config.js metro.config.js; do
+    [ -e "$ROOT/$p" ] && inputs+=("$p")
+  done
+  hash="$(cd "$ROOT" && find "${inputs[@]}" -type f -not -name '*.test.ts' -not -name '*.test.tsx' -print0 \
+    | LC_ALL=C sort -z | xargs -0 sha256sum | sha256sum | cut -d' ' -f1)"
   if [ -f "$ROOT/dist/index.html" ] && [ -f "$stamp" ] && [ "$(cat "$stamp")" = "$hash" ]; then
     info "web build is up to date (dist/)"
     return 0
