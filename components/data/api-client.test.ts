@@ -135,3 +135,17 @@ describe('createApiClient responses', () => {
     expect(server.calls[0].url).toBe('http://127.0.0.1:8080/api/x');
   });
 });
+
+describe('createApiClient uploads', () => {
+  it('sends a FormData body as-is with the CSRF token and no JSON content type', async () => {
+    const server = fakeServer((call) => (call.url === '/api/auth/csrf' ? json(200, { csrfToken: 'tok' }) : json(201, { id: 'd-1' })));
+    const api = createApiClient({ fetch: server.fetch });
+    const form = new FormData();
+    form.append('name', 'Wren-8 bus');
+    await expect(api.upload('/api/designs', form)).resolves.toEqual({ id: 'd-1' });
+    const post = server.calls.find((c) => c.method === 'POST')!;
+    expect(post.headers['X-CSRF-Token']).toBe('tok');
+    expect(post.headers['Content-Type']).toBeUndefined();
+    expect(post.body as unknown).toBe(form);
+  });
+});

@@ -11,6 +11,8 @@ export type ApiClient = {
   post<T>(path: string, body?: unknown): Promise<T>;
   patch<T>(path: string, body?: unknown): Promise<T>;
   del<T = void>(path: string): Promise<T>;
+  // Multipart POST (file uploads): the browser sets the boundary, so no Content-Type is sent.
+  upload<T>(path: string, form: FormData): Promise<T>;
   // The token is bound to the session: forget it when the session changes (sign-in, sign-out).
   forgetCsrfToken(): void;
 };
@@ -59,9 +61,10 @@ export function createApiClient(options: { baseUrl?: string; fetch?: FetchLike }
 
   async function attempt(method: Method, path: string, body: unknown): Promise<Response> {
     const headers: Record<string, string> = { Accept: 'application/json' };
-    if (body !== undefined) headers['Content-Type'] = 'application/json';
+    const form = typeof FormData !== 'undefined' && body instanceof FormData;
+    if (body !== undefined && !form) headers['Content-Type'] = 'application/json';
     if (method !== 'GET') headers['X-CSRF-Token'] = await csrfToken();
-    return send(method, path, { headers, body: body === undefined ? undefined : JSON.stringify(body) });
+    return send(method, path, { headers, body: body === undefined ? undefined : form ? (body as FormData) : JSON.stringify(body) });
   }
 
   async function request<T>(method: Method, path: string, body?: unknown): Promise<T> {
@@ -82,6 +85,7 @@ export function createApiClient(options: { baseUrl?: string; fetch?: FetchLike }
     post: (path, body) => request('POST', path, body),
     patch: (path, body) => request('PATCH', path, body),
     del: (path) => request('DELETE', path),
+    upload: (path, form) => request('POST', path, form),
     forgetCsrfToken: () => {
       csrf = null;
     },

@@ -11,6 +11,10 @@ describe('errorSentence', () => {
     ['csrf', 403, /Reload the page/],
     ['rate-limited', 429, /Too many attempts/],
     ['network', 0, /cannot be reached/],
+    ['revision-moved', 409, /newer revision .* Nothing was changed/],
+    ['proposals-overlap', 409, /change the same parts/],
+    ['not-accepted', 409, /Only accepted proposals/],
+    ['own-scan', 403, /another reviewer/],
   ])('code %s (status %i) has its own sentence', (code, status, expected) => {
     expect(errorSentence(new ApiError(status, code, 'raw server text'))).toMatch(expected);
   });

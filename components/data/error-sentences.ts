@@ -10,6 +10,14 @@ const BY_CODE: Record<string, string> = {
   csrf: 'Your session changed in another window. Reload the page and try again.',
   'rate-limited': 'Too many attempts in a short time. Wait a few minutes and try again.',
   network: 'Trimwire cannot be reached. Check your connection and try again.',
+  // Review workflow.
+  'revision-moved': 'Someone made a newer revision of this design meanwhile. Nothing was changed; reload and apply again on the latest revision.',
+  'proposals-overlap': 'Some of these proposals change the same parts, so they cannot be applied together. Nothing was changed; run a new scan and decide again.',
+  'not-accepted': 'Only accepted proposals can be applied. Nothing was changed; reload to see their current status.',
+  'own-scan': 'You started the scan that found this proposal, so another reviewer has to decide it.',
+  'not-open': 'This proposal has already been decided or is out of date. Reload to see its current status.',
+  'scan-finished': 'This scan has already finished, so there is nothing to cancel.',
+  'export-unsupported': 'This revision cannot be written in that format.',
 };
 
 const BY_STATUS: Record<number, string> = {

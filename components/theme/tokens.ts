@@ -117,6 +117,8 @@ export const sizes = {
 
 export const opacity = {
   disabled: 0.55,
+  // The part of a bar a later value no longer uses (a board's parts saved by accepted proposals).
+  faded: 0.3,
 } as const;
 
 // At or above this width the shell shows a side rail and two-pane screens instead of bottom tabs.

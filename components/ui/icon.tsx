@@ -22,6 +22,12 @@ const PATHS = {
   signOut: ['M14 4h5v16h-5', 'M10 8l-4 4 4 4', 'M6 12h10'],
   swap: ['M5 8h13l-3-3', 'M19 16H6l3 3'],
   plus: ['M12 5v14', 'M5 12h14'],
+  upload: ['M12 15V4', 'M7.5 8.5L12 4l4.5 4.5', 'M4 15v5h16v-5'],
+  download: ['M12 4v11', 'M7.5 10.5L12 15l4.5-4.5', 'M4 15v5h16v-5'],
+  // A magnifier over a trace: scan.
+  scan: ['M10.5 17a6.5 6.5 0 1 0 0-13 6.5 6.5 0 0 0 0 13z', 'M15.5 15.5L20 20', 'M6.5 10.5h2l1-2 2 4 1-2h1'],
+  close: ['M6 6l12 12', 'M18 6L6 18'],
+  history: ['M4 12a8 8 0 1 0 2.3-5.6', 'M4 4v4h4', 'M12 8v4l3 2'],
   // Resistor zig-zag between two leads: the product mark.
   mark: ['M2 12h4l1.5-4 3 8 3-8 3 8 1.5-4h4'],
 } as const;

@@ -11,3 +11,6 @@ export { EmptyState, ErrorState, Loading } from './states';
 export { Text, type Tone } from './text';
 export { TextField } from './text-field';
 export { ToggleRow } from './toggle-row';
+export { DataTable, type Column } from './data-table';
+export { DownloadLink } from './download-link';
+export { ProgressBar, type ProgressTone } from './progress-bar';
