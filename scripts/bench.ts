@@ -3,12 +3,15 @@
 // timed); the child times each stage and reports its peak resident memory. Prints a table.
 import { spawnSync } from 'node:child_process';
 import { mkdirSync, readFileSync, statSync, writeFileSync } from 'node:fs';
+import { cpus, loadavg } from 'node:os';
 import path from 'node:path';
 import { readSpice } from '@/optimizer/formats/spice/read';
 import { writeSpice } from '@/optimizer/formats/spice/write';
 import { flatten } from '@/optimizer/netlist/flatten';
 import { generateBitSliced, slicesFor, type Family } from '@/optimizer/netlist/generate';
 import type { Design, FlatNetlist } from '@/optimizer/netlist/ir';
+import { extractLogic } from '@/optimizer/extract/index';
+import { SwitchSimulator } from '@/optimizer/verify/switch-sim';
 
 /** What the stages share; each stage reads what earlier ones left and may add its own result. */
 interface BenchContext {
@@ -43,6 +46,23 @@ const STAGES: Stage[] = [
       ctx.devices = ctx.flat.devices.length;
     },
   },
+  {
+    name: 'extract',
+    run(ctx) {
+      ctx.view = extractLogic(ctx.flat!);
+    },
+  },
+  {
+    // 1000 switch-level steps: the shared LOAD strobe toggles every 10th step (every slice's
+    // enable, data gating, line and output then move); the other steps change nothing and cost
+    // only the event queue.
+    name: 'simulate 1000 steps',
+    run(ctx) {
+      const sim = new SwitchSimulator(ctx.flat!, ['LOAD'], {});
+      for (let step = 0; step < 1000; step++) sim.apply({ LOAD: Math.floor(step / 10) % 2 ? 1 : 0 });
+      ctx.simulated = sim.result;
+    },
+  },
 ];
 
 interface Case {
@@ -59,6 +79,8 @@ const CASES: Case[] = SIZES.flatMap((n) =>
 
 interface ChildResult {
   times: Record<string, number>;
+  /** Processor seconds (user + system, all threads) per stage: steadier than wall time on a shared machine. */
+  cpu: Record<string, number>;
   devices: number;
   peakRssMiB: number;
 }
@@ -66,12 +88,16 @@ interface ChildResult {
 function child(deckPath: string): void {
   const ctx: BenchContext = { text: readFileSync(deckPath, 'utf8'), devices: 0 };
   const times: Record<string, number> = {};
+  const cpu: Record<string, number> = {};
   for (const s of STAGES) {
+    const c0 = process.cpuUsage();
     const t0 = performance.now();
     s.run(ctx);
     times[s.name] = (performance.now() - t0) / 1000;
+    const c = process.cpuUsage(c0);
+    cpu[s.name] = (c.user + c.system) / 1e6;
   }
-  const result: ChildResult = { times, devices: ctx.devices, peakRssMiB: process.resourceUsage().maxRSS / 1024 };
+  const result: ChildResult = { times, cpu, devices: ctx.devices, peakRssMiB: process.resourceUsage().maxRSS / 1024 };
   process.stdout.write(JSON.stringify(result) + '\n');
 }
 
@@ -81,7 +107,7 @@ function parent(): void {
   const only = process.argv.slice(2).filter((a) => !a.startsWith('--'));
   const cases = only.length > 0 ? CASES.filter((c) => only.some((o) => c.label.startsWith(o))) : CASES;
   const rows: string[][] = [];
-  const header = ['design', 'devices', 'deck MiB', ...STAGES.map((s) => `${s.name} s`), 'total s', 'µs/device', 'peak RSS MiB'];
+  const header = ['design', 'devices', 'deck MiB', ...STAGES.map((s) => `${s.name} s`), 'total s', 'µs/device', 'cpu s', 'peak RSS MiB'];
   for (const c of cases) {
     const deckPath = path.join(dir, `${c.label.replace(' ', '-')}.cir`);
     writeFileSync(deckPath, writeSpice(generateBitSliced({ slices: slicesFor(c.transistors, c.family), family: c.family, flat: c.flat })));
@@ -103,14 +129,16 @@ function parent(): void {
       ...STAGES.map((s) => r.times[s.name].toFixed(3)),
       total.toFixed(3),
       ((total * 1e6) / r.devices).toFixed(2),
+      Object.values(r.cpu).reduce((a, b) => a + b, 0).toFixed(3),
       r.peakRssMiB.toFixed(0),
     ]);
     process.stderr.write(`done ${c.label}\n`);
   }
   const widths = header.map((h, i) => Math.max(h.length, ...rows.map((r) => r[i].length)));
   const line = (cells: string[]) => cells.map((x, i) => (i === 0 ? x.padEnd(widths[i]) : x.padStart(widths[i]))).join('  ');
-  console.log(`Trimwire bench — ${process.version}, ${new Date().toISOString()}`);
+  console.log(`Trimwire bench — ${process.version}, ${new Date().toISOString()}, load average ${loadavg().map((x) => x.toFixed(1)).join(' ')} on ${cpus().length} cores`);
   console.log('RTL bit-sliced designs ("hier": one slice subcircuit instantiated; "flat": every device in the deck)');
+  console.log('times are wall-clock seconds per stage; "cpu s" is processor time of all stages (GC threads included)');
   console.log(line(header));
   console.log(widths.map((w) => '-'.repeat(w)).join('  '));
   for (const r of rows) console.log(line(r));
