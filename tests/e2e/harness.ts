@@ -86,12 +86,25 @@ export async function startE2e(): Promise<E2e> {
   const browser = await chromium.launch({ executablePath: '/usr/bin/chromium', args: CHROMIUM_ARGS, headless: true });
   fs.mkdirSync(SCREENSHOT_DIR, { recursive: true });
 
+  // The first load of the bundle on a busy machine is the slowest; do it once before any test
+  // so a cold browser cannot eat a test's time budget.
+  const warm = await browser.newContext({ baseURL: server.url });
+  try {
+    const page = await warm.newPage();
+    await page.goto('/sign-in', { timeout: 120_000 });
+    await page.getByTestId('sign-in-screen').waitFor({ timeout: 120_000 });
+  } finally {
+    await warm.close();
+  }
+
   return {
     baseUrl: server.url,
     server,
     browser,
     async newPage(size) {
       const context = await browser.newContext({ viewport: SIZES[size], baseURL: server.url, colorScheme: 'light', locale: 'en-GB' });
+      // Two shared cores make single steps slow at times; a minute per step still catches a hang.
+      context.setDefaultTimeout(60_000);
       const page = await context.newPage();
       return { context, page };
     },
