@@ -81,27 +81,49 @@ export function designToPla(design: Design): Pla {
     driver.set(d.terminals[0], d);
   }
   const inIds = inputs.map((p) => flat.netByName.get(p)!);
+  const outIds = outputs.map((o) => flat.netByName.get(o)!);
   const supply = new Map<number, boolean>();
   for (const n of flat.nets) if (n.kind === 'supply1' || n.kind === 'supply0') supply.set(n.id, n.kind === 'supply1');
+  const order = evaluationOrder(outIds, driver, new Set([...inIds, ...supply.keys()]), flat);
+  const value = new Uint8Array(flat.nets.length);
   const cubes: Pla['cubes'] = [];
   for (let m = 0; m < 1 << inputs.length; m++) {
-    const value = new Map<number, boolean>(supply);
-    inIds.forEach((id, k) => value.set(id, ((m >> (inputs.length - 1 - k)) & 1) === 1));
-    const onPath = new Set<number>();
-    const evalNet = (id: number): boolean => {
-      const known = value.get(id);
-      if (known !== undefined) return known;
-      const d = driver.get(id);
-      if (!d) throw InputError.at('pla.write-undriven', `net ${flat.nets[id].name} has no driver and is not an input`);
-      if (onPath.has(id)) throw InputError.at('pla.write-loop', `combinational loop through ${flat.nets[id].name}`, d.loc);
-      onPath.add(id);
-      const v = EVAL[d.op!]!(d.terminals.slice(1).map(evalNet));
-      onPath.delete(id);
-      value.set(id, v);
-      return v;
-    };
-    const out = outputs.map((o) => (evalNet(flat.netByName.get(o)!) ? '1' : '0')).join('');
+    for (const [id, v] of supply) value[id] = v ? 1 : 0;
+    inIds.forEach((id, k) => (value[id] = (m >> (inputs.length - 1 - k)) & 1));
+    for (const d of order) value[d.terminals[0]] = EVAL[d.op!]!(d.terminals.slice(1).map((t) => value[t] === 1)) ? 1 : 0;
+    const out = outIds.map((id) => (value[id] ? '1' : '0')).join('');
     if (out.includes('1')) cubes.push({ in: m.toString(2).padStart(inputs.length, '0'), out });
   }
   return { inputs, outputs, cubes, type: 'f' };
+}
+
+type FlatGate = ReturnType<typeof flatten>['devices'][number];
+
+/** Gates feeding the outputs, inputs first; iterative so long gate chains cannot overflow the stack. */
+function evaluationOrder(outIds: number[], driver: Map<number, FlatGate>, sources: Set<number>, flat: ReturnType<typeof flatten>): FlatGate[] {
+  const order: FlatGate[] = [];
+  const state = new Map<number, 1 | 2>(); // 1 on the path, 2 done
+  for (const out of outIds) {
+    const stack: { net: number; next: number }[] = [{ net: out, next: 1 }];
+    while (stack.length > 0) {
+      const top = stack[stack.length - 1];
+      if (sources.has(top.net) || state.get(top.net) === 2) {
+        stack.pop();
+        continue;
+      }
+      const d = driver.get(top.net);
+      if (!d) throw InputError.at('pla.write-undriven', `net ${flat.nets[top.net].name} has no driver and is not an input`);
+      state.set(top.net, 1);
+      if (top.next < d.terminals.length) {
+        const inNet = d.terminals[top.next++];
+        if (state.get(inNet) === 1) throw InputError.at('pla.write-loop', `combinational loop through ${flat.nets[inNet].name}`, d.loc);
+        stack.push({ net: inNet, next: 1 });
+        continue;
+      }
+      state.set(top.net, 2);
+      order.push(d);
+      stack.pop();
+    }
+  }
+  return order;
 }

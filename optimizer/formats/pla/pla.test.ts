@@ -59,6 +59,16 @@ describe('PLA ↔ gate-level design', () => {
     expect(table.cubes.map((c) => c.in)).toEqual(['011', '101', '110', '111']);
   });
 
+  it('evaluates long gate chains without recursion (a 100,000-buffer chain is the identity)', () => {
+    const n = 100_000;
+    const devices = Array.from({ length: n }, (_, k) => ({ name: `b${k}`, kind: 'gate' as const, op: 'buf' as const, terminals: [k === n - 1 ? 'y' : `n${k + 1}`, k === 0 ? 'a' : `n${k}`], params: {} }));
+    const design = {
+      title: 'chain', format: 'verilog' as const, top: 'c', models: {}, globals: [], params: {}, extraCards: [],
+      cells: { c: { name: 'c', ports: ['a', 'y'], directions: { a: 'input' as const, y: 'output' as const }, devices, instances: [] } },
+    };
+    expect(designToPla(design).cubes).toEqual([{ in: '1', out: '1' }]);
+  });
+
   it('handles constant outputs', () => {
     const pla = readPla('.i 1\n.o 2\n.ob one zero\n- 10\n.e\n', 'c.pla');
     const table = designToPla(plaToDesign(pla));

@@ -99,7 +99,18 @@ export function parseVerilog(toks: VTok[], problems: ParseProblem[]): ModuleDecl
   // Expressions: ?: lowest, then |, ^ ~^, &, unary ~ / !, primaries.
   const BAD_OPS = ['&&', '||', '+', '-', '*', '/', '%', '<', '>', '==', '!=', '<<', '>>', '~&', '~|', '<=', '>='];
   const badOp = (t: VTok) => fail(`operator ${t.text} is not supported in assign; use & | ^ ~ and ?:`, t);
+  // Nesting is bounded so no input can exhaust the call stack.
+  const MAX_NESTING = 200;
+  let nesting = 0;
   const expr = (): Expr => {
+    if (++nesting > MAX_NESTING) fail(`expression nested more than ${MAX_NESTING} deep`);
+    try {
+      return exprBody();
+    } finally {
+      nesting--;
+    }
+  };
+  const exprBody = (): Expr => {
     const c = orExpr();
     if (BAD_OPS.includes(peek().text)) badOp(peek());
     if (peek().text !== '?') return c;
@@ -137,7 +148,12 @@ export function parseVerilog(toks: VTok[], problems: ParseProblem[]): ModuleDecl
     const t = peek();
     if (t.text === '~' || t.text === '!') {
       next();
-      return { k: 'not', a: unary(), tok: t };
+      if (++nesting > MAX_NESTING) fail(`expression nested more than ${MAX_NESTING} deep`);
+      try {
+        return { k: 'not', a: unary(), tok: t };
+      } finally {
+        nesting--;
+      }
     }
     if (BAD_OPS.includes(t.text)) badOp(t);
     return primary();

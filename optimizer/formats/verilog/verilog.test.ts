@@ -115,6 +115,13 @@ describe('located errors', () => {
     expect(errorsOf(text)).toContain(message);
   });
 
+  it('refuses expressions nested deeper than the parser allows, without exhausting the stack', () => {
+    const deep = `module m (a, y);\n input a; output y;\n assign y = ${'('.repeat(50_000)}a${')'.repeat(50_000)};\nendmodule\n`;
+    expect(errorsOf(deep)[0]).toMatch(/^m\.v:3:\d+: expression nested more than 200 deep$/);
+    const nots = `module m (a, y);\n input a; output y;\n assign y = ${'~'.repeat(50_000)}a;\nendmodule\n`;
+    expect(errorsOf(nots)[0]).toMatch(/expression nested more than 200 deep/);
+  });
+
   it('reports recursive instantiation', () => {
     expect(errorsOf('module a (x); inout x; b u (x); endmodule\nmodule b (y); inout y; a v (y); endmodule\n').join('\n')).toMatch(/recursive instantiation of module/);
   });
