@@ -11,8 +11,12 @@ import {
   isRail,
   netName,
   otherEnd,
+  varOf,
   type ExtractContext,
 } from './context';
+
+// Shared empty lists for the common (non-DTL) base drive: most transistors have none of these.
+const NONE: number[] = Object.freeze([]) as unknown as number[];
 
 const C = 0;
 const B = 1;
@@ -68,17 +72,13 @@ function emitterGrounded(cx: ExtractContext, net: number): boolean {
 }
 
 export class BaseResolver {
-  private readonly cache = new Map<number, BaseDrive>();
+  private readonly cache: (BaseDrive | undefined)[] = [];
   /** Nets absorbed into base networks (DTL diode nodes): part of a gate, not signals. */
   readonly absorbed = new Set<number>();
   constructor(private readonly cx: ExtractContext) {}
 
   drive(transistor: number): BaseDrive {
-    const hit = this.cache.get(transistor);
-    if (hit) return hit;
-    const d = this.resolve(transistor);
-    this.cache.set(transistor, d);
-    return d;
+    return (this.cache[transistor] ??= this.resolve(transistor));
   }
 
   private resolve(transistor: number): BaseDrive {
@@ -90,8 +90,8 @@ export class BaseResolver {
       inputs: [],
       on: TRUE,
       baseResistors: [],
-      inputDiodes: [],
-      levelShiftDiodes: [],
+      inputDiodes: NONE,
+      levelShiftDiodes: NONE,
       devices: [],
     };
     if (isRail(cx, base)) {
@@ -116,7 +116,7 @@ export class BaseResolver {
         if (isHighRail(cx, from)) terms.push(TRUE);
         else {
           drive.inputs.push(from);
-          terms.push(v(netName(cx, from)));
+          terms.push(varOf(cx, from));
         }
         return;
       }
@@ -139,7 +139,7 @@ export class BaseResolver {
     }
     if (direct || terms.length === 0) {
       // driven straight by another stage (or an undriven input): the base net is the signal
-      terms.push(v(netName(cx, base)));
+      terms.push(varOf(cx, base));
       drive.inputs.push(base);
       drive.kind = 'direct';
     } else if (diodeAnd) drive.kind = 'diode-and';
@@ -169,13 +169,13 @@ export class BaseResolver {
             inputs.push(dev.terminals[1]);
           }
         });
-        drive.levelShiftDiodes.push(...shift);
-        drive.inputDiodes.push(...inputDiodes);
+        drive.levelShiftDiodes = shift;
+        drive.inputDiodes = inputDiodes;
         drive.diodePullUp = pulls[0];
         drive.devices.push(...shift, ...inputDiodes, ...pulls.map((u) => u.device));
         drive.inputs.push(...inputs);
         this.absorbed.add(p);
-        return and(...inputs.map((n) => (isRail(cx, n) ? ({ op: 'const', value: isHighRail(cx, n) ? 1 : 0 } as Expr) : v(netName(cx, n)))));
+        return and(...inputs.map((n) => (isRail(cx, n) ? ({ op: 'const', value: isHighRail(cx, n) ? 1 : 0 } as Expr) : varOf(cx, n))));
       }
       // another level-shift diode further up: exactly one diode with its cathode at p
       let up = -1;
@@ -213,8 +213,42 @@ function pullDownNetwork(cx: ExtractContext, bases: BaseResolver, net: number, d
       }
     }
   });
+  // Steering diodes (anode on this line, cathode on a common override node): the line is pulled
+  // low whenever that node's own pull-down conducts; the diodes block the other way.
+  eachTerminal(cx, net, (d, t) => {
+    const dev = cx.nl.devices[d];
+    if (dev.kind !== 'diode' || t !== 0 || !isSteeringNode(cx, dev.terminals[1])) return;
+    const rest = pullDownNetwork(cx, bases, dev.terminals[1], depth + 1, used);
+    if (rest) branches.push(rest);
+  });
   if (branches.length === 0) return undefined;
   return branches.length === 1 ? branches[0] : { type: 'parallel', parts: branches };
+}
+
+/**
+ * A steering node: only NPN collectors and diode cathodes touch it (at least one of each), it has
+ * no pull-up of its own, and every diode's anode sits on a resistor-pulled collector line — the
+ * common node of an override transistor shared by several lines through steering diodes.
+ */
+export function isSteeringNode(cx: ExtractContext, net: number): boolean {
+  if (isRail(cx, net)) return false;
+  let collectors = 0;
+  let diodes = 0;
+  let ok = true;
+  eachTerminal(cx, net, (d, t) => {
+    const dev = cx.nl.devices[d];
+    if (isNpn(cx, d) && t === C) collectors++;
+    else if (dev.kind === 'diode' && t === 1) {
+      const anode = dev.terminals[0];
+      let lineCollectors = 0;
+      eachTerminal(cx, anode, (d2, t2) => {
+        if (isNpn(cx, d2) && t2 === C) lineCollectors++;
+      });
+      if (anode === net || lineCollectors === 0 || resistorPullUps(cx, anode).length === 0) ok = false;
+      diodes++;
+    } else ok = false;
+  });
+  return ok && collectors > 0 && diodes > 0;
 }
 
 export function networkCondition(n: SwitchNetwork): Expr {
@@ -235,7 +269,7 @@ export function extractBipolar(cx: ExtractContext, bases: BaseResolver): LogicNo
   cx.nl.devices.forEach((dev, di) => {
     if (dev.kind !== 'npn') return;
     const net = dev.terminals[C];
-    if (seen[net] || isRail(cx, net) || isStackNode(cx, net)) return;
+    if (seen[net] || isRail(cx, net) || isStackNode(cx, net) || isSteeringNode(cx, net)) return;
     seen[net] = 1;
     const node = collectorNode(cx, bases, net);
     if (node) nodes.push(node);
@@ -260,9 +294,16 @@ function collectorNode(cx: ExtractContext, bases: BaseResolver, net: number): Lo
   // Independent groups: the branches made in different instances (cells) are separate drivers.
   const branches = pd.type === 'parallel' ? pd.parts : [pd];
   const byPath = new Map<string, SwitchNetwork[]>();
-  for (const br of branches) {
-    const key = cx.nl.devices[firstSwitch(br)].path.join('.');
-    byPath.set(key, [...(byPath.get(key) ?? []), br]);
+  const firstPath = cx.nl.devices[firstSwitch(branches[0])].path;
+  const samePath = (p: string[]) => p === firstPath || (p.length === firstPath.length && p.every((x, i) => x === firstPath[i]));
+  if (branches.every((br) => samePath(cx.nl.devices[firstSwitch(br)].path))) byPath.set(firstPath.join('.'), branches);
+  else {
+    for (const br of branches) {
+      const key = cx.nl.devices[firstSwitch(br)].path.join('.');
+      const list = byPath.get(key);
+      if (list) list.push(br);
+      else byPath.set(key, [br]);
+    }
   }
   const groups: DriverGroup[] = [];
   for (const [key, brs] of byPath) {

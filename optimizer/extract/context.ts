@@ -13,6 +13,8 @@ export interface ExtractContext {
   /** Rail voltage per net, NaN where the net is not a rail. */
   railVolts: Float64Array;
   diagnostics: Diagnostic[];
+  /** One shared variable node per net, so functions do not allocate a node per reference. */
+  vars: (Expr | undefined)[];
 }
 
 export function makeContext(nl: FlatNetlist): ExtractContext {
@@ -33,7 +35,7 @@ export function makeContext(nl: FlatNetlist): ExtractContext {
   });
   const railVolts = new Float64Array(nNets).fill(NaN);
   for (const r of nl.rails) railVolts[r.net] = r.volts;
-  return { nl, offsets, termDev, termIdx, railVolts, diagnostics: [] };
+  return { nl, offsets, termDev, termIdx, railVolts, diagnostics: [], vars: new Array(nNets) };
 }
 
 export const isRail = (cx: ExtractContext, net: number): boolean => !Number.isNaN(cx.railVolts[net]);
@@ -54,7 +56,12 @@ export function terminalCount(cx: ExtractContext, net: number): number {
 /** The logic value a control terminal on this net sees: rails are constants, other nets variables. */
 export function controlOf(cx: ExtractContext, net: number): Expr {
   if (isRail(cx, net)) return c(cx.railVolts[net] > 0 ? 1 : 0);
-  return v(netName(cx, net));
+  return varOf(cx, net);
+}
+
+/** The shared variable node of a net. */
+export function varOf(cx: ExtractContext, net: number): Expr {
+  return (cx.vars[net] ??= v(netName(cx, net)));
 }
 
 /** The other end of a two-terminal device. */

@@ -4,7 +4,7 @@
 // and kind (static CMOS, NMOS with resistor/depletion load, tri-state, pass/transmission gate).
 import { and, evaluateWords, not, or, support, c, v, type Expr } from '../logic/expr';
 import type { DriverGroup, Family, LogicNode, NodeKind, PullUp, SwitchNetwork } from './types';
-import { commonPath, controlOf, eachTerminal, isHighRail, isRail, netName, otherEnd, type ExtractContext } from './context';
+import { commonPath, controlOf, eachTerminal, isHighRail, isRail, netName, otherEnd, varOf, type ExtractContext } from './context';
 
 const D = 0;
 const G = 1;
@@ -236,7 +236,7 @@ function analyseNet(
     return undefined;
   }
   if (paths.length === 0 && loads.length === 0) return undefined;
-  const valueOf = (s: number): Expr => (isRail(cx, s) ? c(isHighRail(cx, s) ? 1 : 0) : v(netName(cx, s)));
+  const valueOf = (s: number): Expr => (isRail(cx, s) ? c(isHighRail(cx, s) ? 1 : 0) : varOf(cx, s));
   const toHigh = paths.filter((p) => isRail(cx, p.source) && isHighRail(cx, p.source));
   const toLow = paths.filter((p) => isRail(cx, p.source) && !isHighRail(cx, p.source));
   const toSignal = paths.filter((p) => !isRail(cx, p.source));
