@@ -2,7 +2,7 @@
 // sink current, forced β, loaded high level, load base currents, stacked and diode-steered low
 // levels. Formulas are circuit laws (REFERENCES.md); limits are common practice unless named.
 import type { MapFamily } from '../logic/family-parts';
-import { corners, describeCorner, type MarginResult, type MarginStatus, round, statusAtLeast, statusAtMost, worstCorner } from './corners';
+import { corners, describeCorner, type MarginInputs, type MarginResult, type MarginStatus, round, statusAtLeast, statusAtMost, worstCorner } from './corners';
 import { type MarginSettings, thresholdsFor } from './defaults';
 
 /** I = Σ (V_CC − V_CE(sat)) / R_pull-up,i — the current one pull-down sinks from N pulled-up lines. */
@@ -32,6 +32,7 @@ export function sinkCurrent(
     status: statusAtMost(w.value, limit, s),
     corner: describeCorner(w.point, s),
     note: `Σ (V_CC − V_CE(sat)) / R over ${input.pullUps.length} pulled-up line(s); limit from the settings — check the transistor's data sheet`,
+    inputs: { check: 'sink-current', ...input, pullUps: [...input.pullUps] },
   };
 }
 
@@ -65,6 +66,7 @@ export function forcedBeta(
     status: forcedBetaStatus(w.value, input.betaMin, s),
     corner: describeCorner(w.point, s, input.betaMin),
     note: `I_C/I_B ≤ ${s.forcedBetaTarget} is hard saturation (common practice); above β_min = ${round(input.betaMin)} the driver leaves saturation`,
+    inputs: { check: 'forced-beta', ...input, pullUps: [...input.pullUps] },
   };
 }
 
@@ -83,6 +85,7 @@ export function loadedHighLevel(
     status: statusAtLeast(w.value, limit, s),
     corner: describeCorner(w.point, s),
     note: `V_OH = V_BE + (V_CC − V_BE)·(R_B/N)/(R_C + R_B/N) with N = ${input.loads} (circuit law), against the receiver's V_IH`,
+    inputs: { check: 'loaded-high-level', ...input },
   };
 }
 
@@ -111,10 +114,11 @@ export function loadBaseCurrent(
     status: forcedBetaStatus(w.value, input.betaMin, s),
     corner: describeCorner(w.point, s, input.betaMin),
     note: `each of ${input.loads} bases gets (V_OH − V_BE)/R_B; it needs I_C/β_min to saturate and I_C/${s.forcedBetaTarget} for hard saturation (forced β ${round(w.value)})`,
+    inputs: { check: 'load-base-current', ...input },
   };
 }
 
-function lowLevel(name: string, value: number, vcc: number, receiver: MapFamily, s: MarginSettings, note: string): MarginResult {
+function lowLevel(name: string, value: number, vcc: number, receiver: MapFamily, s: MarginSettings, note: string, inputs: MarginInputs): MarginResult {
   const limit = thresholdsFor(receiver, vcc * (1 - s.supplyTolerance), s).vil;
   return {
     name,
@@ -124,6 +128,7 @@ function lowLevel(name: string, value: number, vcc: number, receiver: MapFamily,
     status: statusAtMost(value, limit, s),
     corner: { supply: round(vcc * (1 - s.supplyTolerance)), resistors: 'nominal' },
     note,
+    inputs,
   };
 }
 
@@ -136,6 +141,7 @@ export function stackedLowLevel(input: { vcc: number; stack: number; receiver: M
     input.receiver,
     s,
     `${input.stack} saturated transistor(s) in series at V_CE(sat) ${s.vceSatMax} V each, against the receiver's V_IL`,
+    { check: 'stacked-low-level', ...input },
   );
 }
 
@@ -153,5 +159,6 @@ export function diodeSteeredLowLevel(
     input.receiver,
     s,
     `V_CE(sat) + V_D ≈ 0.8–0.9 V sits above a plain RTL input's turn-on (common practice; confirm with a circuit simulator)`,
+    { check: 'diode-steered-low-level', ...input },
   );
 }

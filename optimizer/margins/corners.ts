@@ -1,6 +1,7 @@
 // Worst-case corner search and the margin result shape. Each check is a first-order formula that
 // is monotonic in the supply and each resistor, so its extremes lie on the corners: supply at
 // −tol/nominal/+tol and every resistor role at ±tol; the worst value over them is reported.
+import type { MapFamily } from '../logic/family-parts';
 import type { MarginSettings } from './defaults';
 
 export type MarginStatus = 'pass' | 'warn' | 'fail';
@@ -22,7 +23,26 @@ export interface MarginResult {
   status: MarginStatus;
   corner: Corner;
   note: string;
+  /** What the check was computed from, so a what-if can recompute it with other settings. */
+  inputs?: MarginInputs;
 }
+
+/**
+ * The inputs of each margin check, tagged by check. Stored with the result (JSON) so a stored
+ * proposal's margins can be recomputed with other supply, pull-up, β_min, clock or load figures.
+ */
+export type MarginInputs =
+  | { check: 'sink-current'; vcc: number; pullUps: number[]; limit?: number }
+  | { check: 'forced-beta'; vcc: number; pullUps: number[]; baseResistor: number; driveVolts?: number; betaMin: number }
+  | { check: 'loaded-high-level'; vcc: number; rc: number; rb: number; loads: number; receiver: MapFamily }
+  | { check: 'load-base-current'; vcc: number; rc: number; rb: number; loads: number; loadPullUp: number; betaMin: number }
+  | { check: 'stacked-low-level'; vcc: number; stack: number; receiver: MapFamily }
+  | { check: 'diode-steered-low-level'; vcc: number; receiver: MapFamily; stack?: number; diodes?: number }
+  | { check: 'rise-time'; vcc: number; pullUp: number; capacitance: number; clockPeriod: number; loads?: number; lineCapacitance?: number }
+  | { check: 'static-power'; vcc: number; pullUps: number[] }
+  | { check: 'fan-out'; loads: number; family: MapFamily }
+  | { check: 'pull-up-min'; vcc: number; pullUp: number; volMax: number; iolMax: number; iilPerLoad: number; loads: number }
+  | { check: 'pull-up-max'; vcc: number; pullUp: number; family: MapFamily; leakPerDriver: number; drivers: number; iihPerLoad: number; loads: number };
 
 export type Sign = -1 | 0 | 1;
 

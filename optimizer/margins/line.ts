@@ -13,7 +13,7 @@ export function lineCapacitance(loads: number, s: MarginSettings, given?: number
 }
 
 export function riseTime(
-  input: { vcc: number; pullUp: number; capacitance: number; clockPeriod: number },
+  input: { vcc: number; pullUp: number; capacitance: number; clockPeriod: number; loads?: number; lineCapacitance?: number },
   s: MarginSettings,
 ): MarginResult {
   const points = corners(input.vcc, ['R_pull-up'] as const, s);
@@ -27,6 +27,7 @@ export function riseTime(
     status: statusAtMost(w.value, limit, s),
     corner: describeCorner(w.point, s),
     note: `t_r ≈ 2.2·R·C with C = ${round(input.capacitance * 1e12)} pF, against ${Math.round(s.riseFraction * 100)} % of the ${round(input.clockPeriod * 1e9)} ns clock period`,
+    inputs: { check: 'rise-time', ...input },
   };
 }
 
@@ -47,6 +48,7 @@ export function staticPower(input: { vcc: number; pullUps: number[] }, s: Margin
     status,
     corner: describeCorner(w.point, s),
     note: `(V_CC − V_CE(sat))²/R in the smallest pull-up held low (circuit law); ${round(total)} W for all ${input.pullUps.length} held low; rating derated to ${Math.round(s.powerDerating * 100)} %`,
+    inputs: { check: 'static-power', vcc: input.vcc, pullUps: [...input.pullUps] },
   };
 }
 
@@ -63,5 +65,6 @@ export function fanOut(input: { loads: number; family: MapFamily }, s: MarginSet
       input.family === 'rtl' || input.family === 'dtl'
         ? `typical ${input.family.toUpperCase()} fan-out ${limit} (Mano, Digital Design, from memory)`
         : `family default fan-out ${limit} (common practice; editable)`,
+    inputs: { check: 'fan-out', ...input },
   };
 }

@@ -254,6 +254,7 @@ export function sizePullUp(
       status: statusAtLeast(rLow, rMin, s),
       corner: { supply: round(vccMax), resistors: `R_pull-up −${Math.round(s.resistorTolerance * 100)} %` },
       note: `R ≥ (V_CC,max − V_OL,max)/(I_OL,max − Σ I_IL) with V_OL,max ${o.volMax} V, I_OL,max ${round(o.iolMax * 1e3)} mA, ${line.loads} load(s) (common practice; use the driver's data sheet)`,
+      inputs: { check: 'pull-up-min', vcc: line.vcc, pullUp: resistor, volMax: o.volMax, iolMax: o.iolMax, iilPerLoad: o.iilPerLoad, loads: line.loads },
     },
     {
       name: 'pull-up against high level',
@@ -263,8 +264,10 @@ export function sizePullUp(
       status: statusAtMost(rHigh, rMax, s),
       corner: { supply: round(vccMin), resistors: `R_pull-up +${Math.round(s.resistorTolerance * 100)} %` },
       note: `R ≤ (V_CC,min − V_IH,min)/(Σ I_leak + Σ I_IH) with V_IH ${round(vih)} V, ${line.drivers} driver(s), ${line.loads} load(s) (common practice)`,
+      inputs: { check: 'pull-up-max', vcc: line.vcc, pullUp: resistor, family: line.family, leakPerDriver: o.leakPerDriver, drivers: line.drivers, iihPerLoad: o.iihPerLoad, loads: line.loads },
     },
-    riseTime({ vcc: line.vcc, pullUp: resistor, capacitance: c, clockPeriod: period }, s),
+    // loads (and the line's own figure when the options give one) let a what-if recompute C.
+    riseTime({ vcc: line.vcc, pullUp: resistor, capacitance: c, clockPeriod: period, loads: line.loads, ...(o.lineCapacitance !== undefined ? { lineCapacitance: o.lineCapacitance } : {}) }, s),
     staticPower({ vcc: line.vcc, pullUps: [resistor] }, s),
   ];
   return { resistor, margins };
