@@ -13,10 +13,10 @@ export function isLive(scan: Pick<Scan, 'status'> | null | undefined): boolean {
   return scan?.status === 'queued' || scan?.status === 'running';
 }
 
-export function useScan(id: string | null, initial?: Scan | null) {
+// `known` (the design's copy of the scan) is shown until the first read of the scan answers.
+export function useScan(id: string | null, known?: Scan | null) {
   const { mutate: mutateGlobal } = useSWRConfig();
   const { data, error, mutate } = useSWR<Scan>(id ? scanKey(id) : null, {
-    fallbackData: initial ?? undefined,
     refreshInterval: (latest) => (isLive(latest) ? SCAN_POLL_MS : 0),
     // When the scan finishes the design's counts and proposals change: read them again.
     onSuccess: (scan) => {
@@ -28,7 +28,7 @@ export function useScan(id: string | null, initial?: Scan | null) {
       }
     },
   });
-  return { scan: data ?? null, error: error as unknown, retry: () => mutate() };
+  return { scan: data ?? (known && known.id === id ? known : null), error: error as unknown, retry: () => mutate() };
 }
 
 export function useScanActions() {
