@@ -2,6 +2,7 @@
 // Minterm m assigns input i the bit (m >> (n-1-i)) & 1: inputs[0] is the most significant,
 // as in the textbooks' Σm notation and the column order of a Berkeley PLA.
 import { InputError, InternalError } from '../errors';
+import { evaluateWords, type Expr } from './expr';
 
 /** Largest input count a truth table is built for (2^20 minterms = 128 KiB per bitset). */
 export const MAX_TABLE_INPUTS = 20;
@@ -174,4 +175,35 @@ export function complementTable(t: TruthTable): TruthTable {
       return { name: o.name, on, dc: o.dc.slice() };
     }),
   };
+}
+
+/**
+ * Bit-parallel table of expressions over `inputs`: 32 minterms per evaluation. `care` false makes
+ * a minterm a don't-care for every output (the conjunction of the assumptions, say).
+ */
+export function fromExprs(inputs: string[], outputs: { name: string; fn: Expr }[], care?: Expr): TruthTable {
+  checkInputs(inputs);
+  const n = inputs.length;
+  const nWords = words(n);
+  const valid = fullSet(n);
+  const outs: OutputTable[] = outputs.map(({ name }) => ({ name, on: new Uint32Array(nWords), dc: new Uint32Array(nWords) }));
+  const env = new Map<string, number>();
+  // Inputs whose bit lies inside a word follow a fixed 32-bit pattern; the others are constant per word.
+  const pattern = (bit: number) => {
+    let w = 0;
+    for (let b = 0; b < 32; b++) if ((b >> bit) & 1) w |= 1 << b;
+    return w | 0;
+  };
+  for (let w = 0; w < nWords; w++) {
+    inputs.forEach((x, i) => {
+      const bit = n - 1 - i;
+      env.set(x, bit < 5 ? pattern(bit) : ((w * 32) >> bit) & 1 ? -1 : 0);
+    });
+    const careWord = care ? evaluateWords(care, env) & valid[w] : valid[w];
+    outputs.forEach(({ fn }, k) => {
+      outs[k].on[w] = evaluateWords(fn, env) & careWord;
+      outs[k].dc[w] = ~careWord & valid[w];
+    });
+  }
+  return { inputs: [...inputs], outputs: outs };
 }

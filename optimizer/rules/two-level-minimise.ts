@@ -4,11 +4,11 @@
 import { z } from 'zod';
 import { GROUND } from '../netlist/ir';
 import { editSavings } from '../cost/cost';
-import { evaluate, support } from '../logic/expr';
+import { and, support } from '../logic/expr';
 import type { MapFamily } from '../logic/family-parts';
 import { mapCover } from '../logic/map-family';
 import { coverToText } from '../logic/cubes';
-import { complementTable, fromFunction } from '../logic/truth-table';
+import { complementTable, fromExprs } from '../logic/truth-table';
 import { fanOut } from '../margins/line';
 import { worstOf } from '../margins/corners';
 import { emitNetwork, type EmitContext } from '../rewrite/emit-gates';
@@ -58,12 +58,12 @@ function emitContext(ctx: RuleContext, cone: Cone): EmitContext | undefined {
 
 /** Minimise and map one cone under a set of assumptions; undefined when it maps to a wire or constant. */
 async function resynthesise(ctx: RuleContext, cone: Cone, family: MapFamily, assumptions: Assumption[], timeoutMs: number) {
-  const care = assumptions.length ? (bits: number[]) => assumptions.every((a) => evaluate(a.expr, Object.fromEntries(cone.leaves.map((x, i) => [x, bits[i] as 0 | 1]))) === 1) : undefined;
-  const table = fromFunction(cone.leaves, [cone.root.name], (bits) => [evaluate(cone.fn, Object.fromEntries(cone.leaves.map((x, i) => [x, bits[i] as 0 | 1]))) === 1], care);
-  const [on, off] = await Promise.all([
-    ctx.minimiser.minimiseCover(table, { timeoutMs }),
-    ctx.minimiser.minimiseCover(complementTable(table), { timeoutMs }),
-  ]);
+  const table = fromExprs(cone.leaves, [{ name: cone.root.name, fn: cone.fn }], assumptions.length ? and(...assumptions.map((a) => a.expr)) : undefined);
+  // The function and its complement in one request (one round trip to the minimiser).
+  const both = { inputs: table.inputs, outputs: [table.outputs[0], { ...complementTable(table).outputs[0], name: `${cone.root.name}'` }] };
+  const r = await ctx.minimiser.minimiseCover(both, { timeoutMs });
+  const on = { cover: { inputs: r.cover.inputs, outputs: [r.cover.outputs[0]] } };
+  const off = { cover: { inputs: r.cover.inputs, outputs: [{ ...r.cover.outputs[1], name: cone.root.name }] } };
   const network = mapCover(on.cover, family, { complement: off.cover });
   if (network.outputs.some((o) => o.form === 'wire' || o.form === 'constant')) return undefined;
   return { network, cover: on.cover };

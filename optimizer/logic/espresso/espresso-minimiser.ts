@@ -15,22 +15,28 @@ export const EXACT_FALLBACK_INPUTS = 10;
 export interface EspressoMinimiser extends Minimiser {
   readonly pool: EspressoPool;
   close(): void;
+  /** Forgets remembered covers (benchmarks time fresh calls). */
+  clearCache(): void;
+}
+
+/** Covers remembered per PLA text (bit slices repeat the same blocks); re-checked on every use. */
+const CACHE_ENTRIES = 512;
+
+function plaKey(lines: string[]): string {
+  let h = 0x811c9dc5;
+  for (const line of lines) {
+    for (let i = 0; i < line.length; i++) h = Math.imul(h ^ line.charCodeAt(i), 0x01000193);
+    h = Math.imul(h ^ 10, 0x01000193);
+  }
+  return `${lines.length}:${(h >>> 0).toString(16)}`;
 }
 
 export function createEspressoMinimiser(options: PoolOptions & { pool?: EspressoPool } = {}): EspressoMinimiser {
   const pool = options.pool ?? new EspressoPool(options);
+  const cache = new Map<string, Cover>();
 
-  async function one(out: OutputTable, n: number, opts: MinimiseOptions): Promise<{ cover: Cover; method: MinimiseMethod }> {
-    const constant = constantValue(out, n);
-    if (constant === 0) return { cover: [], method: 'constant' };
-    if (constant === 1) return { cover: [{ care: 0, value: 0 }], method: 'constant' };
-    if (n > MAX_ESPRESSO_INPUTS) {
-      throw new MinimiserError('rejected', `functions of more than ${MAX_ESPRESSO_INPUTS} inputs are not sent to the minimiser (got ${n})`);
-    }
-    const lines = buildPla(out, n);
-    const problem = plaProblem(lines);
-    if (problem) throw new InternalError(`built an unsafe PLA for ${out.name}: ${problem}`);
-    const cover = parseCubes(await pool.run(lines, opts.timeoutMs), n);
+  /** A cover is believed only if it equals the output on the care set; else exact or an error. */
+  function accept(out: OutputTable, n: number, cover: Cover): { cover: Cover; method: MinimiseMethod } {
     const wrong = coverMismatch(cover, out, n);
     if (!wrong) return { cover, method: 'espresso' };
     if (n <= Math.min(EXACT_FALLBACK_INPUTS, MAX_QM_INPUTS)) return { cover: minimiseOutputQm(out, n).cover, method: 'exact-fallback' };
@@ -44,9 +50,40 @@ export function createEspressoMinimiser(options: PoolOptions & { pool?: Espresso
     name: 'espresso',
     pool,
     close: () => pool.close(),
+    clearCache: () => cache.clear(),
     async minimiseCover(fn: TruthTable, opts: MinimiseOptions = {}): Promise<MinimiseResult> {
       const n = fn.inputs.length;
-      const results = await Promise.all(fn.outputs.map((o) => one(o, n, opts)));
+      const results: { cover: Cover; method: MinimiseMethod }[] = new Array(fn.outputs.length);
+      const pending: { k: number; lines: string[]; key: string }[] = [];
+      fn.outputs.forEach((out, k) => {
+        const constant = constantValue(out, n);
+        if (constant === 0) results[k] = { cover: [], method: 'constant' };
+        else if (constant === 1) results[k] = { cover: [{ care: 0, value: 0 }], method: 'constant' };
+        else {
+          if (n > MAX_ESPRESSO_INPUTS) {
+            throw new MinimiserError('rejected', `functions of more than ${MAX_ESPRESSO_INPUTS} inputs are not sent to the minimiser (got ${n})`);
+          }
+          const lines = buildPla(out, n);
+          const problem = plaProblem(lines);
+          if (problem) throw new InternalError(`built an unsafe PLA for ${out.name}: ${problem}`);
+          const key = plaKey(lines);
+          const hit = cache.get(key);
+          if (hit && !coverMismatch(hit, out, n)) results[k] = { cover: hit, method: 'espresso' };
+          else pending.push({ k, lines, key });
+        }
+      });
+      if (pending.length) {
+        // Every non-constant output in one round trip to one child.
+        const answers = await pool.runBatch(pending.map((p) => p.lines), opts.timeoutMs);
+        pending.forEach((p, i) => {
+          const r = accept(fn.outputs[p.k], n, parseCubes(answers[i], n));
+          results[p.k] = r;
+          if (r.method === 'espresso') {
+            if (cache.size >= CACHE_ENTRIES) cache.delete(cache.keys().next().value!);
+            cache.set(p.key, r.cover);
+          }
+        });
+      }
       return {
         cover: { inputs: [...fn.inputs], outputs: fn.outputs.map((o, k) => ({ name: o.name, cover: results[k].cover })) },
         methods: results.map((r) => r.method),

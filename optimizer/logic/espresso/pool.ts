@@ -22,9 +22,9 @@ export class MinimiserError extends Error {
 
 interface Job {
   id: number;
-  lines: string[];
+  batch: string[][];
   timeoutMs: number;
-  resolve: (cubes: string[]) => void;
+  resolve: (cubes: string[][]) => void;
   reject: (err: Error) => void;
 }
 
@@ -63,9 +63,14 @@ export class EspressoPool {
 
   /** Sends PLA lines (already validated by the caller) and resolves with the cube lines. */
   run(lines: string[], timeoutMs = this.defaultTimeout): Promise<string[]> {
+    return this.runBatch([lines], timeoutMs).then((r) => r[0]);
+  }
+
+  /** Several PLAs in one round trip to one child (the timeout covers the whole batch). */
+  runBatch(batch: string[][], timeoutMs = this.defaultTimeout): Promise<string[][]> {
     if (this.closed) return Promise.reject(new MinimiserError('closed', 'the minimiser pool is closed'));
     return new Promise((resolve, reject) => {
-      this.queue.push({ id: this.nextId++, lines, timeoutMs, resolve, reject });
+      this.queue.push({ id: this.nextId++, batch, timeoutMs, resolve, reject });
       this.dispatch();
     });
   }
@@ -100,11 +105,11 @@ export class EspressoPool {
     proc.stderr?.on('data', (chunk: Buffer) => {
       slot.stderr = (slot.stderr + chunk.toString('utf8')).slice(-2000);
     });
-    proc.on('message', (msg: { id: number; ok: boolean; cubes?: string[]; error?: string }) => {
+    proc.on('message', (msg: { id: number; ok: boolean; cubes?: string[][]; error?: string }) => {
       const job = slot.job;
       if (!job || msg.id !== job.id) return;
       this.finish(slot);
-      if (msg.ok && Array.isArray(msg.cubes)) job.resolve(msg.cubes);
+      if (msg.ok && Array.isArray(msg.cubes) && msg.cubes.length === job.batch.length) job.resolve(msg.cubes);
       else {
         // An error inside the native code may leave it in a bad state: replace the child.
         this.retire(slot);
@@ -138,7 +143,7 @@ export class EspressoPool {
       job.reject(new MinimiserError('timeout', `the minimiser took longer than ${job.timeoutMs} ms and was stopped`));
       this.dispatch();
     }, job.timeoutMs);
-    slot.proc.send({ id: job.id, lines: job.lines });
+    slot.proc.send({ id: job.id, batch: job.batch });
   }
 
   private finish(slot: Slot): void {

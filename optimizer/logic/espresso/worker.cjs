@@ -4,10 +4,11 @@
 'use strict';
 const espresso = require('kuzzle-espresso-logic-minimizer');
 
+// One message carries a batch of PLAs (one round trip for a function and its complement).
 process.on('message', (msg) => {
-  if (!msg || typeof msg.id !== 'number' || !Array.isArray(msg.lines)) return;
+  if (!msg || typeof msg.id !== 'number' || !Array.isArray(msg.batch)) return;
   try {
-    const cubes = espresso.minimize(msg.lines);
+    const cubes = msg.batch.map((lines) => espresso.minimize(lines));
     process.send({ id: msg.id, ok: true, cubes });
   } catch (err) {
     process.send({ id: msg.id, ok: false, error: String((err && err.message) || err) });
