@@ -18,6 +18,15 @@ import { healthRouter } from '@/server/features/health/router';
 import { outboxRouter } from '@/server/features/outbox/router';
 import { teamRouter } from '@/server/features/team/router';
 import { webRouter } from '@/server/web';
+import { assumptionsRouter } from '@/server/features/assumptions/router';
+import { boardsRouter } from '@/server/features/boards/router';
+import { designsRouter } from '@/server/features/designs/router';
+import { exportsRouter } from '@/server/features/exports/router';
+import { proposalsRouter } from '@/server/features/proposals/router';
+import { reviewRouter } from '@/server/features/review/router';
+import { revisionsRouter } from '@/server/features/revisions/router';
+import { scansRouter } from '@/server/features/scans/router';
+import { createScanQueue, type ScanQueue } from '@/server/jobs/queue';
 
 /** Largest JSON body the API reads; larger ones get 413. */
 export const JSON_BODY_LIMIT = '100kb';
@@ -28,9 +37,12 @@ export type CreateAppOptions = {
   mailer: Mailer;
   /** Where unexpected errors are reported (tests silence or capture it). */
   log?: (msg: string, err: unknown) => void;
+  /** Where scans are queued; by default pg-boss in the same database, started on first use and
+   * kept on app.locals.scanQueue so whoever owns the app can close it. */
+  queue?: ScanQueue;
 };
 
-export function createApp({ env, db, mailer, log }: CreateAppOptions): Express {
+export function createApp({ env, db, mailer, log, queue }: CreateAppOptions): Express {
   const production = env.NODE_ENV === 'production';
   const app = express();
   app.disable('x-powered-by');
@@ -38,6 +50,8 @@ export function createApp({ env, db, mailer, log }: CreateAppOptions): Express {
 
   const limits = createRateLimits({ signInLimit: env.RATE_LIMIT_SIGN_IN, mailLimit: env.RATE_LIMIT_MAIL });
   const deps: AppDeps = { env, db, mailer, limits };
+  const scanQueue = queue ?? createScanQueue(env.DATABASE_URL, log);
+  app.locals.scanQueue = scanQueue;
   const passport = createPassport(db, env.BCRYPT_COST);
 
   app.use(securityHeaders(production));
@@ -58,6 +72,15 @@ export function createApp({ env, db, mailer, log }: CreateAppOptions): Express {
   api.use('/team', teamRouter(deps));
   api.use('/account', accountRouter(deps));
   api.use('/audit', auditRouter(deps));
+  // Review workflow: each router names its full paths under /api.
+  api.use(designsRouter(deps));
+  api.use(revisionsRouter(deps));
+  api.use(exportsRouter(deps));
+  api.use(boardsRouter(deps));
+  api.use(assumptionsRouter(deps));
+  api.use(scansRouter({ ...deps, queue: scanQueue }));
+  api.use(proposalsRouter(deps));
+  api.use(reviewRouter(deps));
   api.use(apiNotFound);
 
   app.use('/api', api);

@@ -6,6 +6,7 @@ import { createApp } from '@/server/app';
 import { createDb, type Db } from '@/server/db';
 import { loadEnv, type Env } from '@/server/env';
 import { createSmtpMailer, type Mailer } from '@/server/mail/mailer';
+import type { ScanQueue } from '@/server/jobs/queue';
 
 export type RunningServer = {
   url: string;
@@ -56,6 +57,7 @@ export async function startServer(opts: StartServerOptions = {}): Promise<Runnin
           server.closeIdleConnections();
         });
         mailer.close();
+        await (app.locals.scanQueue as ScanQueue | undefined)?.close();
         await db.close();
       })()),
   };

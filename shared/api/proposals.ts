@@ -88,6 +88,7 @@ export const EditSchema = z.object({
   addDevices: z.array(z.record(z.string(), z.unknown())),
   reconnect: z.array(z.object({ device: z.string(), terminal: z.number(), net: z.string() })),
   mergeNets: z.array(z.object({ keep: z.string(), remove: z.string() })),
+  addModels: z.array(z.object({ name: z.string(), type: z.string(), params: z.record(z.string(), z.unknown()) })).optional(),
 });
 
 export const ProposalDetailSchema = ProposalSummarySchema.extend({

@@ -12,6 +12,7 @@ import { LOCAL_DATABASE_URLS, loadEnv, type Env } from '@/server/env';
 import { startFakeSmtp, type FakeSmtp } from '@/server/mail/fake-smtp';
 import { createSmtpMailer, type Mailer } from '@/server/mail/mailer';
 import type { Role } from '@/shared/domain/roles';
+import type { ScanQueue } from '@/server/jobs/queue';
 
 export const TEST_DATABASE_URL = process.env.DATABASE_URL?.endsWith('_test') ? process.env.DATABASE_URL : LOCAL_DATABASE_URLS.test;
 
@@ -57,6 +58,7 @@ export async function startHarness(env: Record<string, string> = {}): Promise<Ha
     demoTeamId: teamId,
     otherTeamId: other.id,
     close: async () => {
+      await (app.locals.scanQueue as ScanQueue | undefined)?.close();
       mailer.close();
       await smtp.close();
       await db.close();
