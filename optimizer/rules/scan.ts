@@ -11,6 +11,7 @@ import type { MarginResult } from '../margins/corners';
 import type { FlatNetlist } from '../netlist/ir';
 import { applyProposals } from '../rewrite/apply';
 import { checkEquivalence, type EquivResult } from '../verify/equivalence';
+import { indexOf, regionOf } from './region';
 import { simulationCheck } from './sim-check';
 import { runRules, type OverlapGraph, type RuleErrorRecord, type RunOptions } from './run-rules';
 import type { Assumption, Finding, Proposal } from './types';
@@ -85,7 +86,7 @@ function ownersOf(view: LogicView): Map<number, string[]> {
  */
 function changedNets(nl: FlatNetlist, view: LogicView, p: Proposal): string[] {
   const names = new Set<string>();
-  const index = new Map(nl.devices.map((d, i) => [d.name, i]));
+  const index = indexOf(nl).byName;
   const hit = new Set<number>();
   for (const name of [...p.edit.removeDevices, ...p.edit.reconnect.map((r) => r.device)]) {
     const i = index.get(name);
@@ -114,14 +115,20 @@ export function verifyProposal(
   verifier: Verifier = defaultVerifier,
   simulateUpTo = 20_000,
 ): Verification {
-  const after = applyProposals(before.nl, [p]);
+  const changed = changedNets(before.nl, before.view, p);
+  // Work on the changed nets' fan-in cut out of the design, so a proof costs the region's size.
+  const seeds = changed.filter((n) => before.view.nodeByNet.has(before.nl.netByName.get(n) ?? -1));
+  const nl = regionOf(before.nl, before.view, seeds, p.edit);
+  const view = nl === before.nl ? before.view : extractLogic(nl);
+  before = { nl, view };
+  const after = applyProposals(nl, [p]);
   const afterView = extractLogic(after);
   const driven = (view: LogicView, nl: FlatNetlist, name: string) => {
     const id = nl.netByName.get(name);
     return id !== undefined && view.nodeByNet.has(id);
   };
   const readAfter = new Set(afterView.nodes.flatMap((n) => n.inputs));
-  const compared = changedNets(before.nl, before.view, p).filter(
+  const compared = changed.filter(
     (n) => driven(before.view, before.nl, n) && (driven(afterView, after, n) || readAfter.has(after.nets[after.netByName.get(n) ?? 0]?.name)),
   );
   const used = assumptions.filter((a) => p.assumptions.includes(a.id));

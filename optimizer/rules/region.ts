@@ -1,0 +1,100 @@
+// The region a proposal changes, cut out of the design as a small FlatNetlist of its own: the
+// logic of the changed nets' transitive fan-in, the devices the edit names, and the rails. Proofs
+// and simulations then cost the size of the region, not of the whole board.
+import type { LogicView } from '../extract/types';
+import type { FlatDevice, FlatNet, FlatNetlist } from '../netlist/ir';
+import type { Edit } from './types';
+
+const indexCache = new WeakMap<FlatNetlist, { byName: Map<string, number>; sources: number[] }>();
+
+/** Device index by name and the sources, built once per design. */
+export function indexOf(nl: FlatNetlist) {
+  let idx = indexCache.get(nl);
+  if (!idx) {
+    idx = { byName: new Map(nl.devices.map((d, i) => [d.name, i])), sources: [] };
+    nl.devices.forEach((d, i) => {
+      if (d.kind === 'vsource') idx!.sources.push(i);
+    });
+    indexCache.set(nl, idx);
+  }
+  return idx;
+}
+
+/** Regions larger than this many logic nodes are not cut out (the whole design is used). */
+export const MAX_REGION_NODES = 5000;
+
+export function editNetNames(nl: FlatNetlist, edit: Edit): string[] {
+  const names = new Set<string>();
+  for (const r of edit.reconnect) names.add(r.net);
+  for (const d of edit.addDevices) for (const t of d.terminals) if (nl.netByName.has(t)) names.add(t);
+  for (const m of edit.mergeNets) names.add(m.keep).add(m.remove);
+  return [...names];
+}
+
+/**
+ * @param seeds net names whose values the proof compares
+ * @returns the region, or the design itself when the fan-in is too large to be worth cutting
+ */
+export function regionOf(nl: FlatNetlist, view: LogicView, seeds: string[], edit: Edit): FlatNetlist {
+  const nodeByName = new Map(view.nodes.map((n, i) => [n.name, i]));
+  const take = new Set<number>();
+  const stack = seeds.map((s) => nodeByName.get(nl.nets[nl.netByName.get(s) ?? -1]?.name ?? s)).filter((i): i is number => i !== undefined);
+  while (stack.length) {
+    const i = stack.pop()!;
+    if (take.has(i)) continue;
+    take.add(i);
+    if (take.size > MAX_REGION_NODES) return nl;
+    for (const x of view.nodes[i].inputs) {
+      const j = nodeByName.get(x);
+      if (j !== undefined && !take.has(j)) stack.push(j);
+    }
+  }
+  const deviceIds = new Set<number>();
+  for (const i of take) for (const d of view.nodes[i].devices) deviceIds.add(d);
+  const idx = indexOf(nl);
+  for (const name of [...edit.removeDevices, ...edit.reconnect.map((r) => r.device)]) {
+    const i = idx.byName.get(name);
+    if (i !== undefined) deviceIds.add(i);
+  }
+  for (const i of idx.sources) deviceIds.add(i);
+  if (deviceIds.size >= nl.devices.length) return nl;
+
+  // Renumber only the nets the region touches (plus ground, rails and the edit's nets).
+  const netMap = new Map<number, number>();
+  const nets: FlatNet[] = [];
+  const keepNet = (id: number) => {
+    let k = netMap.get(id);
+    if (k === undefined) {
+      k = nets.length;
+      netMap.set(id, k);
+      nets.push({ ...nl.nets[id], id: k });
+    }
+    return k;
+  };
+  keepNet(0);
+  for (const r of nl.rails) keepNet(r.net);
+  for (const name of [...seeds, ...editNetNames(nl, edit)]) {
+    const id = nl.netByName.get(name);
+    if (id !== undefined) keepNet(id);
+  }
+  const devices: FlatDevice[] = [...deviceIds].sort((a, b) => a - b).map((i) => {
+    const d = nl.devices[i];
+    return { ...d, terminals: d.terminals.map(keepNet) };
+  });
+  const netByName = new Map<string, number>();
+  for (const [id, k] of netMap) netByName.set(nl.nets[id].name, k);
+  // Other names of kept nets that the proof and the edit use (aliases left by merges).
+  for (const name of [...seeds, ...editNetNames(nl, edit)]) {
+    const id = nl.netByName.get(name);
+    if (id !== undefined) netByName.set(name, netMap.get(id)!);
+  }
+  return {
+    title: `${nl.title} (region)`,
+    devices,
+    nets,
+    netByName,
+    rails: nl.rails.map((r) => ({ ...r, net: netMap.get(r.net)! })),
+    ports: nl.ports.filter((p) => netMap.has(p)).map((p) => netMap.get(p)!),
+    models: nl.models,
+  };
+}
