@@ -103,7 +103,7 @@ export function readDesign(input: string | Uint8Array, opts: ReadOptions): ReadR
     case 'spice':
       return readSpice(text, opts.file);
     case 'verilog':
-      return readVerilog(text, opts.file);
+      return readVerilog(text, opts.file, 2 * limits.maxDevices);
     case 'json':
       return readJson(text, opts.file);
     case 'pla': {

@@ -15,6 +15,7 @@ export interface Problem {
 }
 
 class Skip extends Error {}
+class Exhausted extends Error {}
 
 function rangeBits(name: string, r: Range | undefined): string[] {
   if (!r) return [name];
@@ -31,7 +32,32 @@ function inRange(r: Range, i: number): boolean {
   return i >= Math.min(r.msb, r.lsb) && i <= Math.max(r.msb, r.lsb);
 }
 
-export function elaborate(mods: ModuleDecl[], loc: (t: VTok) => SourceLoc, problems: Problem[]): Record<string, Cell> {
+/**
+ * Bit-blasting multiplies: a short file of wide vectors can describe billions of bits. Every net
+ * bit, connection bit and gate made is counted against `budget`, and elaboration stops with a
+ * clear message when it runs out instead of exhausting memory.
+ */
+export function elaborate(mods: ModuleDecl[], loc: (t: VTok) => SourceLoc, problems: Problem[], budget: number): Record<string, Cell> {
+  let spent = 0;
+  const spend = (n: number, tok: VTok) => {
+    spent += n;
+    if (spent > budget) {
+      problems.push({ severity: 'error', message: `the design expands to more than ${budget.toLocaleString('en-US')} gates and net bits; the limit is ${budget.toLocaleString('en-US')}`, tok });
+      throw new Exhausted();
+    }
+  };
+  const bitsOfRange = (name: string, r: Range | undefined, tok: VTok) => {
+    spend(r ? Math.abs(r.msb - r.lsb) + 1 : 1, tok);
+    return rangeBits(name, r);
+  };
+  try {
+    return elaborateAll();
+  } catch (e) {
+    if (e instanceof Exhausted) return {};
+    throw e;
+  }
+
+  function elaborateAll(): Record<string, Cell> {
   const byName = new Map(mods.map((m) => [m.name, m]));
   const cells: Record<string, Cell> = {};
   const portGroups = new Map<string, { name: string; bits: string[] }[]>();
@@ -39,7 +65,7 @@ export function elaborate(mods: ModuleDecl[], loc: (t: VTok) => SourceLoc, probl
     const groups = m.headerPorts.map((hp) => {
       const decl = m.portDecls.get(hp.name);
       if (!decl) problems.push({ severity: 'error', message: `port ${hp.name} of module ${m.name} has no input/output/inout declaration`, tok: hp.tok });
-      return { name: hp.name, bits: rangeBits(hp.name, decl?.range) };
+      return { name: hp.name, bits: bitsOfRange(hp.name, decl?.range, hp.tok) };
     });
     for (const [name, d] of m.portDecls) {
       if (!m.headerPorts.some((h) => h.name === name)) problems.push({ severity: 'error', message: `${name} is declared ${d.dir} but is not in the port list of ${m.name}`, tok: d.tok });
@@ -68,7 +94,7 @@ export function elaborate(mods: ModuleDecl[], loc: (t: VTok) => SourceLoc, probl
     }
     cell.directions = directions;
     const netKinds: NonNullable<Cell['netKinds']> = {};
-    for (const [name, n] of m.nets) if (n.kind !== 'wire') for (const b of rangeBits(name, n.range)) netKinds[b] = n.kind;
+    for (const [name, n] of m.nets) if (n.kind !== 'wire') for (const b of bitsOfRange(name, n.range, n.tok)) netKinds[b] = n.kind;
     const rangeOf = (name: string) => m.nets.get(name)?.range ?? m.portDecls.get(name)?.range;
     let counter = 0;
     const fail = (message: string, tok: VTok): never => {
@@ -80,13 +106,13 @@ export function elaborate(mods: ModuleDecl[], loc: (t: VTok) => SourceLoc, probl
       netKinds[n] = bit === '1' ? 'supply1' : 'supply0';
       return n;
     };
-    const gate = (name: string, op: GateOp, terminals: string[], tok: VTok) => devices.push({ name, kind: 'gate', op, terminals, params: {}, loc: loc(tok) });
+    const gate = (name: string, op: GateOp, terminals: string[], tok: VTok) => spend(1, tok) ?? devices.push({ name, kind: 'gate', op, terminals, params: {}, loc: loc(tok) });
 
     /** Bits of a net expression (no operators), most significant first. */
     const bitsOf = (e: Expr, width?: number): string[] => {
       switch (e.k) {
         case 'id':
-          return rangeBits(e.name, rangeOf(e.name));
+          return bitsOfRange(e.name, rangeOf(e.name), e.tok);
         case 'bit': {
           const r = rangeOf(e.name);
           if (!r || !inRange(r, e.index)) fail(`${e.name}[${e.index}] is outside the declared range of ${e.name}`, e.tok);
@@ -95,7 +121,7 @@ export function elaborate(mods: ModuleDecl[], loc: (t: VTok) => SourceLoc, probl
         case 'slice': {
           const r = rangeOf(e.name);
           if (!r || !inRange(r, e.msb) || !inRange(r, e.lsb)) fail(`${e.name}[${e.msb}:${e.lsb}] is outside the declared range of ${e.name}`, e.tok);
-          return rangeBits(e.name, { msb: e.msb, lsb: e.lsb });
+          return bitsOfRange(e.name, { msb: e.msb, lsb: e.lsb }, e.tok);
         }
         case 'const': {
           let bits = e.bits;
@@ -118,8 +144,10 @@ export function elaborate(mods: ModuleDecl[], loc: (t: VTok) => SourceLoc, probl
     /** Width an expression has on its own (undefined for unsized constants), without building gates. */
     const widthHint = (e: Expr): number | undefined => {
       switch (e.k) {
-        case 'id':
-          return rangeBits(e.name, rangeOf(e.name)).length;
+        case 'id': {
+          const r = rangeOf(e.name);
+          return r ? Math.abs(r.msb - r.lsb) + 1 : 1;
+        }
         case 'bit':
           return 1;
         case 'slice':
@@ -269,5 +297,6 @@ export function elaborate(mods: ModuleDecl[], loc: (t: VTok) => SourceLoc, probl
     const at = (d: Device) => d.loc?.line ?? 0;
     devices.sort((a, b) => at(a) - at(b));
     return cell;
+  }
   }
 }

@@ -2,6 +2,7 @@
 // module is the one no other module instantiates.
 import { InputError, type Diagnostic } from '../../errors';
 import type { Design } from '../../netlist/ir';
+import { DEFAULT_LIMITS } from '../../netlist/limits';
 import { validateDesign } from '../../netlist/validate';
 import { elaborate, type Problem } from './elaborate';
 import { lexVerilog, type LexProblem, type VTok } from './lexer';
@@ -9,14 +10,15 @@ import { parseVerilog, type ParseProblem } from './parse';
 
 const MAX_DIAGNOSTICS = 200;
 
-export function readVerilog(text: string, file: string): { design: Design; diagnostics: Diagnostic[] } {
+/** `maxUnits` bounds the gates and net bits that bit-blasting may create (2 × the device limit by default). */
+export function readVerilog(text: string, file: string, maxUnits = 2 * DEFAULT_LIMITS.maxDevices): { design: Design; diagnostics: Diagnostic[] } {
   const loc = (t: { line: number; col: number }) => ({ file, line: t.line, col: t.col });
   const lexProblems: LexProblem[] = [];
   const toks = lexVerilog(text, lexProblems);
   const parseProblems: ParseProblem[] = [];
   const mods = parseVerilog(toks, parseProblems);
   const problems: Problem[] = [];
-  const cells = elaborate(mods, loc, problems);
+  const cells = elaborate(mods, loc, problems, maxUnits);
   const diags: Diagnostic[] = [
     ...lexProblems.map((p) => ({ severity: 'error' as const, code: 'verilog.syntax', message: p.message, loc: loc(p) })),
     ...[...parseProblems, ...problems].map((p) => ({ severity: p.severity, code: 'verilog.syntax', message: p.message, loc: loc(p.tok) })),

@@ -122,6 +122,16 @@ describe('located errors', () => {
     expect(errorsOf(nots)[0]).toMatch(/expression nested more than 200 deep/);
   });
 
+  it('stops bit-blasting that would exceed the budget with a clear message', () => {
+    const wide = 'module m (a, y);\n input [4095:0] a; output [4095:0] y;\n' + ' assign y = a & a & a & a & a;\n'.repeat(10) + 'endmodule\n';
+    try {
+      readVerilog(wide, 'w.v', 100_000);
+      expect.unreachable();
+    } catch (e) {
+      expect((e as InputError).diagnostics.map(formatDiagnostic)).toContain('w.v:5:17: the design expands to more than 100,000 gates and net bits; the limit is 100,000');
+    }
+  });
+
   it('reports recursive instantiation', () => {
     expect(errorsOf('module a (x); inout x; b u (x); endmodule\nmodule b (y); inout y; a v (y); endmodule\n').join('\n')).toMatch(/recursive instantiation of module/);
   });
