@@ -4,6 +4,7 @@
 import type { Db } from '@/server/db';
 import { hashPassword } from '@/server/auth/passwords';
 import type { Role } from '@/shared/domain/roles';
+import { seedWorkflow } from '@/server/db/seed-workflow';
 
 export const DEMO_TEAM_NAME = 'Larkspur Relay Works';
 export const DEMO_PASSWORD = 'trimwire-demo';
@@ -49,5 +50,7 @@ export async function seedDemo(db: Db, opts: { nodeEnv: string; bcryptCost: numb
     }
     return team.id;
   });
+  // The designs, scans and decisions only in development: tests build their own.
+  if (opts.nodeEnv === 'development') created.push(...(await seedWorkflow(db, teamId)));
   return { teamId, created };
 }
