@@ -103,6 +103,8 @@ export function applyProposals(nl: FlatNetlist, proposals: Proposal[]): FlatNetl
     seenRail.add(id);
     railOut.push({ ...r, net: id });
   }
+  const models = { ...nl.models };
+  for (const p of proposals) for (const m of p.edit.addModels ?? []) if (!models[m.name.toLowerCase()]) models[m.name.toLowerCase()] = { ...m, params: { ...m.params } };
   return {
     title: nl.title,
     devices,
@@ -110,7 +112,7 @@ export function applyProposals(nl: FlatNetlist, proposals: Proposal[]): FlatNetl
     netByName,
     rails: railOut,
     ports: [...new Set(nl.ports.map(mapOld))],
-    models: { ...nl.models },
+    models,
   };
 }
 

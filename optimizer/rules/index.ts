@@ -1,6 +1,7 @@
 // The rule catalogue: an explicit map from rule id to rule module (no discovery by file name),
 // so what a scan runs is visible in one place.
 import type { Rule } from './types';
+import { commonOverride } from './common-override';
 import { constantInput } from './constant-input';
 import { doubleInversion } from './double-inversion';
 import { mergeDuplicateLogic } from './merge-duplicate-logic';
@@ -10,6 +11,7 @@ import { tristateSlim } from './tristate-slim';
 import { twoLevelMinimise } from './two-level-minimise';
 
 export const RULES: Record<string, Rule> = {
+  [commonOverride.id]: commonOverride as unknown as Rule,
   [constantInput.id]: constantInput as unknown as Rule,
   [doubleInversion.id]: doubleInversion as unknown as Rule,
   [mergeDuplicateLogic.id]: mergeDuplicateLogic as unknown as Rule,

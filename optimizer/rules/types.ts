@@ -7,7 +7,7 @@ import type { Minimiser } from '../logic/minimiser';
 import type { MapFamily } from '../logic/family-parts';
 import type { MarginResult } from '../margins/corners';
 import type { MarginSettings } from '../margins/defaults';
-import type { DeviceKind, FlatNetlist, GateOp, ParamValue } from '../netlist/ir';
+import type { DeviceKind, FlatNetlist, GateOp, Model, ParamValue } from '../netlist/ir';
 
 /** A stated operating assumption: an expression over net names with a stable id. */
 export interface Assumption {
@@ -40,6 +40,8 @@ export interface Edit {
   reconnect: { device: string; terminal: number; net: string }[];
   /** Join net `remove` into net `keep` (every terminal on `remove` moves to `keep`). */
   mergeNets: { keep: string; remove: string }[];
+  /** Model cards the added devices need that the design lacks (a name already present is kept as is). */
+  addModels?: Model[];
 }
 
 export const emptyEdit = (): Edit => ({ removeDevices: [], addDevices: [], reconnect: [], mergeNets: [] });

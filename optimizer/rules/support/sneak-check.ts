@@ -64,7 +64,7 @@ function vectorsFor(inputs: string[], limit: number): Record<string, 0 | 1>[] {
 }
 
 export interface SneakReport {
-  /** Input vectors on which some output differs, contends or floats after the edit. */
+  /** Input vectors on which some output differs after the edit (or newly contends or floats). */
   bad: { vector: Record<string, 0 | 1>; nets: string[] }[];
   vectors: number;
 }
@@ -76,10 +76,12 @@ export function sneakCheck(
   inputs: string[],
   outputs: string[],
   exhaustiveLimit = 10,
+  allowed?: (vector: Record<string, 0 | 1>) => boolean,
 ): SneakReport {
   const before = subNetlist(nl, devices);
   const after = applyProposals(before, [{ id: 'region', title: 'region', edit, assumptions: [], margins: [] }]);
-  const vectors = vectorsFor(inputs, exhaustiveLimit);
+  const vectors = vectorsFor(inputs, exhaustiveLimit).filter((v) => !allowed || allowed(v));
+  if (vectors.length === 0) return { bad: [], vectors: 0 };
   const watch = outputs.filter((o) => after.netByName.has(o));
   const a = simulate(before, { kind: 'vectors', vectors }, { watch });
   const b = simulate(after, { kind: 'vectors', vectors }, { watch });
@@ -88,7 +90,8 @@ export function sneakCheck(
     const nets = watch.filter((o) => {
       const x = a.waveforms[o][s];
       const y = b.waveforms[o][s];
-      return x !== y || y === 'X' || y === 'Z';
+      // X or Z the region already had is not the edit's doing; a new one, or a changed value, is.
+      return x !== y;
     });
     if (nets.length) bad.push({ vector, nets });
   });
@@ -107,4 +110,28 @@ export function sneakMargin(r: SneakReport): MarginResult {
     corner: { supply: 0, resistors: 'nominal' },
     note: `switch-level simulation of the region before and after on ${r.vectors} input vectors (Bryant 1984)${shown}`,
   };
+}
+
+/**
+ * Input vectors on which some output contends (X) after the edit — the rewritten region alone,
+ * before any assumption is applied, so the caller can see which assumptions rule them out.
+ */
+export function contentionVectors(
+  nl: Readonly<FlatNetlist>,
+  devices: Iterable<number>,
+  edit: Edit,
+  inputs: string[],
+  outputs: string[],
+  exhaustiveLimit = 10,
+): { vector: Record<string, 0 | 1>; nets: string[] }[] {
+  const after = applyProposals(subNetlist(nl, devices), [{ id: 'region', title: 'region', edit, assumptions: [], margins: [] }]);
+  const vectors = vectorsFor(inputs, exhaustiveLimit);
+  const watch = outputs.filter((o) => after.netByName.has(o));
+  const r = simulate(after, { kind: 'vectors', vectors }, { watch });
+  const out: { vector: Record<string, 0 | 1>; nets: string[] }[] = [];
+  vectors.forEach((vector, k) => {
+    const nets = watch.filter((o) => r.waveforms[o][k] === 'X');
+    if (nets.length) out.push({ vector, nets });
+  });
+  return out;
 }
