@@ -15,6 +15,8 @@ import { accountRouter } from '@/server/features/account/router';
 import { auditRouter } from '@/server/features/audit/router';
 import { authRouter } from '@/server/features/auth/router';
 import { healthRouter } from '@/server/features/health/router';
+import { lessonsRouter } from '@/server/features/lessons/router';
+import { shareRouter } from '@/server/features/share/router';
 import { outboxRouter } from '@/server/features/outbox/router';
 import { teamRouter } from '@/server/features/team/router';
 import { webRouter } from '@/server/web';
@@ -72,6 +74,8 @@ export function createApp({ env, db, mailer, log, queue }: CreateAppOptions): Ex
   api.use('/team', teamRouter(deps));
   api.use('/account', accountRouter(deps));
   api.use('/audit', auditRouter(deps));
+  api.use('/share', shareRouter(deps));
+  api.use(lessonsRouter(deps));
   // Review workflow: each router names its full paths under /api.
   api.use(designsRouter(deps));
   api.use(revisionsRouter(deps));

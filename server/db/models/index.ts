@@ -6,6 +6,8 @@ import { Board } from '@/server/db/models/board';
 import { Comment } from '@/server/db/models/comment';
 import { Decision } from '@/server/db/models/decision';
 import { Design } from '@/server/db/models/design';
+import { Lesson } from '@/server/db/models/lesson';
+import { LessonShareLink } from '@/server/db/models/lesson-share-link';
 import { Membership } from '@/server/db/models/membership';
 import { NotificationPrefs } from '@/server/db/models/notification-prefs';
 import { OutboxMessage } from '@/server/db/models/outbox-message';
@@ -18,11 +20,14 @@ import { User } from '@/server/db/models/user';
 
 export { AuditEntry, Membership, NotificationPrefs, OutboxMessage, Team, Token, User };
 export { Assumption, Board, Comment, Decision, Design, Proposal, Revision, Scan };
+export { Lesson, LessonShareLink };
 
 export const models = {
   AuditEntry, Membership, NotificationPrefs, OutboxMessage, Team, Token, User,
   // Review workflow.
   Assumption, Board, Comment, Decision, Design, Proposal, Revision, Scan,
+  // Lessons.
+  Lesson, LessonShareLink,
 };
 export type Models = typeof models;
 
