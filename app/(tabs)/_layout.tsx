@@ -14,6 +14,7 @@ export default function TabsLayout() {
           {TABS.map((tab) => (
             <Tabs.Screen key={tab.id} name={tab.id} options={{ title: `${tab.title} · Trimwire` }} />
           ))}
+          <Tabs.Screen name="designs" options={{ title: 'Design · Trimwire' }} />
         </Tabs>
       )}
     </SessionGate>

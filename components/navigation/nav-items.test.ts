@@ -50,6 +50,19 @@ describe('navItems', () => {
     expect(prevented.navigated).toEqual([]);
   });
 
+  it('keeps the parent tab lit on a route inside it, and navigates back to the tab on press', () => {
+    const nav = fakeNavigator('bench');
+    const props = { ...nav.props, state: { routes: [...nav.props.state.routes, { key: 'designs-key', name: 'designs', params: undefined }], index: 5 } } as unknown as Parameters<typeof navItems>[0];
+    const items = navItems(props, 'designer');
+    expect(items.map((i) => [i.id, i.focused])).toEqual([
+      ['bench', true],
+      ['lessons', false],
+      ['account', false],
+    ]);
+    items[0].onPress();
+    expect(nav.navigated).toEqual(['bench']);
+  });
+
   it('skips a tab the navigator does not have', () => {
     const nav = fakeNavigator('bench');
     const props = { ...nav.props, state: { ...nav.props.state, routes: nav.props.state.routes.filter((r) => r.name !== 'sign-off') } };

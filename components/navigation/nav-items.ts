@@ -1,12 +1,13 @@
 // Joins the role's tab list with the navigator's state so both tab bar forms render the same items.
 import type { BottomTabBarProps } from 'expo-router/tabs';
 import type { Role } from '@/components/data/types';
-import { tabsForRole, type TabSpec } from './role-tabs';
+import { PARENT_TAB, tabsForRole, type TabSpec } from './role-tabs';
 
 export type NavItem = TabSpec & { focused: boolean; onPress: () => void };
 
 export function navItems({ state, navigation }: Pick<BottomTabBarProps, 'state' | 'navigation'>, role: Role): NavItem[] {
-  const focusedName = state.routes[state.index]?.name;
+  const routeName = state.routes[state.index]?.name;
+  const focusedName = (routeName && PARENT_TAB[routeName]) || routeName;
   return tabsForRole(role).flatMap((tab) => {
     const route = state.routes.find((r) => r.name === tab.id);
     if (!route) return [];
@@ -17,7 +18,8 @@ export function navItems({ state, navigation }: Pick<BottomTabBarProps, 'state' 
         focused,
         onPress: () => {
           const event = navigation.emit({ type: 'tabPress', target: route.key, canPreventDefault: true });
-          if (!focused && !event.defaultPrevented) navigation.navigate(route.name, route.params);
+          // A route inside the tab (focused, but not the tab itself) goes back to the tab.
+          if (routeName !== route.name && !event.defaultPrevented) navigation.navigate(route.name, route.params);
         },
       },
     ];

@@ -14,6 +14,9 @@ export const TABS: readonly TabSpec[] = [
   { id: 'account', title: 'Account', description: 'Profile and teams', roles: ['admin', 'designer', 'reviewer', 'educator', 'viewer'] },
 ];
 
+// Routes of the shell that are not tabs themselves, and the tab they belong to (kept lit while open).
+export const PARENT_TAB: Readonly<Record<string, TabId>> = { designs: 'bench' };
+
 export function tabsForRole(role: Role): TabSpec[] {
   return TABS.filter((tab) => tab.roles.includes(role));
 }

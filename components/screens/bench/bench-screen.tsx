@@ -1,21 +1,47 @@
-// The design bench: the team's designs, their scans and the rewrites found in them.
-import { ComingFeatureScreen } from '@/components/screens/common/coming-feature-screen';
+// The design bench: the team's designs; on wide windows the chosen design's overview sits beside
+// the list, on phones it replaces the list. The chosen design lives in the URL (?design=).
+import { useLocalSearchParams, useRouter } from 'expo-router';
+import { useDesigns } from '@/components/data/use-designs';
+import { useMe } from '@/components/data/use-me';
+import { TwoPane } from '@/components/navigation/two-pane';
+import { Button, EmptyState, ErrorState, Loading, Screen } from '@/components/ui';
+import { DesignList } from '@/components/screens/designs/design-list';
+import { DesignOverview } from '@/components/screens/designs/design-overview';
 
 export function BenchScreen() {
-  return (
-    <ComingFeatureScreen
-      testID="bench-screen"
-      title="Bench"
-      icon="bench"
-      emptyTitle="Your team's designs will appear here"
-      emptyBody="Each design will show its part totals, how it sits against each board's budget, its revisions and operating assumptions, and the rewrites a scan found in it."
-      steps={[
-        'Upload a netlist: a SPICE-style deck, structural Verilog or Trimwire JSON.',
-        'State the operating assumptions the rest of the machine guarantees, and set board budgets.',
-        'Run a scan and read each proposed rewrite: its proof, margins and the parts it saves.',
-        'Apply the accepted rewrites as a new revision and export a deck to simulate and build from.',
-      ]}
-      caution="Margins are first-order estimates. Before a rewrite goes on a board, simulate the exported deck, check it on the bench and use the parts' data sheets for limits. Work on anything connected to mains, or anything safety-related, follows local codes and licensed practice."
-    />
+  const router = useRouter();
+  const { me } = useMe();
+  const params = useLocalSearchParams<{ design?: string }>();
+  const { designs, error, isLoading, retry } = useDesigns();
+  const canUpload = me?.role === 'designer' || me?.role === 'admin';
+  const uploadButton = canUpload ? <Button label="Upload a design" icon="upload" compact onPress={() => router.push('/designs/new')} testID="bench-upload" /> : undefined;
+  const frame = (body: React.ReactNode) => (
+    <Screen testID="bench-screen" title="Bench" subtitle={me?.team.name} width="full" headerAccessory={uploadButton}>
+      {body}
+    </Screen>
+  );
+
+  if (error) return frame(<ErrorState error={error} onRetry={retry} testID="bench-error" />);
+  if (isLoading || !designs) return frame(<Loading label="Loading the team's designs…" testID="bench-loading" />);
+  if (designs.length === 0) {
+    return frame(
+      <EmptyState
+        icon="bench"
+        title="No designs yet"
+        body={canUpload ? 'Upload a netlist — a SPICE-style deck, structural Verilog or Trimwire JSON — to count its parts and scan it for rewrites.' : 'When a designer uploads a netlist it appears here with its part totals, scans and proposals.'}
+        testID="bench-empty"
+      />,
+    );
+  }
+  const selected = designs.some((d) => d.id === params.design) ? params.design! : null;
+  return frame(
+    <TwoPane
+      testID="bench"
+      list={<DesignList designs={designs} selected={selected} onSelect={(id) => router.setParams({ design: id })} />}
+      detail={selected ? <DesignOverview id={selected} /> : null}
+      placeholder={<EmptyState icon="bench" title="Choose a design" body="Its part totals, scan, budgets, assumptions and revisions show here." testID="bench-placeholder" />}
+      onBack={() => router.setParams({ design: '' })}
+      backLabel="All designs"
+    />,
   );
 }

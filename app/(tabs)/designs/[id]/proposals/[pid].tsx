@@ -1,0 +1,4 @@
+// /designs/:id/proposals/:pid — one proposal.
+import { ProposalScreen } from '@/components/screens/proposals/proposal-screen';
+
+export default ProposalScreen;
