@@ -115,6 +115,7 @@ export async function runScan(deps: RunScanDeps, scanId: string): Promise<RunOut
     const overlaps = overlapGraph(findings.map((f) => ({ ...f.finding, proposals: f.proposals.map((p) => p.proposal) })));
     const stored = await stage('store', 95, () => storeResults(db, { scan, workerId, flat, findings, overlaps, ruleErrors, timings }));
     if (stored === null) throw new Lost();
+    await db.sequelize.query('UPDATE scans SET timings = :timings WHERE id = :id', { replacements: { id: scan.id, timings: JSON.stringify(timings) } });
     await recordAudit(db, {
       teamId: design.teamId,
       actor: null,
