@@ -15,6 +15,7 @@ export default function TabsLayout() {
             <Tabs.Screen key={tab.id} name={tab.id} options={{ title: `${tab.title} · Trimwire` }} />
           ))}
           <Tabs.Screen name="designs" options={{ title: 'Design · Trimwire' }} />
+          <Tabs.Screen name="proposals/[id]" options={{ title: 'Proposal · Trimwire' }} />
         </Tabs>
       )}
     </SessionGate>

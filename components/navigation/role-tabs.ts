@@ -15,7 +15,7 @@ export const TABS: readonly TabSpec[] = [
 ];
 
 // Routes of the shell that are not tabs themselves, and the tab they belong to (kept lit while open).
-export const PARENT_TAB: Readonly<Record<string, TabId>> = { designs: 'bench' };
+export const PARENT_TAB: Readonly<Record<string, TabId>> = { designs: 'bench', 'proposals/[id]': 'bench' };
 
 export function tabsForRole(role: Role): TabSpec[] {
   return TABS.filter((tab) => tab.roles.includes(role));
