@@ -33,12 +33,15 @@ const pick = (s: Proposal['savings']) => ({
   cost: s.cost,
 });
 
-function coneFn(view: LogicView, nl: FlatNetlist, root: string, leaves: string[]): Expr | undefined {
+/** The cone rooted at `root` over exactly `leaves` (or, for a rewritten block, some of them). */
+function coneFn(view: LogicView, nl: FlatNetlist, root: string, leaves: string[], subset = false): Expr | undefined {
   const ports = new Set(nl.ports.map((p) => nl.nets[p].name));
   const cone = fanoutFreeCones(view, Math.max(leaves.length, 2), ports).find((c) => c.root.name === root);
   if (!cone) return undefined;
   const want = new Set(leaves);
-  return cone.leaves.length === want.size && cone.leaves.every((x) => want.has(x)) ? cone.fn : undefined;
+  const inside = cone.leaves.every((x) => want.has(x));
+  // A rewrite may drop an input the assumptions make redundant (NAND(WR, SEL) → NOT WR).
+  return inside && (subset || cone.leaves.length === want.size) ? cone.fn : undefined;
 }
 
 /**
@@ -54,7 +57,7 @@ function twoLevelOf(p: Proposal, flat: FlatNetlist, view: LogicView, assumptions
   let after: Expr | undefined;
   try {
     const nl = applyProposals(flat, [{ id: p.engineId, title: p.title, edit: p.edit, assumptions: p.assumptionIds, margins: [] }]);
-    after = coneFn(extractLogic(nl), nl, root, leaves);
+    after = coneFn(extractLogic(nl), nl, root, leaves, true);
   } catch {
     after = undefined; // the rewritten block is shown from its cover alone
   }
