@@ -1,7 +1,7 @@
 // Bipolar collector-node groups: a collector node with its pull-up resistor(s) and the NPN stacks
 // that can pull it down (series = AND, parallel = OR), each transistor's base resolved through its
 // base network (resistor = that net, several resistors = OR, DTL diode inputs with a pull-up = AND).
-import { and, not, or, v, TRUE, type Expr } from '../logic/expr';
+import { and, not, or, TRUE, type Expr } from '../logic/expr';
 import type { BaseDrive, DriverGroup, Family, LogicNode, PullUp, SwitchNetwork } from './types';
 import {
   commonPath,

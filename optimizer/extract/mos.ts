@@ -2,7 +2,7 @@
 // 1987): nets joined by transistor channels (union-find; rails and driven/input nets cut them),
 // then per observed net the conduction paths to each source give its function, drive condition
 // and kind (static CMOS, NMOS with resistor/depletion load, tri-state, pass/transmission gate).
-import { and, evaluateWords, not, or, support, c, v, type Expr } from '../logic/expr';
+import { and, evaluateWords, not, or, support, c, type Expr } from '../logic/expr';
 import type { DriverGroup, Family, LogicNode, NodeKind, PullUp, SwitchNetwork } from './types';
 import { commonPath, controlOf, eachTerminal, isHighRail, isRail, netName, otherEnd, varOf, type ExtractContext } from './context';
 

@@ -7,12 +7,13 @@ import { InputError } from '../errors';
 import type { FlatNetlist } from '../netlist/ir';
 import type { Expr } from '../logic/expr';
 import { gateFunction } from '../extract/gates';
+import { ternaryCompiled, ternaryExpr, type Mask } from './ternary';
+import { RankQueue } from './rank-queue';
 import { buildSwitchModel, BLEED, CHARGE, DRIVEN, RAIL, WEAK, type CompiledExpr, type SwitchModel } from './switch-model';
 
 const PASSES = [DRIVEN, WEAK, BLEED, CHARGE] as const;
 
 export type Level = 0 | 1 | 'X' | 'Z';
-type Mask = number; // bit 0: can be 0, bit 1: can be 1 (3 = X, 0 = nothing)
 
 export type Stimulus =
   | { kind: 'vectors'; vectors: Record<string, 0 | 1 | 'X'>[] }
@@ -85,94 +86,15 @@ export class SwitchSimulator {
   }
 
   private evalExpr(e: Expr, reader: string): Mask {
-    switch (e.op) {
-      case 'const':
-        return e.value ? 2 : 1;
-      case 'var': {
-        const id = this.model.nl.netByName.get(e.name);
-        return id === undefined ? 3 : this.read(id, reader);
-      }
-      case 'not': {
-        const m = this.evalExpr(e.arg, reader);
-        return ((m & 1) << 1) | ((m >> 1) & 1);
-      }
-      case 'and': {
-        let can0 = 0;
-        let can1 = 1;
-        for (const a of e.args) {
-          const m = this.evalExpr(a, reader);
-          can0 |= m & 1;
-          can1 &= (m >> 1) & 1;
-        }
-        return can0 | (can1 << 1);
-      }
-      case 'or': {
-        let can0 = 1;
-        let can1 = 0;
-        for (const a of e.args) {
-          const m = this.evalExpr(a, reader);
-          can0 &= m & 1;
-          can1 |= (m >> 1) & 1;
-        }
-        return can0 | (can1 << 1);
-      }
-      case 'xor': {
-        let r = 1;
-        for (const a of e.args) {
-          const m = this.evalExpr(a, reader);
-          if (m === 3 || r === 3) r = 3;
-          else if (m === 2) r = r === 1 ? 2 : 1;
-        }
-        return r;
-      }
-      case 'implies':
-        return this.evalExpr({ op: 'or', args: [{ op: 'not', arg: e.left }, e.right] }, reader);
-      case 'iff':
-        return this.evalExpr({ op: 'not', arg: { op: 'xor', args: [e.left, e.right] } }, reader);
-    }
+    return ternaryExpr(e, (name) => {
+      const id = this.model.nl.netByName.get(name);
+      return id === undefined ? 3 : this.read(id, reader);
+    });
   }
 
   /** Three-valued evaluation of a compiled control (bipolar base drives). */
   private evalCompiled(e: CompiledExpr, reader: string): Mask {
-    switch (e.op) {
-      case 'const':
-        return e.mask;
-      case 'net':
-        return this.read(e.net, reader);
-      case 'not': {
-        const m = this.evalCompiled(e.arg, reader);
-        return ((m & 1) << 1) | ((m >> 1) & 1);
-      }
-      case 'and': {
-        let can0 = 0;
-        let can1 = 1;
-        for (const a of e.args) {
-          const m = this.evalCompiled(a, reader);
-          can0 |= m & 1;
-          can1 &= (m >> 1) & 1;
-        }
-        return can0 | (can1 << 1);
-      }
-      case 'or': {
-        let can0 = 1;
-        let can1 = 0;
-        for (const a of e.args) {
-          const m = this.evalCompiled(a, reader);
-          can0 &= m & 1;
-          can1 |= (m >> 1) & 1;
-        }
-        return can0 | (can1 << 1);
-      }
-      case 'xor': {
-        let r = 1;
-        for (const a of e.args) {
-          const m = this.evalCompiled(a, reader);
-          if (m === 3 || r === 3) r = 3;
-          else if (m === 2) r = r === 1 ? 2 : 1;
-        }
-        return r;
-      }
-    }
+    return ternaryCompiled(e, (net) => this.read(net, reader));
   }
 
   private evalGate(gi: number): Mask {
@@ -202,7 +124,7 @@ export class SwitchSimulator {
   private readonly pureTouched: number[] = [];
   private stack!: Int32Array;
   private top = 0;
-  private queued?: Uint8Array;
+  private queue?: RankQueue;
   private curLevel = 0;
   private tracking = false;
 
@@ -395,46 +317,13 @@ export class SwitchSimulator {
     if (first) m.groups.forEach((_, g) => groups.add(g));
     // Rank-ordered worklist (a binary heap on the topological rank): each group of acyclic logic
     // settles in one evaluation; loops iterate up to the bound.
-    const heap: number[] = [];
-    const queued = (this.queued ??= new Uint8Array(m.groups.length));
-    const push = (g: number) => {
-      if (queued[g]) return;
-      queued[g] = 1;
-      heap.push(g);
-      let i = heap.length - 1;
-      while (i > 0) {
-        const p = (i - 1) >> 1;
-        if (m.rank[heap[p]] <= m.rank[heap[i]]) break;
-        [heap[p], heap[i]] = [heap[i], heap[p]];
-        i = p;
-      }
-    };
-    const pop = (): number => {
-      const topG = heap[0];
-      const last = heap.pop()!;
-      if (heap.length) {
-        heap[0] = last;
-        let i = 0;
-        for (;;) {
-          const l = 2 * i + 1;
-          const r = l + 1;
-          let k = i;
-          if (l < heap.length && m.rank[heap[l]] < m.rank[heap[k]]) k = l;
-          if (r < heap.length && m.rank[heap[r]] < m.rank[heap[k]]) k = r;
-          if (k === i) break;
-          [heap[k], heap[i]] = [heap[i], heap[k]];
-          i = k;
-        }
-      }
-      queued[topG] = 0;
-      return topG;
-    };
-    for (const g of groups) push(g);
+    const queue = (this.queue ??= new RankQueue(m.rank));
+    for (const g of groups) queue.push(g);
     const evals = new Map<number, number>();
     const stuck = new Set<number>();
     const changed: number[] = [];
-    while (heap.length) {
-      const g = pop();
+    while (queue.size) {
+      const g = queue.pop();
       if (stuck.has(g)) continue;
       const count = (evals.get(g) ?? 0) + 1;
       evals.set(g, count);
@@ -449,7 +338,7 @@ export class SwitchSimulator {
         }
         this.result.oscillations.push({ step: this.step, nets: m.groups[g].nets.slice(0, 8).map((n) => m.nl.nets[n].name) });
       } else this.evaluateGroup(g, changed);
-      for (const n of changed) for (const r of m.readers[n]) push(r);
+      for (const n of changed) for (const r of m.readers[n]) queue.push(r);
     }
     for (const [net, readers] of this.pendingFloating) {
       if (this.level[net] < BLEED) this.result.floatingReads.push({ net: m.nl.nets[net].name, step: this.step, readers });
