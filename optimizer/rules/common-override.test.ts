@@ -10,7 +10,7 @@ import type { FlatNetlist } from '../netlist/ir';
 import { applyProposals } from '../rewrite/apply';
 import { commonOverride } from './common-override';
 import { scan } from './scan';
-import { assumption, countDelta, deckExamples, deckToFlat, runOne } from './support/sharing-test-kit';
+import { assumption, countDelta, deckExamples, deckNetlist, runOne } from './support/rule-test-kit';
 import type { Rule } from './types';
 
 const rule = commonOverride as unknown as Rule;
@@ -184,7 +184,7 @@ describe('common-override: doc examples', () => {
   const examples = deckExamples(path.join(__dirname, 'common-override.md'));
   it('has examples', () => expect(examples.length).toBeGreaterThanOrEqual(3));
   it.each(examples.map((e) => [e.label, e] as const))('%s', async (_l, ex) => {
-    const nl = deckToFlat(ex.deck);
+    const nl = deckNetlist(ex.deck);
     const r = await runOne(rule, nl, { assumptions: ex.assumptions });
     expect(r.ruleErrors).toEqual([]);
     if (ex.expect.messageId === null) {

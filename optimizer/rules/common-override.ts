@@ -13,7 +13,7 @@ import { chunked, fewestParts, worstPerName, type Chunk } from './support/chunks
 import { DriverLoadIndex } from './support/driver-loads';
 import { betaMinOfDevice } from './support/driver-margins';
 import { steeredForcedBeta, steeredLowLevel, steeredSinkCurrent } from './support/override-margins';
-import { describePlaces } from './support/places';
+import { describePlaces } from './support/finding-words';
 import { deviceOwnerCounts } from './support/same-function';
 import { contentionVectors, sneakCheck, sneakMargin } from './support/sneak-check';
 import { emptyEdit, type Assumption, type Edit, type RuleContext } from './types';

@@ -9,7 +9,7 @@ import type { FlatNetlist } from '../netlist/ir';
 import { operatingPoints } from '@/tests/support/ngspice';
 import { applied, atCorner, deckOf, levelTable, relativeDiff } from '@/tests/support/rule-levels';
 import { sharedControlDriver } from './shared-control-driver';
-import { runOne } from './support/sharing-test-kit';
+import { runOne } from './support/rule-test-kit';
 import type { Rule } from './types';
 
 const rule = sharedControlDriver as unknown as Rule;

@@ -5,7 +5,7 @@ import { describe, expect, it } from 'vitest';
 import { NetlistBuilder } from '../netlist/build';
 import type { FlatNetlist } from '../netlist/ir';
 import { sharedControlDriver } from './shared-control-driver';
-import { countDelta, deckToFlat, deckExamples, runOne } from './support/sharing-test-kit';
+import { countDelta, deckNetlist, deckExamples, runOne } from './support/rule-test-kit';
 import { sliceInverters } from './test-helpers';
 import type { Rule } from './types';
 
@@ -109,7 +109,7 @@ describe('shared-control-driver: valid (no finding)', () => {
   });
 
   it('does not count copies below minCopies', async () => {
-    const r = await runOne(rule, sliceInverters(3), { ruleOptions: { minCopies: 4 } });
+    const r = await runOne(rule, sliceInverters(3), { options: { minCopies: 4 } });
     expect(r.findings).toEqual([]);
   });
 });
@@ -206,7 +206,7 @@ describe('shared-control-driver: invalid (findings)', () => {
       '.model QN NPN (IS=1e-14 BF=100)',
       '.end',
     ].join('\n');
-    const nl = deckToFlat(deck);
+    const nl = deckNetlist(deck);
     const f = (await runOne(rule, nl)).findings[0];
     expect(f.data.where).toBe('bit 0 of slice XSLICE0, bit 1 of slice XSLICE1, bit 2 of slice XSLICE2, bit 3 of slice XSLICE3');
     expect(f.data.count).toBe(4);
@@ -218,7 +218,7 @@ describe('shared-control-driver: doc examples', () => {
   const examples = deckExamples(path.join(__dirname, 'shared-control-driver.md'));
   it('has examples', () => expect(examples.length).toBeGreaterThanOrEqual(3));
   it.each(examples.map((e) => [e.label, e] as const))('%s', async (_l, ex) => {
-    const nl = deckToFlat(ex.deck);
+    const nl = deckNetlist(ex.deck);
     const r = await runOne(rule, nl, { assumptions: ex.assumptions });
     expect(r.ruleErrors).toEqual([]);
     if (ex.expect.messageId === null) {

@@ -9,7 +9,7 @@ import { defineRule } from './define-rule';
 import { sharedDriverMargins } from './support/driver-margins';
 import { deviceOwnerCounts, sameFunctionClasses } from './support/same-function';
 import { DriverLoadIndex, mergeDriverLoads, type DriverLoads } from './support/driver-loads';
-import { describePlaces } from './support/places';
+import { describePlaces } from './support/finding-words';
 import { chunked, fewestParts, worstPerName, type Chunk } from './support/chunks';
 import { emptyEdit, type Edit } from './types';
 

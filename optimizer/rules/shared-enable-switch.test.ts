@@ -8,7 +8,7 @@ import { NetlistBuilder } from '../netlist/build';
 import type { FlatNetlist } from '../netlist/ir';
 import { applyProposals } from '../rewrite/apply';
 import { sharedEnableSwitch } from './shared-enable-switch';
-import { countDelta, deckExamples, deckToFlat, runOne } from './support/sharing-test-kit';
+import { countDelta, deckExamples, deckNetlist, runOne } from './support/rule-test-kit';
 import type { Rule } from './types';
 
 const rule = sharedEnableSwitch as unknown as Rule;
@@ -133,7 +133,7 @@ describe('shared-enable-switch: doc examples', () => {
   const examples = deckExamples(path.join(__dirname, 'shared-enable-switch.md'));
   it('has examples', () => expect(examples.length).toBeGreaterThanOrEqual(2));
   it.each(examples.map((e) => [e.label, e] as const))('%s', async (_l, ex) => {
-    const nl = deckToFlat(ex.deck);
+    const nl = deckNetlist(ex.deck);
     const r = await runOne(rule, nl, { assumptions: ex.assumptions });
     expect(r.ruleErrors).toEqual([]);
     if (ex.expect.messageId === null) {

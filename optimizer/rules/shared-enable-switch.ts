@@ -11,7 +11,7 @@ import type { FlatNetlist } from '../netlist/ir';
 import { defineRule } from './define-rule';
 import { chunked, fewestParts, worstPerName, type Chunk } from './support/chunks';
 import { betaMinOfDevice } from './support/driver-margins';
-import { describePlaces } from './support/places';
+import { describePlaces } from './support/finding-words';
 import { deviceOwnerCounts } from './support/same-function';
 import { sneakCheck, sneakMargin } from './support/sneak-check';
 import { emptyEdit, type Edit, type RuleContext } from './types';

@@ -1,5 +1,7 @@
 // Words for where a structure sits in the hierarchy, for finding messages: "bit 3 of slice XSLICE3"
-// when the innermost instance name ends in a number, "instance XALU.XEN" otherwise, "the top level".
+// when the innermost instance name ends in a number, "instance XALU.XEN" otherwise, "the top level";
+// lists of places and names shortened after a few so messages stay one line.
+import type { LogicNode } from '../../extract/types';
 
 export function placeOf(path: readonly string[]): string {
   if (path.length === 0) return 'the top level';
@@ -20,4 +22,13 @@ export function listWords(items: readonly string[], max = 4): string {
   const rest = items.length - shown.length;
   if (rest > 0) return `${shown.join(', ')} and ${rest} more`;
   return shown.length === 1 ? shown[0] : `${shown.slice(0, -1).join(', ')} and ${shown[shown.length - 1]}`;
+}
+
+const PLACES_SHOWN = 4;
+
+/** Distinct places of some logic nodes (their first group's path), shortened after four. */
+export function describePlaces(nodes: readonly LogicNode[]): string {
+  const places = [...new Set(nodes.map((n) => placeOf(n.groups[0]?.path ?? [])))];
+  if (places.length <= PLACES_SHOWN) return places.join(', ');
+  return `${places.slice(0, PLACES_SHOWN).join(', ')}, … (${places.length} places)`;
 }

@@ -1,11 +1,12 @@
 // What rule tests share: running one rule (or the full scan) on a netlist with assumptions given
-// as text, the savings property (applying a proposal changes part counts by exactly its stated
-// savings), and reading a rule doc's fenced SPICE-style examples so the doc's examples are tests.
+// as text or with ids, the savings property (applying a proposal changes part counts by exactly
+// its stated savings), and reading a rule doc's fenced SPICE-style examples so they are tests.
+import { readFileSync } from 'node:fs';
 import { partsOf, editSavings, type Savings } from '../../cost/cost';
 import { extractLogic } from '../../extract';
 import { readSpice } from '../../formats/spice/read';
 import type { MapFamily } from '../../logic/family-parts';
-import type { MarginSettings } from '../../margins/defaults';
+import { marginSettings, type MarginSettings } from '../../margins/defaults';
 import { parseExpr } from '../../logic/expr-parse';
 import { flatten } from '../../netlist/flatten';
 import type { FlatNetlist } from '../../netlist/ir';
@@ -15,15 +16,22 @@ import { runRules, type RunResult } from '../run-rules';
 import { scan, type ScanResult } from '../scan';
 import type { Assumption, Proposal, Rule } from '../types';
 
-export const assumptionsOf = (texts: readonly string[] = []): Assumption[] =>
-  texts.map((text, i) => ({ id: `A${i + 1}`, text, expr: parseExpr(text) }));
+/** An assumption with a chosen id. */
+export function assumption(id: string, text: string): Assumption {
+  return { id, text, expr: parseExpr(text) };
+}
+
+/** Assumptions from text (ids A1, A2 … by position) or given whole. */
+export const assumptionsOf = (items: readonly (string | Assumption)[] = []): Assumption[] =>
+  items.map((a, i) => (typeof a === 'string' ? assumption(`A${i + 1}`, a) : a));
 
 export interface RunOne {
-  assumptions?: string[];
+  assumptions?: (string | Assumption)[];
   options?: unknown;
   clockPeriod?: number;
   targetFamily?: MapFamily;
-  margins?: MarginSettings;
+  /** Margin settings, or the fields that differ from the defaults. */
+  margins?: Partial<MarginSettings>;
 }
 
 export function runOne(rule: Rule, nl: FlatNetlist, o: RunOne = {}): Promise<RunResult> {
@@ -33,7 +41,7 @@ export function runOne(rule: Rule, nl: FlatNetlist, o: RunOne = {}): Promise<Run
     ...(o.options ? { ruleOptions: { [rule.id]: o.options } } : {}),
     ...(o.clockPeriod ? { clockPeriod: o.clockPeriod } : {}),
     ...(o.targetFamily ? { targetFamily: o.targetFamily } : {}),
-    ...(o.margins ? { margins: o.margins } : {}),
+    ...(o.margins ? { margins: marginSettings(o.margins) } : {}),
   });
 }
 
@@ -44,7 +52,7 @@ export function scanOne(rule: Rule, nl: FlatNetlist, o: RunOne = {}): Promise<Sc
     ...(o.options ? { ruleOptions: { [rule.id]: o.options } } : {}),
     ...(o.clockPeriod ? { clockPeriod: o.clockPeriod } : {}),
     ...(o.targetFamily ? { targetFamily: o.targetFamily } : {}),
-    ...(o.margins ? { margins: o.margins } : {}),
+    ...(o.margins ? { margins: marginSettings(o.margins) } : {}),
   });
 }
 
@@ -66,6 +74,13 @@ export function deckOf(nl: FlatNetlist): string {
 
 /** The netlist after one proposal. */
 export const applied = (nl: FlatNetlist, p: Proposal): FlatNetlist => applyProposals(nl, [p]);
+
+/** Transistors, resistors and diodes lost by applying `p`, against the savings it states. */
+export function countDelta(nl: FlatNetlist, p: Proposal): { actual: Record<string, number>; stated: Record<string, number> } {
+  const { stated, actual } = savingsProperty(nl, p);
+  const three = (x: Record<string, number>) => ({ transistors: x.transistors, resistors: x.resistors, diodes: x.diodes });
+  return { actual: three(actual), stated: three(stated as unknown as Record<string, number>) };
+}
 
 export const pick = (s: Savings): Record<string, number> => Object.fromEntries(DIFF_KEYS.map((k) => [k, s[k]]));
 
@@ -115,4 +130,33 @@ export function deckNetlist(deck: string, file = 'example.cir'): FlatNetlist {
   const errors = diagnostics.filter((d) => d.severity === 'error');
   if (errors.length) throw new Error(`${file}: ${errors.map((e) => e.message).join('; ')}`);
   return flatten(design);
+}
+
+export interface DeckExample {
+  /** The deck's title line, as a label. */
+  label: string;
+  deck: string;
+  /** From `* expect: none` or `* expect: <messageId> key=value …`. */
+  expect: { messageId: string | null; data: Record<string, string> };
+  /** `* assume: ID EXPR` lines. */
+  assumptions: Assumption[];
+}
+
+/**
+ * Examples in a rule doc written with plain ```spice fences whose deck states what it expects in
+ * comment cards: `* expect: none` or `* expect: <messageId> key=value …`, `* assume: ID EXPR`.
+ */
+export function deckExamples(mdPath: string): DeckExample[] {
+  const md = readFileSync(mdPath, 'utf8');
+  const out: DeckExample[] = [];
+  for (const m of md.matchAll(/```spice\n([\s\S]*?)```/g)) {
+    const deck = m[1];
+    const expectLine = /^\*\s*expect:\s*(.+)$/m.exec(deck);
+    if (!expectLine) throw new Error(`${mdPath}: a spice example lacks a "* expect:" line`);
+    const [head, ...pairs] = expectLine[1].trim().split(/\s+/);
+    const data = Object.fromEntries(pairs.map((p) => p.split('=') as [string, string]));
+    const assumptions = [...deck.matchAll(/^\*\s*assume:\s*(\S+)\s+(.+)$/gm)].map((a) => assumption(a[1], a[2].trim()));
+    out.push({ label: deck.split('\n')[0].trim(), deck, expect: { messageId: head === 'none' ? null : head, data }, assumptions });
+  }
+  return out;
 }
