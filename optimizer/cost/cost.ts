@@ -4,6 +4,7 @@
 import { InternalError } from '../errors';
 import { addParts, gateParts, type MapFamily, type PartCount, ZERO_PARTS } from '../logic/family-parts';
 import type { DeviceKind, FlatNetlist, GateOp } from '../netlist/ir';
+import { deviceIndex } from '../rewrite/edits';
 import type { Edit } from '../rules/types';
 import { DEFAULT_PARTS_TABLE, PART_KINDS, type PartKind, type PartsTable } from './parts-table';
 
@@ -133,11 +134,11 @@ const roundMoney = (x: number) => Math.round(x * 1e6) / 1e6;
 
 /** Removed minus added parts of one edit: what accepting it saves (negative = it costs). */
 export function editSavings(nl: FlatNetlist, edit: Edit, family: MapFamily = 'cmos', table: PartsTable = DEFAULT_PARTS_TABLE): Savings {
-  const byName = new Map(nl.devices.map((d) => [d.name, d]));
+  const byName = deviceIndex(nl);
   const removed = edit.removeDevices.map((name) => {
-    const d = byName.get(name);
-    if (!d) throw new InternalError(`savings of an edit removing unknown device ${name}`);
-    return d;
+    const i = byName.get(name);
+    if (i === undefined) throw new InternalError(`savings of an edit removing unknown device ${name}`);
+    return nl.devices[i];
   });
   return minus(partsOf(removed, family, table), partsOf(edit.addDevices, family, table));
 }

@@ -3,6 +3,29 @@
 import { TERMINAL_NAMES, type DeviceKind, type FlatNetlist } from '../netlist/ir';
 import type { Edit } from '../rules/types';
 
+const indexCache = new WeakMap<FlatNetlist, Map<string, number>>();
+
+/** Device index by name, built once per netlist (rules check thousands of edits on one design). */
+export function deviceIndex(nl: FlatNetlist): Map<string, number> {
+  let m = indexCache.get(nl);
+  if (!m) {
+    m = new Map(nl.devices.map((d, i) => [d.name, i]));
+    indexCache.set(nl, m);
+  }
+  return m;
+}
+
+const railCache = new WeakMap<FlatNetlist, Set<string>>();
+
+function railNames(nl: FlatNetlist): Set<string> {
+  let s = railCache.get(nl);
+  if (!s) {
+    s = new Set(nl.rails.map((r) => nl.nets[r.net].name));
+    railCache.set(nl, s);
+  }
+  return s;
+}
+
 /** What an edit removes or modifies: the basis of overlap detection. */
 export interface Touched {
   devices: Set<string>;
@@ -38,7 +61,7 @@ export function terminalCounts(kind: DeviceKind): number[] {
 /** Problems that make an edit inapplicable to `nl` (empty when it is well formed). */
 export function editProblems(nl: FlatNetlist, edit: Edit): string[] {
   const problems: string[] = [];
-  const byName = new Map(nl.devices.map((d, i) => [d.name, i]));
+  const byName = deviceIndex(nl);
   const removed = new Set<string>();
   for (const name of edit.removeDevices) {
     if (!byName.has(name)) problems.push(`removes unknown device ${name}`);
@@ -54,7 +77,7 @@ export function editProblems(nl: FlatNetlist, edit: Edit): string[] {
     }
     if (!r.net) problems.push(`reconnects ${r.device} to an empty net name`);
   }
-  const railNets = new Set(nl.rails.map((r) => nl.nets[r.net].name));
+  const railNets = railNames(nl);
   for (const m of edit.mergeNets) {
     if (!nl.netByName.has(m.keep)) problems.push(`merges into unknown net ${m.keep}`);
     if (!nl.netByName.has(m.remove)) problems.push(`merges unknown net ${m.remove}`);

@@ -3,6 +3,7 @@
 // and simulations then cost the size of the region, not of the whole board.
 import type { LogicView } from '../extract/types';
 import type { FlatDevice, FlatNet, FlatNetlist } from '../netlist/ir';
+import { deviceIndex } from '../rewrite/edits';
 import type { Edit } from './types';
 
 const indexCache = new WeakMap<FlatNetlist, { byName: Map<string, number>; sources: number[] }>();
@@ -11,13 +12,24 @@ const indexCache = new WeakMap<FlatNetlist, { byName: Map<string, number>; sourc
 export function indexOf(nl: FlatNetlist) {
   let idx = indexCache.get(nl);
   if (!idx) {
-    idx = { byName: new Map(nl.devices.map((d, i) => [d.name, i])), sources: [] };
+    idx = { byName: deviceIndex(nl), sources: [] };
     nl.devices.forEach((d, i) => {
       if (d.kind === 'vsource') idx!.sources.push(i);
     });
     indexCache.set(nl, idx);
   }
   return idx;
+}
+
+const nodeCache = new WeakMap<LogicView, Map<string, number>>();
+
+function nodeIndex(view: LogicView): Map<string, number> {
+  let m = nodeCache.get(view);
+  if (!m) {
+    m = new Map(view.nodes.map((n, i) => [n.name, i]));
+    nodeCache.set(view, m);
+  }
+  return m;
 }
 
 /** Regions larger than this many logic nodes are not cut out (the whole design is used). */
@@ -36,7 +48,7 @@ export function editNetNames(nl: FlatNetlist, edit: Edit): string[] {
  * @returns the region, or the design itself when the fan-in is too large to be worth cutting
  */
 export function regionOf(nl: FlatNetlist, view: LogicView, seeds: string[], edit: Edit): FlatNetlist {
-  const nodeByName = new Map(view.nodes.map((n, i) => [n.name, i]));
+  const nodeByName = nodeIndex(view);
   const take = new Set<number>();
   const stack = seeds.map((s) => nodeByName.get(nl.nets[nl.netByName.get(s) ?? -1]?.name ?? s)).filter((i): i is number => i !== undefined);
   while (stack.length) {

@@ -120,12 +120,14 @@ export const twoLevelMinimise = defineRule({
       if (discrete < 0 || (discrete === 0 && savings.gates <= 0)) continue;
       const before = cone.devices.length;
       const after = added.length;
-      // Each leaf's load count after the rewrite: readers outside the cone plus new gates reading it.
+      // Fan-out of each leaf whose load count the rewrite raises (an overload it does not worsen is
+      // not this rewrite's doing): readers outside the block plus the new gates that read it.
       const coneNames = new Set(cone.nodes.map((n) => n.name));
-      const margins = cone.leaves.map((leaf) => {
-        const outside = (readers.get(leaf) ?? []).filter((i) => !coneNames.has(view.nodes[i].name)).length;
+      const margins = cone.leaves.flatMap((leaf) => {
+        const all = readers.get(leaf) ?? [];
+        const outside = all.filter((i) => !coneNames.has(view.nodes[i].name)).length;
         const inside = pick.network.gates.filter((g) => g.inputs.includes(leaf)).length;
-        return fanOut({ loads: outside + inside, family }, ctx.margins);
+        return outside + inside > all.length ? [fanOut({ loads: outside + inside, family }, ctx.margins)] : [];
       });
       const worst = worstOf(margins);
       const data = {
