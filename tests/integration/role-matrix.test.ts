@@ -7,6 +7,7 @@ import { DEMO_PASSWORD } from '@/server/db/seed';
 import { newToken, INVITE_TTL_MS } from '@/server/auth/tokens';
 import { listRoutes } from '@/server/http/list-routes';
 import { addMember, newClient, roleEmail, signIn, startHarness, type Client, type Harness } from './support/harness';
+import { LESSON_ROWS } from './lessons-matrix-rows';
 
 type Caller = Role | 'signed-out';
 const CALLERS: readonly Caller[] = [...ROLES, 'signed-out'];
@@ -104,6 +105,7 @@ const MATRIX: Row[] = [
     expect: members(200),
   },
   { route: 'GET /api/audit', call: () => ({ method: 'get', path: '/api/audit' }), expect: adminsOnly(200) },
+  ...LESSON_ROWS,
   { route: 'GET /api/no-such-route', call: () => ({ method: 'get', path: '/api/no-such-route' }), expect: everyone(404) },
 ];
 
