@@ -104,5 +104,5 @@ describe('trimwire cli', () => {
     const bad = spawnSync('npm', ['run', '--silent', 'trimwire', '--', 'check', fx('wren8-alu-bit.v'), '--format', 'spice'], { cwd: root, encoding: 'utf8' });
     expect(bad.status).toBe(2);
     expect(bad.stderr).toMatch(/wren8-alu-bit\.v:\d+:\d+: /);
-  });
+  }, 120_000);
 });

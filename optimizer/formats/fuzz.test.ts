@@ -102,8 +102,8 @@ describe.each<Format>(['spice', 'verilog', 'json', 'pla'])('%s reader under fuzz
   it('random lines of the format\'s own words give a design or located errors', () => {
     const words: Record<Format, string[]> = {
       spice: ['R1', 'Q1', 'M1', 'D1', 'X1', 'V1', 'a', 'b', '0', 'gnd', '1k', 'QN', '.model', 'NPN', 'D', '.subckt', '.ends', 'S', '.param', 'p=1', '{p}', '.global', 'PULSE(0', '5)', '.end', '+', '.control', '.endc', 'DC'],
-      verilog: ['module', 'm', 'endmodule', '(', ')', ';', ',', 'input', 'output', 'wire', '[3:0]', 'a', 'b', 'y', 'and', 'not', 'assign', '=', '&', '|', '~', '?', ':', "1'bz", '.a(', 'm', 'u1', 'pullup', 'tri'],
-      json: ['{', '}', '[', ']', ',', ':', '"format"', '"trimwire-netlist"', '"version"', '1', '"design"', '"cells"', '"top"', '"T"', 'null', 'true'],
+      verilog: ['module', 'm', 'endmodule', '(', ')', ';', ',', 'input', 'output', 'wire', '[3:0]', 'a', 'b', 'y', 'and', 'not', 'assign', '=', '&', '|', '~', '?', ':', "1'bz", '.a(', 'm', 'u1', 'pullup', 'tri', 'constructor', '__proto__', 'toString'],
+      json: ['{', '}', '[', ']', ',', ':', '"format"', '"trimwire-netlist"', '"version"', '1', '"design"', '"cells"', '"top"', '"T"', 'null', 'true', '"constructor"', '"__proto__"'],
       pla: ['.i', '.o', '2', '1', '01', '1-', '~', '.ilb', 'a', 'b', '.ob', 'y', '.p', '.type', 'fr', '.e', '#'],
     };
     const line = fc.array(fc.constantFrom(...words[format]), { maxLength: 8 }).map((w) => w.join(' '));
@@ -113,5 +113,37 @@ describe.each<Format>(['spice', 'verilog', 'json', 'pla'])('%s reader under fuzz
       }),
       { numRuns: 300 },
     );
+  });
+});
+
+describe('names that are also Object.prototype properties', () => {
+  const json = (cellKey: string, ref: string) =>
+    JSON.stringify({
+      format: 'trimwire-netlist',
+      version: 1,
+      design: {
+        title: 't',
+        format: 'verilog',
+        top: 'T',
+        cells: {
+          T: { name: 'T', ports: [], devices: [], instances: [{ name: 'X1', cell: ref, connections: [] }] },
+          [cellKey]: { name: cellKey, ports: [], devices: [], instances: [] },
+        },
+      },
+    });
+  it.each([
+    ['S', 'constructor'],
+    ['S', 'toString'],
+    ['S', '__proto__'],
+    ['__proto__', '__proto__'],
+  ])('a JSON instance of %s referring to %s is a located error, not a crash', (key, ref) => {
+    expect(readsCleanly(json(key, ref), 'json')).toBe(false);
+  });
+  it.each(['constructor', '__proto__', 'hasOwnProperty'])('a Verilog module and nets called %s read and flatten', (name) => {
+    const text = `module ${name} (${name}, y);\n input ${name}; output y;\n tri ${name}_t;\n not g (y, ${name});\nendmodule\n`;
+    expect(readsCleanly(text, 'verilog')).toBe(true);
+    const { design } = readDesign(text, { file: 'p.v' });
+    expect(design.top).toBe(name);
+    expect(writeDesign(design, 'verilog')).toContain(`input ${name};`);
   });
 });

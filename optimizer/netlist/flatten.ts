@@ -1,6 +1,7 @@
 // Flattens a Design into a FlatNetlist: instance paths kept on every device, nets named by their
 // highest-level appearance ("XSLICE3.N5"), globals and ground shared, rails solved from DC
 // sources. Limits are checked on the memoised hierarchy before any device is copied.
+import { own } from './own';
 import { InputError } from '../errors';
 import { GROUND, type Cell, type Design, type FlatDevice, type FlatNet, type FlatNetlist, type Rail } from './ir';
 import { hierarchyStats } from './hierarchy';
@@ -43,7 +44,7 @@ export function flatten(design: Design, limits: Partial<Limits> = {}): FlatNetli
   };
   newNet(GROUND, undefined);
   const globals = new Map<string, number>([[GROUND, 0]]);
-  for (const g of design.globals) if (!globals.has(g)) globals.set(g, newNet(g, design.cells[design.top].netKinds?.[g]));
+  for (const g of design.globals) if (!globals.has(g)) globals.set(g, newNet(g, own(design.cells[design.top].netKinds, g)));
 
   const compiled = new Map<string, CompiledCell>();
   const compiledOf = (cell: Cell): CompiledCell => {
@@ -147,7 +148,7 @@ function compileCell(cell: Cell, globals: Map<string, number>): CompiledCell {
   const devTerms = cell.devices.map((d) => Int32Array.from(d.terminals, idx));
   const instConns = cell.instances.map((i) => Int32Array.from(i.connections, idx));
   const globalOf = Int32Array.from(nets, (n) => globals.get(n) ?? -1);
-  return { nets, portCount, kinds: nets.map((n) => cell.netKinds?.[n]), globalOf, devTerms, instConns };
+  return { nets, portCount, kinds: nets.map((n) => own(cell.netKinds, n)), globalOf, devTerms, instConns };
 }
 
 function rails(devices: FlatDevice[], nets: FlatNet[]): Rail[] {

@@ -1,6 +1,7 @@
 // Walks a design's cell hierarchy once, bottom-up, without recursion: flattened device count,
 // depth and occurrence count per cell, memoised, so a design that would flatten to 10^12 devices
 // is measured (and refused) in time linear in the size of the file, not of the flattened result.
+import { own } from './own';
 import { InputError } from '../errors';
 import type { Design } from './ir';
 
@@ -18,7 +19,7 @@ export function hierarchyStats(design: Design, noun = 'subcircuit'): HierarchySt
   const depth = new Map<string, number>();
   const order: string[] = [];
   const onPath = new Set<string>();
-  if (!design.cells[design.top]) throw InputError.at('netlist.no-top', `top ${noun} ${design.top} is not defined`);
+  if (!own(design.cells, design.top)) throw InputError.at('netlist.no-top', `top ${noun} ${design.top} is not defined`);
   const stack: { cell: string; next: number }[] = [{ cell: design.top, next: 0 }];
   onPath.add(design.top);
   while (stack.length > 0) {
@@ -26,7 +27,7 @@ export function hierarchyStats(design: Design, noun = 'subcircuit'): HierarchySt
     const cell = design.cells[frame.cell];
     if (frame.next < cell.instances.length) {
       const inst = cell.instances[frame.next++];
-      const child = design.cells[inst.cell];
+      const child = own(design.cells, inst.cell);
       if (!child) throw InputError.at('netlist.unknown-cell', `unknown ${noun} ${inst.cell} (used by ${inst.name})`, inst.loc);
       if (child.ports.length !== inst.connections.length) {
         throw InputError.at(

@@ -1,6 +1,7 @@
 // Structural checks every reader runs on the Design it built: unknown cells and models, port count
 // mismatches, recursive instantiation, duplicate names, shorted rails in the top cell (errors) and
 // nets only one terminal touches (warnings). Nets nothing drives are inputs, never errors.
+import { own } from './own';
 import type { Diagnostic } from '../errors';
 import { GROUND, type Cell, type Design } from './ir';
 import { solveRails, type RailSource } from './rails';
@@ -20,13 +21,13 @@ export function validateDesign(design: Design, opts: ValidateOptions = {}): Diag
   const modelNames = new Set(Object.keys(design.models).map((m) => m.toUpperCase()));
   const cellNames = new Set(Object.keys(design.cells));
   const globals = new Set([GROUND, ...design.globals]);
-  if (!design.cells[design.top]) {
+  if (!own(design.cells, design.top)) {
     out.push({ severity: 'error', code: 'netlist.no-top', message: `top ${noun} ${design.top} is not defined` });
   }
   for (const cell of Object.values(design.cells)) {
     checkNames(cell, out);
     for (const inst of cell.instances) {
-      const child = design.cells[inst.cell];
+      const child = own(design.cells, inst.cell);
       if (!child) {
         out.push({ severity: 'error', code: 'netlist.unknown-cell', message: `unknown ${noun} ${inst.cell} (used by ${inst.name})`, loc: inst.loc });
       } else if (child.ports.length !== inst.connections.length) {
@@ -48,7 +49,7 @@ export function validateDesign(design: Design, opts: ValidateOptions = {}): Diag
     singleTerminalNets(cell, globals, cell.name === design.top, out);
   }
   out.push(...recursion(design, cellNames, noun));
-  const top = design.cells[design.top];
+  const top = own(design.cells, design.top);
   if (top) out.push(...topRails(top));
   return out;
 }

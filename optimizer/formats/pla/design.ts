@@ -1,6 +1,7 @@
 // Bridges PLA tables and gate-level designs: a PLA becomes an AND–OR design (one AND per cube,
 // one OR per output, shared input inverters); a small combinational gate-level design becomes a
 // PLA by exhaustive evaluation (one cube per true minterm, type f).
+import { dict, own } from '../../netlist/own';
 import { InputError } from '../../errors';
 import type { Cell, Design, Device, GateOp } from '../../netlist/ir';
 import { flatten } from '../../netlist/flatten';
@@ -14,7 +15,7 @@ export function plaToDesign(pla: Pla, title = 'PLA'): Design {
   const devices: Device[] = [];
   const gate = (name: string, op: GateOp, terminals: string[]) => devices.push({ name, kind: 'gate', op, terminals, params: {} });
   const inverted = new Set<number>();
-  const netKinds: Cell['netKinds'] = {};
+  const netKinds = dict<NonNullable<Cell['netKinds']>[string]>();
   const cubeNets: string[] = [];
   pla.cubes.forEach((c, k) => {
     const lits: string[] = [];
@@ -44,7 +45,7 @@ export function plaToDesign(pla: Pla, title = 'PLA'): Design {
     } else if (terms.length === 1) gate(`OR_${o}`, 'buf', [o, terms[0]]);
     else gate(`OR_${o}`, 'or', [o, ...terms]);
   });
-  const directions: Record<string, 'input' | 'output'> = {};
+  const directions = dict<'input' | 'output'>();
   for (const i of pla.inputs) directions[i] = 'input';
   for (const o of pla.outputs) directions[o] = 'output';
   const cell: Cell = { name: PLA_TOP, ports: [...pla.inputs, ...pla.outputs], directions, devices, instances: [] };
@@ -67,9 +68,8 @@ const EVAL: Partial<Record<GateOp, (x: boolean[]) => boolean>> = {
 export function designToPla(design: Design): Pla {
   const flat = flatten(design);
   const top = design.cells[design.top];
-  const dir = top.directions ?? {};
-  const inputs = top.ports.filter((p) => dir[p] === 'input');
-  const outputs = top.ports.filter((p) => dir[p] === 'output');
+  const inputs = top.ports.filter((p) => own(top.directions, p) === 'input');
+  const outputs = top.ports.filter((p) => own(top.directions, p) === 'output');
   if (inputs.length === 0 || outputs.length === 0) {
     throw InputError.at('pla.write-ports', 'a PLA needs a top cell with input and output ports (a gate-level design with port directions)');
   }

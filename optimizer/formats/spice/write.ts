@@ -2,6 +2,7 @@
 // subcircuits, the top cell's cards at top level, kept analysis cards, `.end`. Names from other
 // formats are made legal deck names (right leading letter, no separators, unique ignoring case).
 // Gate-level devices have no transistor form in a deck; they are refused with a clear message.
+import { own } from '../../netlist/own';
 import { InputError, type Diagnostic } from '../../errors';
 import { GROUND, type Cell, type Design, type Device, type ParamValue } from '../../netlist/ir';
 import { formatSpiceNumber } from './numbers';
@@ -92,7 +93,9 @@ export function writeSpice(design: Design): string {
     writeBody(cell, out, local, models, cellNames, design);
     out.push(`.ends ${cellNames.get(cell.name)}`);
   }
-  writeBody(design.cells[design.top], out, nets, models, cellNames, design);
+  const top = own(design.cells, design.top);
+  if (!top) throw InputError.at('netlist.no-top', `top cell ${design.top} is not defined`);
+  writeBody(top, out, nets, models, cellNames, design);
   for (const c of design.extraCards) out.push(c.text);
   out.push('.end');
   return out.join('\n') + '\n';

@@ -1,6 +1,7 @@
 // Turns parsed modules into IR cells: vectors bit-blasted to NAME[i], gate primitives and pullups
 // to gate devices, each `assign` operator to one gate named from the assign's line, constants to
 // supply nets, and module instances to bit-level connections (positional or by port name).
+import { dict } from '../../netlist/own';
 import type { Cell, Device, GateOp, SourceLoc } from '../../netlist/ir';
 import type { Expr, ModuleDecl, Range } from './parse';
 import type { VTok } from './lexer';
@@ -59,7 +60,7 @@ export function elaborate(mods: ModuleDecl[], loc: (t: VTok) => SourceLoc, probl
 
   function elaborateAll(): Record<string, Cell> {
   const byName = new Map(mods.map((m) => [m.name, m]));
-  const cells: Record<string, Cell> = {};
+  const cells = dict<Cell>();
   const portGroups = new Map<string, { name: string; bits: string[] }[]>();
   for (const m of mods) {
     const groups = m.headerPorts.map((hp) => {
@@ -73,7 +74,7 @@ export function elaborate(mods: ModuleDecl[], loc: (t: VTok) => SourceLoc, probl
     portGroups.set(m.name, groups);
   }
   for (const m of mods) {
-    if (cells[m.name]) {
+    if (Object.hasOwn(cells, m.name)) {
       problems.push({ severity: 'error', message: `module ${m.name} is defined twice`, tok: m.tok });
       continue;
     }
@@ -84,7 +85,7 @@ export function elaborate(mods: ModuleDecl[], loc: (t: VTok) => SourceLoc, probl
   function module(m: ModuleDecl): Cell {
     const devices: Device[] = [];
     const cell: Cell = { name: m.name, ports: [], devices, instances: [], loc: loc(m.tok) };
-    const directions: NonNullable<Cell['directions']> = {};
+    const directions = dict<'input' | 'output' | 'inout'>();
     for (const g of portGroups.get(m.name)!) {
       const dir = m.portDecls.get(g.name)?.dir ?? 'inout';
       for (const b of g.bits) {
@@ -93,7 +94,7 @@ export function elaborate(mods: ModuleDecl[], loc: (t: VTok) => SourceLoc, probl
       }
     }
     cell.directions = directions;
-    const netKinds: NonNullable<Cell['netKinds']> = {};
+    const netKinds = dict<NonNullable<Cell['netKinds']>[string]>();
     for (const [name, n] of m.nets) if (n.kind !== 'wire') for (const b of bitsOfRange(name, n.range, n.tok)) netKinds[b] = n.kind;
     const rangeOf = (name: string) => m.nets.get(name)?.range ?? m.portDecls.get(name)?.range;
     let counter = 0;

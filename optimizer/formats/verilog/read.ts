@@ -37,7 +37,7 @@ export function readVerilog(text: string, file: string, maxUnits = 2 * DEFAULT_L
     }
   }
   const design: Design = { title: top || file, format: 'verilog', top, cells, models: {}, globals: [], params: {}, extraCards: [] };
-  if (top && cells[top]) diags.push(...validateDesign(design, { cellNoun: 'module' }).filter((d) => d.code !== 'netlist.unknown-cell'));
+  if (top && Object.hasOwn(cells, top)) diags.push(...validateDesign(design, { cellNoun: 'module' }).filter((d) => d.code !== 'netlist.unknown-cell'));
   diags.sort((a, b) => (a.loc?.line ?? 0) - (b.loc?.line ?? 0) || (a.loc?.col ?? 0) - (b.loc?.col ?? 0));
   const shown = diags.slice(0, MAX_DIAGNOSTICS);
   if (shown.some((d) => d.severity === 'error')) throw new InputError(shown);

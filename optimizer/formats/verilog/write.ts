@@ -2,6 +2,7 @@
 // bit-level ports, gate primitives, pullups and positional instances. Names that are not plain
 // identifiers (bus bits "A[3]", deck names) are written as escaped identifiers. Transistor-level
 // devices and latches have no structural primitive here and are refused with a clear message.
+import { own } from '../../netlist/own';
 import { InputError } from '../../errors';
 import type { Cell, Design } from '../../netlist/ir';
 
@@ -41,7 +42,7 @@ export function writeVerilog(design: Design): string {
 function moduleText(cell: Cell): string {
   const v = verilogName;
   const lines = [`module ${v(cell.name)} (${cell.ports.map(v).join(', ')});`];
-  for (const p of cell.ports) lines.push(`  ${cell.directions?.[p] ?? 'inout'} ${v(p)};`);
+  for (const p of cell.ports) lines.push(`  ${own(cell.directions, p) ?? 'inout'} ${v(p)};`);
   const ports = new Set(cell.ports);
   const nets = new Set<string>();
   for (const d of cell.devices) for (const t of d.terminals) nets.add(t);
