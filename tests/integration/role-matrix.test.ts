@@ -7,6 +7,8 @@ import { DEMO_PASSWORD } from '@/server/db/seed';
 import { newToken, INVITE_TTL_MS } from '@/server/auth/tokens';
 import { listRoutes } from '@/server/http/list-routes';
 import { addMember, newClient, roleEmail, signIn, startHarness, type Client, type Harness } from './support/harness';
+import { createDesign } from '@/server/features/designs/service';
+import { demoDeck } from './support/workflow';
 import { LESSON_ROWS } from './lessons-matrix-rows';
 
 type Caller = Role | 'signed-out';
@@ -45,6 +47,51 @@ async function freshResetToken(h: Harness): Promise<string> {
   });
   return token;
 }
+
+// Review-workflow targets: one demo design per team (made once), fresh scans and proposals per call.
+type Fixtures = { designId: string; otherDesignId: string; revisionId: string };
+let fixtures: Promise<Fixtures> | undefined;
+function workflowFixtures(h: Harness): Promise<Fixtures> {
+  return (fixtures ??= (async () => {
+    const designer = (await h.db.models.User.findOne({ where: { email: roleEmail('designer') } }))!;
+    const outsider = (await h.db.models.User.findOne({ where: { email: 'ops@harrow.test' } }))!;
+    const file = { buffer: demoDeck('wren8-decoder.cir'), name: 'wren8-decoder.cir' };
+    const d = await createDesign(h.db, designer, h.demoTeamId, file, { name: 'Matrix decoder' });
+    const o = await createDesign(h.db, outsider, h.otherTeamId, file, { name: 'Other team decoder' });
+    const rev = (await h.db.models.Revision.findOne({ where: { designId: d.id } }))!;
+    return { designId: d.id, otherDesignId: o.id, revisionId: rev.id };
+  })());
+}
+async function freshScan(h: Harness): Promise<string> {
+  const f = await workflowFixtures(h);
+  const s = await h.db.models.Scan.create({ designId: f.designId, revisionId: f.revisionId, revisionNumber: 1, rules: null, startedBy: null, engineVersion: 'matrix' });
+  return s.id;
+}
+async function freshProposal(h: Harness): Promise<string> {
+  const f = await workflowFixtures(h);
+  const scanId = await freshScan(h);
+  const zero = { transistors: 0, resistors: 0, diodes: 0, capacitors: 0, gates: 0, parts: 0, areaMm2: 0, cost: 0 };
+  const p = await h.db.models.Proposal.create({
+    scanId, designId: f.designId, revisionId: f.revisionId, revisionNumber: 1, engineId: `matrix-${++seq}`, ruleId: 'double-inversion',
+    title: 'matrix proposal', message: 'm', location: { devices: [], instances: [], nets: [] },
+    edit: { removeDevices: [], addDevices: [], reconnect: [], mergeNets: [] }, savings: zero, savingsParts: 0,
+    verification: { status: 'proved', method: 'exhaustive', assumptions: [], compared: [], simulatedVectors: 0 }, margins: [],
+    assumptionIds: [], verdict: 'proved', marginStatus: 'pass', readiness: 'ready',
+  });
+  return p.id;
+}
+async function freshAssumption(h: Harness): Promise<string> {
+  const f = await workflowFixtures(h);
+  const a = await h.db.models.Assumption.create({ designId: f.designId, expression: '!(S0 & S1)', justification: 'matrix', ownerId: null });
+  return a.id;
+}
+async function freshBoard(h: Harness): Promise<string> {
+  const f = await workflowFixtures(h);
+  return (await h.db.models.Board.create({ designId: f.designId, name: 'matrix board', instances: [], budget: {} })).id;
+}
+const designers = (status: number): Record<Caller, number> => ({ ...everyone(403), admin: status, designer: status, 'signed-out': 401 });
+const reviewersOnly = (status: number): Record<Caller, number> => ({ ...everyone(403), admin: status, reviewer: status, 'signed-out': 401 });
+const d = async (h: Harness, rest = '') => `/api/designs/${(await workflowFixtures(h)).designId}${rest}`;
 
 const MATRIX: Row[] = [
   { route: 'GET /api/health', call: () => ({ method: 'get', path: '/api/health' }), expect: everyone(200) },
@@ -105,6 +152,65 @@ const MATRIX: Row[] = [
     expect: members(200),
   },
   { route: 'GET /api/audit', call: () => ({ method: 'get', path: '/api/audit' }), expect: adminsOnly(200) },
+  ...LESSON_ROWS,
+  { route: 'GET /api/designs', call: () => ({ method: 'get', path: '/api/designs' }), expect: members(200) },
+  { route: 'POST /api/designs (JSON, no file)', call: () => ({ method: 'post', path: '/api/designs', body: { name: 'x' } }), expect: designers(400) },
+  { route: 'GET /api/designs/:id', call: async (h) => ({ method: 'get', path: await d(h) }), expect: members(200) },
+  {
+    route: "GET /api/designs/:id (another team's)",
+    call: async (h) => ({ method: 'get', path: `/api/designs/${(await workflowFixtures(h)).otherDesignId}` }),
+    expect: members(404),
+  },
+  {
+    route: 'POST /api/designs/:id/revisions (apply on a moved revision)',
+    call: async (h) => ({ method: 'post', path: await d(h, '/revisions'), body: { applyProposalIds: [await freshProposal(h)], baseRevision: 5 } }),
+    expect: designers(409),
+  },
+  { route: 'GET /api/designs/:id/revisions/:rev/export', call: async (h) => ({ method: 'get', path: await d(h, '/revisions/1/export?format=json') }), expect: members(200) },
+  { route: 'GET /api/designs/:id/assumptions', call: async (h) => ({ method: 'get', path: await d(h, '/assumptions') }), expect: members(200) },
+  {
+    route: 'POST /api/designs/:id/assumptions',
+    call: async (h) => ({ method: 'post', path: await d(h, '/assumptions'), body: { expression: '!(S0 & S1)', justification: 'matrix' } }),
+    expect: designers(201),
+  },
+  {
+    route: 'PATCH /api/designs/:id/assumptions/:aid',
+    call: async (h) => ({ method: 'patch', path: await d(h, `/assumptions/${await freshAssumption(h)}`), body: { justification: 'changed' } }),
+    expect: designers(200),
+  },
+  {
+    route: 'DELETE /api/designs/:id/assumptions/:aid',
+    call: async (h) => ({ method: 'delete', path: await d(h, `/assumptions/${await freshAssumption(h)}`) }),
+    expect: designers(204),
+  },
+  { route: 'GET /api/designs/:id/boards', call: async (h) => ({ method: 'get', path: await d(h, '/boards') }), expect: members(200) },
+  {
+    route: 'POST /api/designs/:id/boards',
+    call: async (h) => ({ method: 'post', path: await d(h, '/boards'), body: { name: 'Card', instances: ['XN0'], budget: { parts: 10 } } }),
+    expect: designers(201),
+  },
+  {
+    route: 'PATCH /api/designs/:id/boards/:bid',
+    call: async (h) => ({ method: 'patch', path: await d(h, `/boards/${await freshBoard(h)}`), body: { budget: { cost: 2 } } }),
+    expect: designers(200),
+  },
+  { route: 'POST /api/designs/:id/scans', call: async (h) => ({ method: 'post', path: await d(h, '/scans'), body: {} }), expect: designers(202) },
+  { route: 'GET /api/scans/:id', call: async (h) => ({ method: 'get', path: `/api/scans/${await freshScan(h)}` }), expect: members(200) },
+  { route: 'POST /api/scans/:id/cancel', call: async (h) => ({ method: 'post', path: `/api/scans/${await freshScan(h)}/cancel` }), expect: designers(200) },
+  { route: 'GET /api/designs/:id/proposals', call: async (h) => ({ method: 'get', path: await d(h, '/proposals?sort=rule') }), expect: members(200) },
+  { route: 'GET /api/proposals/:id', call: async (h) => ({ method: 'get', path: `/api/proposals/${await freshProposal(h)}` }), expect: members(200) },
+  {
+    route: 'POST /api/proposals/:id/decision',
+    call: async (h) => ({ method: 'post', path: `/api/proposals/${await freshProposal(h)}/decision`, body: { decision: 'reject', reason: 'matrix' } }),
+    expect: reviewersOnly(200),
+  },
+  { route: 'GET /api/proposals/:id/comments', call: async (h) => ({ method: 'get', path: `/api/proposals/${await freshProposal(h)}/comments` }), expect: members(200) },
+  {
+    route: 'POST /api/proposals/:id/comments',
+    call: async (h) => ({ method: 'post', path: `/api/proposals/${await freshProposal(h)}/comments`, body: { body: 'a note' } }),
+    expect: { ...members(201), viewer: 403 },
+  },
+  { route: 'GET /api/review-queue', call: () => ({ method: 'get', path: '/api/review-queue' }), expect: members(200) },
   ...LESSON_ROWS,
   { route: 'GET /api/no-such-route', call: () => ({ method: 'get', path: '/api/no-such-route' }), expect: everyone(404) },
 ];
