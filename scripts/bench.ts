@@ -85,11 +85,11 @@ interface ChildResult {
   peakRssMiB: number;
 }
 
-function child(deckPath: string): void {
+function child(deckPath: string, stages: Stage[]): void {
   const ctx: BenchContext = { text: readFileSync(deckPath, 'utf8'), devices: 0 };
   const times: Record<string, number> = {};
   const cpu: Record<string, number> = {};
-  for (const s of STAGES) {
+  for (const s of stages) {
     const c0 = process.cpuUsage();
     const t0 = performance.now();
     s.run(ctx);
@@ -101,48 +101,61 @@ function child(deckPath: string): void {
   process.stdout.write(JSON.stringify(result) + '\n');
 }
 
+/** `--stages parse,flatten` runs only those stages (in table order); the default runs them all. */
+function selectedStages(argv: string[]): Stage[] {
+  const i = argv.indexOf('--stages');
+  if (i < 0) return STAGES;
+  const names = (argv[i + 1] ?? '').split(',');
+  const picked = STAGES.filter((s) => names.includes(s.name));
+  if (picked.length === 0) throw new Error(`--stages takes names from: ${STAGES.map((s) => s.name).join(', ')}`);
+  return picked;
+}
+
 function parent(): void {
   const dir = path.resolve(__dirname, '../bench-results');
   mkdirSync(dir, { recursive: true });
-  const only = process.argv.slice(2).filter((a) => !a.startsWith('--'));
+  const argv = process.argv.slice(2);
+  const stages = selectedStages(argv);
+  const stageArg = argv.includes('--stages') ? ['--stages', stages.map((s) => s.name).join(',')] : [];
+  const only = argv.filter((a, i) => !a.startsWith('--') && argv[i - 1] !== '--stages');
   const cases = only.length > 0 ? CASES.filter((c) => only.some((o) => c.label.startsWith(o))) : CASES;
-  const rows: string[][] = [];
-  const header = ['design', 'devices', 'deck MiB', ...STAGES.map((s) => `${s.name} s`), 'total s', 'µs/device', 'cpu s', 'peak RSS MiB'];
-  for (const c of cases) {
-    const deckPath = path.join(dir, `${c.label.replace(' ', '-')}.cir`);
-    writeFileSync(deckPath, writeSpice(generateBitSliced({ slices: slicesFor(c.transistors, c.family), family: c.family, flat: c.flat })));
-    const run = spawnSync(process.execPath, [...process.execArgv, __filename, '--child', deckPath], {
-      encoding: 'utf8',
-      maxBuffer: 16 * 1024 * 1024,
-    });
-    if (run.status !== 0) {
-      process.stderr.write(`${c.label}: child failed (status ${run.status})\n${run.stderr}\n`);
-      process.exitCode = 1;
-      continue;
-    }
-    const r = JSON.parse(run.stdout.trim().split('\n').pop()!) as ChildResult;
-    const total = Object.values(r.times).reduce((a, b) => a + b, 0);
-    rows.push([
-      c.label,
-      r.devices.toLocaleString('en-US'),
-      (statSync(deckPath).size / 2 ** 20).toFixed(1),
-      ...STAGES.map((s) => r.times[s.name].toFixed(3)),
-      total.toFixed(3),
-      ((total * 1e6) / r.devices).toFixed(2),
-      Object.values(r.cpu).reduce((a, b) => a + b, 0).toFixed(3),
-      r.peakRssMiB.toFixed(0),
-    ]);
-    process.stderr.write(`done ${c.label}\n`);
-  }
-  const widths = header.map((h, i) => Math.max(h.length, ...rows.map((r) => r[i].length)));
+  const header = ['design', 'devices', 'deck MiB', ...stages.map((s) => `${s.name} s`), 'total s', 'µs/device', 'cpu s', 'peak RSS MiB'];
+  const widths = header.map((h, i) => Math.max(h.length, i === 0 ? 9 : 9));
   const line = (cells: string[]) => cells.map((x, i) => (i === 0 ? x.padEnd(widths[i]) : x.padStart(widths[i]))).join('  ');
   console.log(`Trimwire bench — ${process.version}, ${new Date().toISOString()}, load average ${loadavg().map((x) => x.toFixed(1)).join(' ')} on ${cpus().length} cores`);
   console.log('RTL bit-sliced designs ("hier": one slice subcircuit instantiated; "flat": every device in the deck)');
   console.log('times are wall-clock seconds per stage; "cpu s" is processor time of all stages (GC threads included)');
   console.log(line(header));
   console.log(widths.map((w) => '-'.repeat(w)).join('  '));
-  for (const r of rows) console.log(line(r));
+  for (const c of cases) {
+    const deckPath = path.join(dir, `${c.label.replace(' ', '-')}.cir`);
+    writeFileSync(deckPath, writeSpice(generateBitSliced({ slices: slicesFor(c.transistors, c.family), family: c.family, flat: c.flat })));
+    const run = spawnSync(process.execPath, [...process.execArgv, __filename, '--child', deckPath, ...stageArg], {
+      encoding: 'utf8',
+      maxBuffer: 16 * 1024 * 1024,
+    });
+    if (run.status !== 0) {
+      console.log(line([c.label, `child failed (status ${run.status ?? run.signal})`]));
+      process.stderr.write(`${run.stderr}\n`);
+      process.exitCode = 1;
+      continue;
+    }
+    const r = JSON.parse(run.stdout.trim().split('\n').pop()!) as ChildResult;
+    const total = Object.values(r.times).reduce((a, b) => a + b, 0);
+    console.log(
+      line([
+        c.label,
+        r.devices.toLocaleString('en-US'),
+        (statSync(deckPath).size / 2 ** 20).toFixed(1),
+        ...stages.map((s) => r.times[s.name].toFixed(3)),
+        total.toFixed(3),
+        ((total * 1e6) / r.devices).toFixed(2),
+        Object.values(r.cpu).reduce((a, b) => a + b, 0).toFixed(3),
+        r.peakRssMiB.toFixed(0),
+      ]),
+    );
+  }
 }
 
-if (process.argv[2] === '--child') child(process.argv[3]);
+if (process.argv[2] === '--child') child(process.argv[3], selectedStages(process.argv));
 else parent();
