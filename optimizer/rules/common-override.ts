@@ -10,7 +10,7 @@ import type { MarginResult } from '../margins/corners';
 import type { Model } from '../netlist/ir';
 import { defineRule } from './define-rule';
 import { chunked, fewestParts, worstPerName, type Chunk } from './support/chunks';
-import { DriverLoadIndex } from './support/driver-loads';
+import { NetIndex } from './support/net-index';
 import { betaMinOfDevice } from './support/driver-margins';
 import { steeredForcedBeta, steeredLowLevel, steeredSinkCurrent } from './support/override-margins';
 import { describePlaces } from './support/finding-words';
@@ -87,14 +87,14 @@ function receiverFamilies(readers: Map<string, LogicNode[]>, line: LogicNode): M
   return r.length ? r.map((n) => n.family) : [line.family];
 }
 
-function chunkMargins(ctx: RuleContext, ov: Override[], chunk: Chunk, loads: DriverLoadIndex, readers: Map<string, LogicNode[]>): MarginResult[] {
+function chunkMargins(ctx: RuleContext, ov: Override[], chunk: Chunk, loads: NetIndex, readers: Map<string, LogicNode[]>): MarginResult[] {
   const members = [chunk.keep, ...chunk.others];
   if (members.length < 2) return [];
   const nodes = members.map((i) => ctx.view.nodes[ov[i].node]);
   const vcc = nodes[0].pullUp!.railVolts;
   const load = {
     linePullUps: nodes.flatMap((n) => n.pullUps.map((u) => u.ohms).filter((x): x is number => x !== undefined)),
-    inputPullUps: nodes.flatMap((n) => loads.loadsOf(n.net).diodeInputs.map((d) => d.pullUpOhms)),
+    inputPullUps: nodes.flatMap((n) => loads.driverLoads(n.net).diodeInputs.map((d) => d.pullUpOhms)),
   };
   const kept = ov[chunk.keep];
   const out: MarginResult[] = [steeredSinkCurrent({ vcc, load }, ctx.margins)];
@@ -194,7 +194,7 @@ export const commonOverride = defineRule({
     const byControl = new Map<string, number[]>();
     ov.forEach((o, i) => byControl.set(o.control, [...(byControl.get(o.control) ?? []), i]));
     const nl = ctx.netlist;
-    const loads = new DriverLoadIndex(nl, ctx.view);
+    const loads = new NetIndex(nl, ctx.view);
     const readers = new Map<string, LogicNode[]>();
     for (const n of ctx.view.nodes) for (const i of n.inputs) readers.set(i, [...(readers.get(i) ?? []), n]);
     for (const [key, members] of byControl) {

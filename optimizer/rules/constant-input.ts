@@ -10,7 +10,7 @@ import type { MapFamily } from '../logic/family-parts';
 import { defineRule } from './define-rule';
 import { fixedByAssumptions, type FixedValue } from './support/fixed-nets';
 import { instancesOf, listWords, placeOf } from './support/finding-words';
-import { lineLoads, lineMargins } from './support/line-load-margins';
+import { lineLoads, lineMargins } from './support/driver-margins';
 import { NetIndex } from './support/net-index';
 import { emptyEdit, type Edit, type FindingReport, type RuleContext } from './types';
 

@@ -8,7 +8,7 @@ import type { MapFamily } from '../logic/family-parts';
 import { support } from '../logic/expr';
 import { defineRule } from './define-rule';
 import { instancesOf, placeOf } from './support/finding-words';
-import { lineLoads, lineMargins } from './support/line-load-margins';
+import { lineLoads, lineMargins } from './support/driver-margins';
 import { NetIndex } from './support/net-index';
 import { emptyEdit } from './types';
 

@@ -7,7 +7,7 @@ import type { MapFamily } from '../logic/family-parts';
 import type { MarginResult } from '../margins/corners';
 import { defineRule } from './define-rule';
 import { instancesOf, listWords, placeOf } from './support/finding-words';
-import { failing, lineLoads, lineMargins, type LineLoad } from './support/line-load-margins';
+import { failing, lineLoads, lineMargins, type LineLoad } from './support/driver-margins';
 import { NetIndex } from './support/net-index';
 import { sameFunctionClasses } from './support/same-function';
 import { emptyEdit, type Edit } from './types';

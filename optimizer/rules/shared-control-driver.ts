@@ -8,7 +8,7 @@ import { checkEquivalence } from '../verify/equivalence';
 import { defineRule } from './define-rule';
 import { sharedDriverMargins } from './support/driver-margins';
 import { deviceOwnerCounts, sameFunctionClasses } from './support/same-function';
-import { DriverLoadIndex, mergeDriverLoads, type DriverLoads } from './support/driver-loads';
+import { NetIndex, mergeDriverLoads, type DriverLoads } from './support/net-index';
 import { describePlaces } from './support/finding-words';
 import { chunked, fewestParts, worstPerName, type Chunk } from './support/chunks';
 import { emptyEdit, type Edit } from './types';
@@ -43,10 +43,10 @@ export const sharedControlDriver = defineRule({
       accept: (node) => node.groups.length === 1 && node.devices.every((d) => owners[d] === 1),
     });
     if (classes.length === 0) return;
-    const index = new DriverLoadIndex(nl, view);
+    const index = new NetIndex(nl, view);
     for (const cls of classes) {
       const nodes = cls.members.map((i) => view.nodes[i]);
-      const loads = new Map<number, DriverLoads>(cls.members.map((i) => [i, index.loadsOf(view.nodes[i].net)]));
+      const loads = new Map<number, DriverLoads>(cls.members.map((i) => [i, index.driverLoads(view.nodes[i].net)]));
       const before: Record<string, Expr> = Object.fromEntries(nodes.map((n) => [n.name, n.fn]));
       const after: Record<string, Expr> = Object.fromEntries(nodes.map((n) => [n.name, nodes[0].fn]));
       if (checkEquivalence(before, after).verdict !== 'proved') continue;

@@ -1,6 +1,7 @@
-// Margin checks of one driver made to carry the loads of several: fan-out; for a pulled-up
-// bipolar output, the loaded high level and load base current of resistor-fed bases, and the sink
-// current and forced β its own transistor needs for diode inputs it must pull low.
+// Margin checks of a driver or line made to carry more loads (a shared driver, a merged driver,
+// a bypassed inverter pair): fan-out; for a pulled-up bipolar output, the loaded high level and
+// load base current of resistor-fed bases, and the sink current and forced β its own transistor
+// needs for diode inputs it must pull low (optimizer/margins formulas, worst corners).
 import type { LogicNode } from '../../extract/types';
 import type { MapFamily } from '../../logic/family-parts';
 import { forcedBeta, loadBaseCurrent, loadedHighLevel, sinkCurrent } from '../../margins/bipolar';
@@ -8,7 +9,7 @@ import type { MarginResult } from '../../margins/corners';
 import { betaMinOf, type MarginSettings } from '../../margins/defaults';
 import { fanOut } from '../../margins/line';
 import type { FlatNetlist } from '../../netlist/ir';
-import { equivalentBaseResistor, type DriverLoads } from './driver-loads';
+import { equivalentBaseResistor, type DriverLoads, type NetIndex } from './net-index';
 
 /** β_min of a transistor from its model (BF derated) or the family default. */
 export function betaMinOfDevice(nl: FlatNetlist, device: number, s: MarginSettings): number {
@@ -58,3 +59,74 @@ export function sharedDriverMargins(nl: FlatNetlist, driver: LogicNode, loads: D
   }
   return out;
 }
+
+/** One load on a line: a base resistor (RTL) with what that base must saturate, or a plain input. */
+export interface LineLoad {
+  device: number;
+  rb?: number;
+  /** Smallest collector pull-up the loaded transistor must saturate, ohms. */
+  loadPullUp?: number;
+  betaMin?: number;
+}
+
+/** Loads of a net as fan-out counts them (one per reading node), with base-resistor detail. */
+export function lineLoads(idx: NetIndex, net: number, s: MarginSettings, except: Set<number> = new Set()): LineLoad[] {
+  const out: LineLoad[] = [];
+  const seenOwner = new Set<number>();
+  for (const l of idx.loads(net)) {
+    if (except.has(l.device)) continue;
+    const dev = idx.nl.devices[l.device];
+    if (l.owner >= 0) {
+      const node = idx.view.nodes[l.owner];
+      const base = dev.kind === 'resistor' ? node.groups.flatMap((g) => g.bases).find((b) => b.baseResistors.some((r) => r.device === l.device)) : undefined;
+      if (base) {
+        const q = idx.nl.devices[base.transistor];
+        out.push({
+          device: l.device,
+          rb: dev.value,
+          loadPullUp: node.pullUps.filter((u) => u.ohms).reduce<number | undefined>((m, u) => (m === undefined ? u.ohms : Math.min(m, u.ohms!)), undefined),
+          betaMin: betaMinOfDevice(idx.nl as FlatNetlist, base.transistor, s),
+        });
+        continue;
+      }
+      if (seenOwner.has(l.owner)) continue;
+      seenOwner.add(l.owner);
+    }
+    out.push({ device: l.device });
+  }
+  return out;
+}
+
+/** Fan-out, and loaded high level / load base current where the line is an RTL resistor pull-up. */
+export function lineMargins(driver: LogicNode | undefined, loads: LineLoad[], family: MapFamily, s: MarginSettings): MarginResult[] {
+  const out: MarginResult[] = [fanOut({ loads: loads.length, family }, s)];
+  if (!driver) {
+    out[0] = { ...out[0], note: `${out[0].note}; the line is driven from outside this design — check its driver's data sheet` };
+    return out;
+  }
+  const rc = driver.pullUp?.kind === 'resistor' ? driver.pullUp.ohms : undefined;
+  const bases = loads.filter((l) => l.rb !== undefined);
+  if (rc === undefined || bases.length === 0 || bases.length !== loads.length) return out;
+  const vcc = driver.pullUp!.railVolts;
+  const rb = Math.min(...bases.map((l) => l.rb!));
+  out.push(loadedHighLevel({ vcc, rc, rb, loads: bases.length, receiver: family === 'dtl' ? 'dtl' : 'rtl' }, s));
+  const withLoad = bases.filter((l) => l.loadPullUp !== undefined);
+  if (withLoad.length) {
+    out.push(
+      loadBaseCurrent(
+        {
+          vcc,
+          rc,
+          rb,
+          loads: bases.length,
+          loadPullUp: Math.min(...withLoad.map((l) => l.loadPullUp!)),
+          betaMin: Math.min(...withLoad.map((l) => l.betaMin ?? s.defaultBetaMin)),
+        },
+        s,
+      ),
+    );
+  }
+  return out;
+}
+
+export const failing = (ms: MarginResult[]): boolean => ms.some((m) => m.status === 'fail');

@@ -1,8 +1,35 @@
 // Who drives and who reads each net of a logic view: device → owning node, the load devices on a
-// net (terminals of devices that are not the net's own driver), and the distinct loads a fan-out
-// check counts. Built once per rule run; linear in the design's terminals.
+// net (terminals of devices that are not the net's own driver), the distinct loads a fan-out
+// check counts, and the loads by kind a shared driver must carry (RTL bases through resistors with
+// their collector pull-ups, DTL input diodes with the pull-up the driver sinks, direct inputs).
+// Built once per rule run; linear in the design's terminals.
+import { resistorPullUps } from '../../extract/bipolar';
+import { makeContext, otherEnd, type ExtractContext } from '../../extract/context';
 import type { LogicNode, LogicView } from '../../extract/types';
 import type { FlatNetlist } from '../../netlist/ir';
+
+export interface ResistorLoad {
+  /** Base resistor (device index) and its ohms. */
+  resistor: number;
+  ohms: number;
+  /** The load transistor and its collector pull-up ohms, when it has one. */
+  transistor: number;
+  collectorPullUp?: number;
+}
+
+export interface DiodeLoad {
+  diode: number;
+  /** Pull-up of the diode node: the current the driver sinks while low. */
+  pullUpOhms: number;
+}
+
+export interface DriverLoads {
+  resistorBases: ResistorLoad[];
+  diodeInputs: DiodeLoad[];
+  /** Bases on the net itself, MOS gates, gate-level inputs. */
+  direct: number;
+  total: number;
+}
 
 export interface Load {
   device: number;
@@ -104,4 +131,61 @@ export class NetIndex {
   ownsAlone(node: LogicNode): boolean {
     return node.devices.every((d) => this.ownerCount[d] === 1);
   }
+
+  private cxCache?: ExtractContext;
+  private get cx(): ExtractContext {
+    return (this.cxCache ??= makeContext(this.nl as FlatNetlist));
+  }
+
+  private baseTransistor(net: number): number {
+    for (const { device, terminal } of this.terminals(net)) {
+      const k = this.nl.devices[device].kind;
+      if ((k === 'npn' || k === 'pnp') && terminal === 1) return device;
+    }
+    return -1;
+  }
+
+  private collectorPullUp(transistor: number): number | undefined {
+    const col = this.nl.devices[transistor].terminals[0];
+    return this.nodeOfNet(col)?.pullUp?.ohms ?? resistorPullUps(this.cx, col)[0]?.ohms;
+  }
+
+  /** Every terminal on the net by load kind, for a shared driver's margins. */
+  driverLoads(net: number): DriverLoads {
+    const out: DriverLoads = { resistorBases: [], diodeInputs: [], direct: 0, total: 0 };
+    for (const { device: d, terminal: t } of this.terminals(net)) {
+      const dev = this.nl.devices[d];
+      if (dev.kind === 'resistor') {
+        const far = otherEnd(this.cx, d, t);
+        if (far === net) continue;
+        const q = this.baseTransistor(far);
+        if (q >= 0 && dev.value !== undefined) {
+          const pull = this.collectorPullUp(q);
+          out.resistorBases.push({ resistor: d, ohms: dev.value, transistor: q, ...(pull !== undefined ? { collectorPullUp: pull } : {}) });
+        }
+      } else if (dev.kind === 'diode' && t === 1) {
+        const pulls = resistorPullUps(this.cx, dev.terminals[0]);
+        if (pulls.length && pulls[0].ohms !== undefined) out.diodeInputs.push({ diode: d, pullUpOhms: pulls[0].ohms });
+      } else if ((dev.kind === 'npn' || dev.kind === 'pnp' || dev.kind === 'nmos' || dev.kind === 'pmos') && t === 1) out.direct++;
+      else if (dev.kind === 'gate' && t >= 1 && dev.op !== 'pullup' && dev.op !== 'pulldown') out.direct++;
+    }
+    out.total = out.resistorBases.length + out.diodeInputs.length + out.direct;
+    return out;
+  }
+}
+
+export function mergeDriverLoads(list: DriverLoads[]): DriverLoads {
+  const out: DriverLoads = { resistorBases: [], diodeInputs: [], direct: 0, total: 0 };
+  for (const l of list) {
+    out.resistorBases.push(...l.resistorBases);
+    out.diodeInputs.push(...l.diodeInputs);
+    out.direct += l.direct;
+    out.total += l.total;
+  }
+  return out;
+}
+
+/** The equal base resistor that loads a line like these do together: N / Σ 1/R_B,i. */
+export function equivalentBaseResistor(loads: ResistorLoad[]): number {
+  return loads.length / loads.reduce((s, l) => s + 1 / l.ohms, 0);
 }
