@@ -2,42 +2,9 @@
 // continuous assignments, pullups, module instances). Behavioural code is refused with a located
 // error; after an error the parser skips to the next `;` so one pass reports every problem.
 import type { VTok } from './lexer';
+import { constBits, type Dir, type Expr, type ModuleDecl, type NetKind, type ParseProblem, type Range } from './ast';
 
-export interface Range {
-  msb: number;
-  lsb: number;
-}
-
-export type Expr =
-  | { k: 'id'; name: string; tok: VTok }
-  | { k: 'bit'; name: string; index: number; tok: VTok }
-  | { k: 'slice'; name: string; msb: number; lsb: number; tok: VTok }
-  | { k: 'const'; bits: string; tok: VTok }
-  | { k: 'concat'; parts: Expr[]; tok: VTok }
-  | { k: 'not'; a: Expr; tok: VTok }
-  | { k: 'bin'; op: '&' | '|' | '^' | '~^'; a: Expr; b: Expr; tok: VTok }
-  | { k: 'cond'; c: Expr; a: Expr; b: Expr; tok: VTok };
-
-export type Dir = 'input' | 'output' | 'inout';
-export type NetKind = 'wire' | 'tri' | 'wand' | 'wor' | 'supply0' | 'supply1';
-
-export interface ModuleDecl {
-  name: string;
-  tok: VTok;
-  headerPorts: { name: string; tok: VTok }[];
-  portDecls: Map<string, { dir: Dir; range?: Range; tok: VTok }>;
-  nets: Map<string, { kind: NetKind; range?: Range; tok: VTok }>;
-  gates: { prim: string; name?: string; terms: Expr[]; tok: VTok }[];
-  assigns: { lhs: Expr; rhs: Expr; tok: VTok }[];
-  pulls: { op: 'pullup' | 'pulldown'; name?: string; net: Expr; tok: VTok }[];
-  insts: { cell: string; name: string; positional?: Expr[]; named?: Map<string, { expr: Expr | null; tok: VTok }>; tok: VTok }[];
-}
-
-export interface ParseProblem {
-  severity: 'error' | 'warning';
-  message: string;
-  tok: VTok;
-}
+export type { Dir, Expr, ModuleDecl, NetKind, ParseProblem, Range } from './ast';
 
 export const PRIMITIVES = new Set(['and', 'or', 'nand', 'nor', 'xor', 'xnor', 'not', 'buf', 'bufif0', 'bufif1', 'notif0', 'notif1']);
 const NET_KINDS = new Set(['wire', 'tri', 'wand', 'wor', 'supply0', 'supply1']);
@@ -388,42 +355,6 @@ export function parseVerilog(toks: VTok[], problems: ParseProblem[]): ModuleDecl
     } while (peek().text === ',' && next());
     expect(';');
   }
-}
-
-/** Bits of a constant, most significant first, or undefined for x/z-free parsing failures. */
-export function constBits(t: VTok): string | undefined {
-  const s = t.text.replace(/_/g, '');
-  const m = /^(\d*)'[sS]?([bBoOdDhH])([0-9a-fA-FxXzZ?]+)$/.exec(s);
-  let width: number;
-  let bits: string;
-  if (!m) {
-    if (!/^\d+$/.test(s)) return undefined;
-    const v = BigInt(s);
-    width = 32;
-    bits = v.toString(2);
-  } else {
-    width = m[1] ? Number(m[1]) : 32;
-    const base = m[2].toLowerCase();
-    const digits = m[3].toLowerCase().replace(/\?/g, 'z');
-    const per = base === 'b' ? 1 : base === 'o' ? 3 : base === 'h' ? 4 : 0;
-    if (per === 0) {
-      if (!/^\d+$/.test(digits)) return undefined;
-      bits = BigInt(digits).toString(2);
-    } else {
-      const radix = per === 1 ? 2 : per === 3 ? 8 : 16;
-      bits = [...digits]
-        .map((d) => {
-          if (d === 'x' || d === 'z') return d.repeat(per);
-          const v = parseInt(d, radix);
-          return Number.isNaN(v) ? 'NaN' : v.toString(2).padStart(per, '0');
-        })
-        .join('');
-      if (/[^01xz]/.test(bits) || bits.includes('NaN')) return undefined;
-    }
-  }
-  if (width < 1 || width > 4096) return undefined;
-  const pad = bits[0] === 'x' || bits[0] === 'z' ? bits[0] : '0';
-  return bits.length >= width ? bits.slice(bits.length - width) : pad.repeat(width - bits.length) + bits;
 }
 
 function show(t: VTok): string {
