@@ -42,7 +42,7 @@ const STAGES: Stage[] = [
   {
     name: 'flatten',
     run(ctx) {
-      ctx.flat = flatten(ctx.design!, { maxDevices: 5_000_000 });
+      ctx.flat = flatten(ctx.design!);
       ctx.devices = ctx.flat.devices.length;
     },
   },

@@ -10,9 +10,13 @@ export interface Limits {
   maxDepth: number;
 }
 
+/**
+ * 4M devices admits a 1M-transistor bipolar design with its resistors (about 2.6M devices, ~1.2 GB
+ * flattened) while keeping the worst case inside the memory goal of 3 GB.
+ */
 export const DEFAULT_LIMITS: Readonly<Limits> = Object.freeze({
   maxFileBytes: 8 * 1024 * 1024,
-  maxDevices: 2_000_000,
+  maxDevices: 4_000_000,
   maxDepth: 32,
 });
 
