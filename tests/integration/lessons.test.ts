@@ -1,6 +1,8 @@
 // Lessons API against real PostgreSQL: build from a revision and chosen proposals, sections kept in
 // the order sent, drafts hidden from all but author and admins, duplicate/publish/delete, bad input
 // and other teams' resources; the explorer's data and the server's what-if equal the engine's.
+import fs from 'node:fs';
+import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { runWhatIf, type ExplorerData } from '@/optimizer/whatif';
 import { LessonSchema, LessonListResponseSchema } from '@/shared/api/lessons';
@@ -203,6 +205,32 @@ describe('explorer and what-if', () => {
     expect(unknown.body.error.message).toMatch(/no proposal/);
     const bad = await post(as.viewer!, `/api/lessons/${lessonId}/whatif`, { settings: { supplyVolts: -5 }, enabled: [] });
     expect(bad.status).toBe(400);
+  });
+
+  it('answers the recorded cases the browser-side test replays exactly as recorded', async () => {
+    // components/data/use-lessons.test.ts runs the engine under happy-dom on the same inputs and
+    // checks it against these server results; this test keeps the recording true to the server.
+    const file = path.resolve(__dirname, '../fixtures/whatif/wren8-lesson.json');
+    const names = new Map(data.inputs.proposals.map((p) => [p.id, `proposal:${p.ruleId}`]));
+    const ids = new Map([...names].map(([id, name]) => [name, id]));
+    const norm = (x: unknown) => JSON.parse(JSON.stringify(x, (_k, v: unknown) => (typeof v === 'string' && names.has(v) ? names.get(v) : v))) as unknown;
+    const bus = 'proposal:tristate-slim';
+    const strobe = 'proposal:two-level-minimise';
+    const cases = [
+      { settings: {}, enabled: [] },
+      { settings: {}, enabled: [bus, strobe] },
+      { settings: { pullUpOhms: 12_000 }, enabled: [bus] },
+      { settings: { clockPeriod: 4e-7, loads: 5, supplyVolts: 4.5 }, enabled: [bus, strobe] },
+      { settings: { betaMin: 15, pullUpOhms: 1_000 }, enabled: [strobe] },
+    ];
+    const recorded = { inputs: norm(data.inputs), cases: [] as unknown[] };
+    for (const c of cases) {
+      const res = await post(as.viewer!, `/api/lessons/${lessonId}/whatif`, { settings: c.settings, enabled: c.enabled.map((n) => ids.get(n)) });
+      expect(res.status).toBe(200);
+      recorded.cases.push({ ...c, server: norm(res.body) });
+    }
+    if (process.env.UPDATE_WHATIF_FIXTURE === '1') fs.writeFileSync(file, `${JSON.stringify(recorded, null, 2)}\n`);
+    expect(recorded, 'server results changed: rerun with UPDATE_WHATIF_FIXTURE=1 and review the diff').toEqual(JSON.parse(fs.readFileSync(file, 'utf8')));
   });
 
   it('opens a design’s explorer for its team with the revision’s proposals', async () => {
