@@ -10,7 +10,7 @@ import type { FlatNetlist } from '../netlist/ir';
 import { applyProposals } from '../rewrite/apply';
 import { commonOverride } from './common-override';
 import { scan } from './scan';
-import { assumption, countDelta, deckExamples, deckNetlist, runOne } from './support/rule-test-kit';
+import { assumption, checkDeckExample, countDelta, deckExamples, deckNetlist, runOne } from './support/rule-test-kit';
 import type { Rule } from './types';
 
 const rule = commonOverride as unknown as Rule;
@@ -183,17 +183,5 @@ describe('common-override: invalid (findings)', () => {
 describe('common-override: doc examples', () => {
   const examples = deckExamples(path.join(__dirname, 'common-override.md'));
   it('has examples', () => expect(examples.length).toBeGreaterThanOrEqual(3));
-  it.each(examples.map((e) => [e.label, e] as const))('%s', async (_l, ex) => {
-    const nl = deckNetlist(ex.deck);
-    const r = await runOne(rule, nl, { assumptions: ex.assumptions });
-    expect(r.ruleErrors).toEqual([]);
-    if (ex.expect.messageId === null) {
-      expect(r.findings).toEqual([]);
-      return;
-    }
-    expect(r.findings.map((f) => f.messageId)).toEqual([ex.expect.messageId]);
-    for (const [k, v] of Object.entries(ex.expect.data)) expect(String(r.findings[0].data[k])).toBe(v);
-    const d = countDelta(nl, r.findings[0].proposals[0]);
-    expect(d.actual).toEqual(d.stated);
-  });
+  it.each(examples.map((e) => [e.label, e] as const))('%s', (_l, ex) => checkDeckExample(rule, ex));
 });

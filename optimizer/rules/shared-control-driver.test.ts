@@ -5,7 +5,7 @@ import { describe, expect, it } from 'vitest';
 import { NetlistBuilder } from '../netlist/build';
 import type { FlatNetlist } from '../netlist/ir';
 import { sharedControlDriver } from './shared-control-driver';
-import { countDelta, deckNetlist, deckExamples, runOne } from './support/rule-test-kit';
+import { checkDeckExample, countDelta, deckExamples, deckNetlist, runOne } from './support/rule-test-kit';
 import { sliceInverters } from './test-helpers';
 import type { Rule } from './types';
 
@@ -217,17 +217,5 @@ describe('shared-control-driver: invalid (findings)', () => {
 describe('shared-control-driver: doc examples', () => {
   const examples = deckExamples(path.join(__dirname, 'shared-control-driver.md'));
   it('has examples', () => expect(examples.length).toBeGreaterThanOrEqual(3));
-  it.each(examples.map((e) => [e.label, e] as const))('%s', async (_l, ex) => {
-    const nl = deckNetlist(ex.deck);
-    const r = await runOne(rule, nl, { assumptions: ex.assumptions });
-    expect(r.ruleErrors).toEqual([]);
-    if (ex.expect.messageId === null) {
-      expect(r.findings).toEqual([]);
-      return;
-    }
-    expect(r.findings.map((f) => f.messageId)).toEqual([ex.expect.messageId]);
-    for (const [k, v] of Object.entries(ex.expect.data)) expect(String(r.findings[0].data[k])).toBe(v);
-    const d = countDelta(nl, r.findings[0].proposals[0]);
-    expect(d.actual).toEqual(d.stated);
-  });
+  it.each(examples.map((e) => [e.label, e] as const))('%s', (_l, ex) => checkDeckExample(rule, ex));
 });

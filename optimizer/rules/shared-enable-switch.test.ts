@@ -8,7 +8,7 @@ import { NetlistBuilder } from '../netlist/build';
 import type { FlatNetlist } from '../netlist/ir';
 import { applyProposals } from '../rewrite/apply';
 import { sharedEnableSwitch } from './shared-enable-switch';
-import { countDelta, deckExamples, deckNetlist, runOne } from './support/rule-test-kit';
+import { checkDeckExample, countDelta, deckExamples, deckNetlist, runOne } from './support/rule-test-kit';
 import type { Rule } from './types';
 
 const rule = sharedEnableSwitch as unknown as Rule;
@@ -132,17 +132,5 @@ describe('shared-enable-switch: invalid (findings)', () => {
 describe('shared-enable-switch: doc examples', () => {
   const examples = deckExamples(path.join(__dirname, 'shared-enable-switch.md'));
   it('has examples', () => expect(examples.length).toBeGreaterThanOrEqual(2));
-  it.each(examples.map((e) => [e.label, e] as const))('%s', async (_l, ex) => {
-    const nl = deckNetlist(ex.deck);
-    const r = await runOne(rule, nl, { assumptions: ex.assumptions });
-    expect(r.ruleErrors).toEqual([]);
-    if (ex.expect.messageId === null) {
-      expect(r.findings).toEqual([]);
-      return;
-    }
-    expect(r.findings.map((f) => f.messageId)).toEqual([ex.expect.messageId]);
-    for (const [k, v] of Object.entries(ex.expect.data)) expect(String(r.findings[0].data[k])).toBe(v);
-    const d = countDelta(nl, r.findings[0].proposals[0]);
-    expect(d.actual).toEqual(d.stated);
-  });
+  it.each(examples.map((e) => [e.label, e] as const))('%s', (_l, ex) => checkDeckExample(rule, ex));
 });

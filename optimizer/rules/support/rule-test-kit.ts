@@ -2,6 +2,7 @@
 // as text or with ids, the savings property (applying a proposal changes part counts by exactly
 // its stated savings), and reading a rule doc's fenced SPICE-style examples so they are tests.
 import { readFileSync } from 'node:fs';
+import { expect } from 'vitest';
 import { partsOf, editSavings, type Savings } from '../../cost/cost';
 import { extractLogic } from '../../extract';
 import { readSpice } from '../../formats/spice/read';
@@ -159,4 +160,22 @@ export function deckExamples(mdPath: string): DeckExample[] {
     out.push({ label: deck.split('\n')[0].trim(), deck, expect: { messageId: head === 'none' ? null : head, data }, assumptions });
   }
   return out;
+}
+
+/**
+ * Runs one deck example through `rule` and checks what its `* expect:` line says: no finding, or
+ * one finding with that message id and data, whose proposal changes part counts by its savings.
+ */
+export async function checkDeckExample(rule: Rule, ex: DeckExample): Promise<void> {
+  const nl = deckNetlist(ex.deck);
+  const r = await runOne(rule, nl, { assumptions: ex.assumptions });
+  expect(r.ruleErrors).toEqual([]);
+  if (ex.expect.messageId === null) {
+    expect(r.findings).toEqual([]);
+    return;
+  }
+  expect(r.findings.map((f) => f.messageId)).toEqual([ex.expect.messageId]);
+  for (const [k, v] of Object.entries(ex.expect.data)) expect(String(r.findings[0].data[k])).toBe(v);
+  const d = countDelta(nl, r.findings[0].proposals[0]);
+  expect(d.actual).toEqual(d.stated);
 }

@@ -63,6 +63,9 @@ function vectorsFor(inputs: string[], limit: number): Record<string, 0 | 1>[] {
   return out;
 }
 
+/** The region netlist with the edit applied. */
+const editedRegion = (region: FlatNetlist, edit: Edit): FlatNetlist => applyProposals(region, [{ id: 'region', title: 'region', edit, assumptions: [], margins: [] }]);
+
 export interface SneakReport {
   /** Input vectors on which some output differs after the edit (or newly contends or floats). */
   bad: { vector: Record<string, 0 | 1>; nets: string[] }[];
@@ -79,7 +82,7 @@ export function sneakCheck(
   allowed?: (vector: Record<string, 0 | 1>) => boolean,
 ): SneakReport {
   const before = subNetlist(nl, devices);
-  const after = applyProposals(before, [{ id: 'region', title: 'region', edit, assumptions: [], margins: [] }]);
+  const after = editedRegion(before, edit);
   const vectors = vectorsFor(inputs, exhaustiveLimit).filter((v) => !allowed || allowed(v));
   if (vectors.length === 0) return { bad: [], vectors: 0 };
   const watch = outputs.filter((o) => after.netByName.has(o));
@@ -124,7 +127,7 @@ export function contentionVectors(
   outputs: string[],
   exhaustiveLimit = 10,
 ): { vector: Record<string, 0 | 1>; nets: string[] }[] {
-  const after = applyProposals(subNetlist(nl, devices), [{ id: 'region', title: 'region', edit, assumptions: [], margins: [] }]);
+  const after = editedRegion(subNetlist(nl, devices), edit);
   const vectors = vectorsFor(inputs, exhaustiveLimit);
   const watch = outputs.filter((o) => after.netByName.has(o));
   const r = simulate(after, { kind: 'vectors', vectors }, { watch });
