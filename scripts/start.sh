@@ -32,5 +32,13 @@ fi
 step "Web build"
 export_web
 
+step "Scan worker (more can run: tsx server/jobs/worker.ts against the same DATABASE_URL)"
+mkdir -p "$DATA_DIR"
+setsid "$TSX" server/jobs/worker.ts >"$DATA_DIR/worker.log" 2>&1 </dev/null &
+WORKER_PID=$!
+info "worker process group $WORKER_PID (log: .data/worker.log)"
+# The worker has its own process group (setsid); stop it with the server.
+trap 'kill -TERM -- "-$WORKER_PID" 2>/dev/null || true' EXIT
+
 step "Serving http://127.0.0.1:$PORT"
-exec "$TSX" server/index.ts
+"$TSX" server/index.ts

@@ -62,10 +62,17 @@ export async function createDesign(db: Db, user: User, teamId: string, file: { b
 }
 
 export async function designDetail(db: Db, design: Design): Promise<DesignDetail> {
-  const revisions = await db.models.Revision.findAll({ where: { designId: design.id }, order: [['number', 'ASC']], attributes: { exclude: ['source'] } });
-  const latestScan = await db.models.Scan.findOne({ where: { designId: design.id }, order: [['createdAt', 'DESC']] });
-  const labels = await userLabels(db, [design.createdBy, latestScan?.startedBy, ...revisions.map((r) => r.createdBy)]);
-  const latest = revisions.length ? await db.models.Revision.findByPk(revisions[revisions.length - 1]!.id) : null;
+  // Independent reads in parallel: this is the most-read page.
+  const [revisions, latestScan, latest, assumptions] = await Promise.all([
+    db.models.Revision.findAll({ where: { designId: design.id }, order: [['number', 'ASC']], attributes: { exclude: ['source'] } }),
+    db.models.Scan.findOne({ where: { designId: design.id }, order: [['createdAt', 'DESC']] }),
+    db.models.Revision.findOne({ where: { designId: design.id }, order: [['number', 'DESC']] }),
+    listAssumptions(db, design.id),
+  ]);
+  const [labels, boards] = await Promise.all([
+    userLabels(db, [design.createdBy, latestScan?.startedBy, ...revisions.map((r) => r.createdBy)]),
+    latest ? listBoards(db, design, latest) : Promise.resolve([]),
+  ]);
   return {
     id: design.id,
     name: design.name,
@@ -73,8 +80,8 @@ export async function designDetail(db: Db, design: Design): Promise<DesignDetail
     teamId: design.teamId,
     createdBy: labelOf(labels, design.createdBy),
     revisions: revisionDtos(revisions, labels),
-    boards: latest ? await listBoards(db, design, latest) : [],
-    assumptions: await listAssumptions(db, design.id),
+    boards,
+    assumptions,
     latestScan: latestScan ? scanDto(latestScan, labelOf(labels, latestScan.startedBy)) : null,
     ...(design.clockPeriodNs !== null ? { clockPeriodNs: design.clockPeriodNs } : {}),
   };
