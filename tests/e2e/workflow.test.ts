@@ -94,7 +94,8 @@ describe('review workflow', () => {
       const first = page.getByTestId('upload-diagnostic-0');
       await first.waitFor();
       // A located problem: file:line:col of the card the reader refused (the Q card is line 3).
-      await expect(first.innerText()).resolves.toMatch(/broken-slice\.cir:3(:\d+)?/);
+      // Errors are listed before warnings.
+      await expect(first.innerText()).resolves.toMatch(/broken-slice\.cir:3(:\d+)? · error/);
       await expect(page.getByTestId('upload-problem-summary').innerText()).resolves.toMatch(/Nothing was stored/);
       await screenshot(page, 'upload-error', 'designer', 'wide');
       const after = ((await (await page.request.get('/api/designs')).json()) as { designs: unknown[] }).designs.length;
@@ -191,8 +192,11 @@ describe('review workflow', () => {
       await expect.poll(() => ours().count(), { timeout: 20_000 }).toBeGreaterThanOrEqual(2);
       await screenshot(page, 'sign-off', 'reviewer', 'phone');
 
-      // Accept the first ready one (proved, margins pass) so it can be applied.
-      await ours().first().click();
+      // Accept a proved one, with passing margins when there is one, so it is fit to apply.
+      const proved = ours().filter({ hasText: 'Proved' });
+      const ready = proved.filter({ hasText: 'Margins pass' });
+      const pick = (await ready.count()) ? ready.first() : (await proved.count()) ? proved.first() : ours().first();
+      await pick.click();
       await page.getByTestId('proposal-detail').waitFor();
       acceptedTitle = await page.getByTestId('proposal-title').innerText();
       await screenshot(page, 'proposal', 'reviewer', 'phone');

@@ -23,7 +23,8 @@ export function PartTotals({ counts, delta, testID }: { counts: PartCounts; delt
           key={k}
           testID={`${testID}-${k}`}
           style={{
-            minWidth: sizes.controlCompact * 3,
+            // A fixed basis lets three figures share a phone row; long captions wrap inside.
+            flexBasis: sizes.controlCompact * 3,
             flexGrow: 1,
             padding: spacing.md,
             gap: spacing.xxs,

@@ -6,11 +6,12 @@ import { locationOf, uploadProblems } from './upload-problems';
 describe('uploadProblems', () => {
   it('keeps the diagnostics of a parse error and counts the errors', () => {
     const diagnostics = [
+      { severity: 'warning', code: 'unused-model', message: 'model QX is never used', line: 2, col: 1, file: 'bus.cir' },
       { severity: 'error', code: 'unknown-card', message: 'unknown card .foo', line: 4, col: 1, file: 'bus.cir' },
-      { severity: 'warning', code: 'unused-model', message: 'model QX is never used', line: 9, col: 1, file: 'bus.cir' },
     ];
     const p = uploadProblems(new ApiError(400, 'parse-error', 'The file could not be read', { diagnostics }));
     expect(p.diagnostics).toHaveLength(2);
+    expect(p.diagnostics[0].severity).toBe('error');
     expect(p.summary).toMatch(/1 problem\)\. Nothing was stored/);
   });
   it('turns any other failure into the usual sentence, with no diagnostics', () => {

@@ -14,7 +14,9 @@ export function locationOf(d: Pick<UploadDiagnostic, 'file' | 'line' | 'col'>, f
 export function uploadProblems(error: unknown): UploadProblems {
   if (error instanceof ApiError && error.code === 'parse-error') {
     const raw = (error.details as { diagnostics?: unknown } | undefined)?.diagnostics;
-    const diagnostics = Array.isArray(raw) ? (raw as UploadDiagnostic[]) : [];
+    // Errors first (they are why the file was refused), then warnings, each in file order.
+    const rank = (d: UploadDiagnostic) => (d.severity === 'error' ? 0 : 1);
+    const diagnostics = (Array.isArray(raw) ? (raw as UploadDiagnostic[]) : []).map((d, i) => ({ d, i })).sort((a, b) => rank(a.d) - rank(b.d) || a.i - b.i).map(({ d }) => d);
     const errors = diagnostics.filter((d) => d.severity === 'error').length;
     return {
       summary: `The file could not be read (${errors || diagnostics.length} problem${(errors || diagnostics.length) === 1 ? '' : 's'}). Nothing was stored; fix the file and upload it again.`,

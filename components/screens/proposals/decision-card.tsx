@@ -11,6 +11,12 @@ import { formatDateTime } from '@/components/screens/common/format';
 import type { ProposalDetail } from '@/shared/api/proposals';
 import { decisionAccess } from './decision-rules';
 
+const READINESS_WARNINGS: Record<Exclude<ProposalDetail['readiness'], 'ready'>, string> = {
+  refuted: 'The check found inputs where this rewrite changes an output (see the counterexample). Accepting it would change what the circuit does.',
+  'failing-margins': 'This rewrite fails at least one electrical margin. Accept it only if you have a reason the margin does not apply.',
+  unverified: 'No proof ran for this rewrite. Read the change yourself before accepting it.',
+};
+
 export function DecisionCard({ proposal, me }: { proposal: ProposalDetail; me: Me }) {
   const { spacing } = useTheme();
   const { decide } = useProposalActions();
@@ -60,6 +66,7 @@ export function DecisionCard({ proposal, me }: { proposal: ProposalDetail; me: M
       )}
       {access.canDecide ? (
         <View style={{ gap: spacing.md }}>
+          {proposal.readiness !== 'ready' ? <Notice tone="warning" message={READINESS_WARNINGS[proposal.readiness]} testID="proposal-not-ready" /> : null}
           <TextField
             label="Reason"
             hint="Optional when accepting, required when rejecting."
