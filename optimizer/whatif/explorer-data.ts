@@ -6,6 +6,23 @@ import type { ExplorerDefaults } from './settings';
 import type { TwoLevelView } from './two-level';
 import type { WhatIfInputs } from './types';
 
+/** One device of a changed region, terminals as net names (enough to draw it). */
+export interface RegionDevice {
+  name: string;
+  kind: string;
+  op?: string;
+  terminals: string[];
+  value?: number;
+}
+
+/** The region a rewrite changes: the devices it removes, the ones it adds and the moves. */
+export interface ChangedRegion {
+  before: RegionDevice[];
+  after: RegionDevice[];
+  reconnect: { device: string; terminal: number; net: string }[];
+  mergeNets: { keep: string; remove: string }[];
+}
+
 export interface ExplorerProposal {
   id: string;
   ruleId: string;
@@ -22,6 +39,7 @@ export interface ExplorerProposal {
     note?: string;
   };
   location: { devices: string[]; instances: string[]; nets: string[] };
+  region: ChangedRegion;
   twoLevel: TwoLevelView | null;
 }
 

@@ -162,6 +162,15 @@ describe('explorer and what-if', () => {
     expect(data.pricesNote).toMatch(/invented/);
   });
 
+  it('carries each rewrite’s changed region for the before/after drawing', () => {
+    const strobe = data.proposals.find((p) => p.ruleId === 'two-level-minimise')!;
+    // The NAND's four transistors go; what replaces them reads WR and drives WS.
+    expect(strobe.region.before.map((d) => d.name).sort()).toEqual(['MNW1', 'MNW2', 'MPW1', 'MPW2']);
+    expect(strobe.region.before.find((d) => d.name === 'MPW1')!.terminals).toContain('WS');
+    expect(strobe.region.after.length).toBeGreaterThan(0);
+    expect(strobe.region.after.flatMap((d) => d.terminals)).toEqual(expect.arrayContaining(['WS', 'WR']));
+  });
+
   it('gives the two-level side by side: truth table, the assumption’s don’t-care and the scan’s cover', () => {
     const tl = data.proposals.find((p) => p.ruleId === 'two-level-minimise')!.twoLevel!;
     expect(tl.output).toBe('WS');

@@ -13,7 +13,7 @@ import { parseExpr } from '@/optimizer/logic/expr-parse';
 import type { FlatNetlist } from '@/optimizer/netlist/ir';
 import { applyProposals } from '@/optimizer/rewrite/apply';
 import { fanoutFreeCones } from '@/optimizer/rules/lib/cones';
-import { defaultSettings, MAX_SIDE_BY_SIDE_INPUTS, twoLevelView, type ExplorerData, type ExplorerProposal, type TwoLevelView, type WhatIfInputs } from '@/optimizer/whatif';
+import { defaultSettings, MAX_SIDE_BY_SIDE_INPUTS, twoLevelView, type ChangedRegion, type ExplorerData, type ExplorerProposal, type RegionDevice, type TwoLevelView, type WhatIfInputs } from '@/optimizer/whatif';
 import type { LogicView } from '@/optimizer/extract/types';
 import type { Expr } from '@/optimizer/logic/expr';
 
@@ -32,6 +32,29 @@ const pick = (s: Proposal['savings']) => ({
   areaMm2: s.areaMm2,
   cost: s.cost,
 });
+
+/** The devices an edit removes (as they stand in the revision) and adds, for the before/after drawing. */
+function regionOf(p: Proposal, flat: FlatNetlist): ChangedRegion {
+  const byName = new Map(flat.devices.map((d) => [d.name, d]));
+  const device = (d: { name: string; kind: string; op?: string | undefined; value?: number | undefined }, terminals: string[]): RegionDevice => ({
+    name: d.name,
+    kind: d.kind,
+    ...(d.op ? { op: d.op } : {}),
+    terminals,
+    ...(d.value !== undefined ? { value: d.value } : {}),
+  });
+  const moved = new Set(p.edit.reconnect.map((r) => r.device));
+  const before = [...p.edit.removeDevices, ...moved].flatMap((name) => {
+    const d = byName.get(name);
+    return d ? [device(d, d.terminals.map((t) => flat.nets[t]!.name))] : [];
+  });
+  return {
+    before,
+    after: p.edit.addDevices.map((d) => device(d, [...d.terminals])),
+    reconnect: p.edit.reconnect.map((r) => ({ ...r })),
+    mergeNets: p.edit.mergeNets.map((m) => ({ ...m })),
+  };
+}
 
 /** The cone rooted at `root` over exactly `leaves` (or, for a rewritten block, some of them). */
 function coneFn(view: LogicView, nl: FlatNetlist, root: string, leaves: string[], subset = false): Expr | undefined {
@@ -123,6 +146,7 @@ export async function buildExplorer(db: Db, design: Design, revision: Revision, 
         ...(v.note ? { note: v.note } : {}),
       },
       location: p.location,
+      region: regionOf(p, flat),
       twoLevel,
     };
   });
