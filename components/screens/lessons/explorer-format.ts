@@ -1,0 +1,30 @@
+// Number wording for the trade-off explorer: engineering prefixes for margins and settings, money
+// for cost, and the slider settings' labels and units in one table.
+import type { SettingKey } from '@/optimizer/whatif';
+
+const PREFIXES: [number, string][] = [
+  [1e9, 'G'], [1e6, 'M'], [1e3, 'k'], [1, ''], [1e-3, 'm'], [1e-6, 'µ'], [1e-9, 'n'], [1e-12, 'p'],
+];
+
+/** 4700 Ω → "4.7 kΩ"; 2.5e-7 s → "250 ns". A unit that is a word (e.g. "loads") gets no prefix. */
+export function formatSi(value: number, unit: string): string {
+  if (!Number.isFinite(value)) return `${value} ${unit}`.trim();
+  if (unit === '' || /^[a-z]{2,}/.test(unit)) return `${Number(value.toPrecision(3))}${unit ? ` ${unit}` : ''}`;
+  const abs = Math.abs(value);
+  const [scale, prefix] = abs === 0 ? [1, ''] : (PREFIXES.find(([s]) => abs >= s * 0.9995) ?? PREFIXES[PREFIXES.length - 1]!);
+  return `${Number((value / scale).toPrecision(3))} ${prefix}${unit}`;
+}
+
+export function formatMoney(value: number, currency: string): string {
+  return `${value.toFixed(2)} ${currency}`;
+}
+
+export const SETTING_LABELS: Record<SettingKey, { label: string; unit: string }> = {
+  betaMin: { label: 'Minimum current gain β', unit: '' },
+  pullUpOhms: { label: 'Pull-up value', unit: 'Ω' },
+  supplyVolts: { label: 'Supply voltage', unit: 'V' },
+  clockPeriod: { label: 'Clock period', unit: 's' },
+  loads: { label: 'Number of loads', unit: 'loads' },
+};
+
+export const SETTING_ORDER: SettingKey[] = ['betaMin', 'pullUpOhms', 'supplyVolts', 'clockPeriod', 'loads'];
