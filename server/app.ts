@@ -25,6 +25,7 @@ import { boardsRouter } from '@/server/features/boards/router';
 import { designsRouter } from '@/server/features/designs/router';
 import { exportsRouter } from '@/server/features/exports/router';
 import { proposalsRouter } from '@/server/features/proposals/router';
+import { picturesRouter } from '@/server/features/pictures/router';
 import { reviewRouter } from '@/server/features/review/router';
 import { revisionsRouter } from '@/server/features/revisions/router';
 import { scansRouter } from '@/server/features/scans/router';
@@ -84,6 +85,7 @@ export function createApp({ env, db, mailer, log, queue }: CreateAppOptions): Ex
   api.use(assumptionsRouter(deps));
   api.use(scansRouter({ ...deps, queue: scanQueue }));
   api.use(proposalsRouter(deps));
+  api.use(picturesRouter(deps));
   api.use(reviewRouter(deps));
   api.use(apiNotFound);
 
