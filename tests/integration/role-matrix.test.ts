@@ -211,6 +211,9 @@ const MATRIX: Row[] = [
     expect: { ...members(201), viewer: 403 },
   },
   { route: 'GET /api/review-queue', call: () => ({ method: 'get', path: '/api/review-queue' }), expect: members(200) },
+  { route: 'GET /api/proposals/:id/region', call: async (h) => ({ method: 'get', path: `/api/proposals/${await freshProposal(h)}/region` }), expect: members(200) },
+  { route: 'POST /api/proposals/:id/simulate', call: async (h) => ({ method: 'post', path: `/api/proposals/${await freshProposal(h)}/simulate`, body: {} }), expect: members(200) },
+  { route: 'GET /api/designs/:id/drawing', call: async (h) => ({ method: 'get', path: await d(h, '/drawing') }), expect: members(200) },
   ...LESSON_ROWS,
   { route: 'GET /api/no-such-route', call: () => ({ method: 'get', path: '/api/no-such-route' }), expect: everyone(404) },
 ];
