@@ -45,7 +45,8 @@ function BudgetLine({ board, m }: { board: Board; m: Measure }) {
       <ProgressBar value={budget > 0 ? before / budget : 1} after={budget > 0 ? after / budget : 1} tone={budgetTone(after, budget)} label={`${board.name} ${m.label}: ${fmt(before)} now, ${fmt(after)} after accepted proposals, budget ${fmt(budget)}`} />
       {over ? (
         <Text variant="caption" tone="danger">
-          Over budget by {fmt(after - budget)} even after the accepted proposals.
+          Over budget by {fmt(after - budget)}
+          {after !== before ? ' even after the accepted proposals' : ''}.
         </Text>
       ) : null}
     </View>

@@ -6,18 +6,20 @@ import { View } from 'react-native';
 import type { ExplorerData, SettingKey, WhatIfSettings } from '@/optimizer/whatif';
 import { useWhatIf } from '@/components/data/use-lessons';
 import { useTheme } from '@/components/theme/use-theme';
-import { useLayoutSize } from '@/components/theme/use-layout';
 import { Button, Card, Notice, Text, ToggleRow } from '@/components/ui';
 import { Slider } from '@/components/ui/slider';
 import { formatSi, SETTING_LABELS, SETTING_ORDER } from './explorer-format';
 import { MarginsCard, PartsCard } from './explorer-results';
 import { TwoLevelSide } from './two-level-side';
 
+const WIDE_EXPLORER = 820;
 const VERDICT_WORDS = { proved: 'proved equivalent', refuted: 'not equivalent', unverified: 'not verified' } as const;
 
 export function TradeOffExplorer({ explorer, testID = 'explorer' }: { explorer: ExplorerData; testID?: string }) {
   const { spacing } = useTheme();
-  const wide = useLayoutSize() === 'wide';
+  // Side by side when the explorer itself has room (it sits in panes of different widths).
+  const [width, setWidth] = useState(0);
+  const wide = width >= WIDE_EXPLORER;
   const [enabled, setEnabled] = useState<string[]>(() => explorer.proposals.map((p) => p.id));
   // Only the settings the learner moved go to the engine; the rest keep each margin's scanned figure.
   const [moved, setMoved] = useState<WhatIfSettings>({});
@@ -78,7 +80,7 @@ export function TradeOffExplorer({ explorer, testID = 'explorer' }: { explorer: 
 
   const twoLevel = explorer.proposals.filter((p) => p.twoLevel);
   return (
-    <View testID={testID} style={{ gap: spacing.lg }}>
+    <View testID={testID} style={{ gap: spacing.lg }} onLayout={(e) => setWidth(e.nativeEvent.layout.width)}>
       <View style={{ flexDirection: wide ? 'row' : 'column', gap: spacing.lg, alignItems: wide ? 'flex-start' : 'stretch' }}>
         <View style={{ flex: wide ? 2 : undefined, minWidth: 0 }}>{controls}</View>
         <View style={{ flex: wide ? 3 : undefined, minWidth: 0 }}>{results}</View>

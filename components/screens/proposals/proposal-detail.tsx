@@ -5,7 +5,7 @@ import { View } from 'react-native';
 import { useMe } from '@/components/data/use-me';
 import { useProposal } from '@/components/data/use-proposals';
 import { useTheme } from '@/components/theme/use-theme';
-import { Badge, Card, EmptyState, ErrorState, Loading, Text } from '@/components/ui';
+import { Badge, Card, ErrorState, Loading, Text } from '@/components/ui';
 import { formatDateTime } from '@/components/screens/common/format';
 import { Cautions } from './cautions';
 import { ChangeCard } from './change-card';
@@ -53,7 +53,9 @@ export function ProposalDetailView({ id }: { id: string }) {
       <MarginsCard proposal={proposal} />
       <Card title="Assumptions relied on" testID="proposal-assumptions">
         {proposal.evidence.assumptionsUsed.length === 0 ? (
-          <EmptyState icon="check" title="None" body="This rewrite holds whatever the rest of the machine does." testID="proposal-assumptions-empty" />
+          <Text tone="muted" testID="proposal-assumptions-empty">
+            None: this rewrite holds whatever the rest of the machine does.
+          </Text>
         ) : (
           proposal.evidence.assumptionsUsed.map((a) => (
             <Text key={a.id} variant="mono">
