@@ -3,7 +3,8 @@
 // never opens the queue's connections.
 import PgBoss from 'pg-boss';
 
-export const SCAN_QUEUE = 'trimwire-scan';
+/** The queue's name; TRIMWIRE_SCAN_QUEUE overrides it so test runs sharing one database keep their jobs apart. */
+export const scanQueueName = (): string => process.env.TRIMWIRE_SCAN_QUEUE || 'trimwire-scan';
 export const PGBOSS_SCHEMA = 'pgboss';
 /** A job whose worker stopped answering is handed out again up to this many times by pg-boss. */
 export const SCAN_RETRY_LIMIT = 2;
@@ -25,12 +26,13 @@ export function newBoss({ databaseUrl, max = 2, supervise = false, log }: BossOp
 }
 
 export async function ensureScanQueue(boss: PgBoss): Promise<void> {
-  if (await boss.getQueue(SCAN_QUEUE)) return;
-  await boss.createQueue(SCAN_QUEUE, { name: SCAN_QUEUE, retryLimit: SCAN_RETRY_LIMIT, retryDelay: 2, expireInSeconds: SCAN_EXPIRE_SECONDS });
+  const name = scanQueueName();
+  if (await boss.getQueue(name)) return;
+  await boss.createQueue(name, { name, retryLimit: SCAN_RETRY_LIMIT, retryDelay: 2, expireInSeconds: SCAN_EXPIRE_SECONDS });
 }
 
 export async function sendScan(boss: PgBoss, scanId: string): Promise<string | null> {
-  return boss.send(SCAN_QUEUE, { scanId }, { retryLimit: SCAN_RETRY_LIMIT, retryDelay: 2, expireInSeconds: SCAN_EXPIRE_SECONDS });
+  return boss.send(scanQueueName(), { scanId }, { retryLimit: SCAN_RETRY_LIMIT, retryDelay: 2, expireInSeconds: SCAN_EXPIRE_SECONDS });
 }
 
 /** A sender that starts pg-boss on first use. */

@@ -1,5 +1,5 @@
 // Worker and sweeper settings from the environment (separate from the API's Env so the API never
-// needs them). TRIMWIRE_SCAN_STAGE_DELAY_MS is a test knob: it makes every scan pause that long
+// needs them). TRIMWIRE_SCAN_QUEUE names the pg-boss queue (queue.ts). TRIMWIRE_SCAN_STAGE_DELAY_MS is a test knob: it makes every scan pause that long
 // between stages so a test can watch progress or kill a worker mid-scan; production ignores it.
 import { z } from 'zod';
 

@@ -9,7 +9,7 @@ import { createEspressoMinimiser, type EspressoMinimiser } from '@/optimizer/log
 import { createDb, type Db } from '@/server/db';
 import { loadEnv, EnvError } from '@/server/env';
 import { createSmtpMailer, type Mailer } from '@/server/mail/mailer';
-import { ensureScanQueue, newBoss, SCAN_QUEUE, sendScan } from '@/server/jobs/queue';
+import { ensureScanQueue, newBoss, scanQueueName, sendScan } from '@/server/jobs/queue';
 import { runScan, type RunOutcome } from '@/server/jobs/run-scan';
 import { loadScanSettings, type ScanSettings } from '@/server/jobs/settings';
 import { sweepStaleScans } from '@/server/jobs/sweeper';
@@ -42,7 +42,7 @@ export async function startWorker(opts: WorkerOptions): Promise<RunningWorker> {
     await sweepStaleScans(db, { heartbeatTimeoutS: settings.heartbeatTimeoutS, maxAttempts: settings.maxAttempts, send: (scanId) => sendScan(boss, scanId) });
   };
   for (let k = 0; k < settings.concurrency; k++) {
-    await boss.work<{ scanId: string }>(SCAN_QUEUE, { batchSize: 1, pollingIntervalSeconds: 0.5 }, async ([job]) => {
+    await boss.work<{ scanId: string }>(scanQueueName(), { batchSize: 1, pollingIntervalSeconds: 0.5 }, async ([job]) => {
       if (!job) return;
       const scanId = job.data?.scanId;
       if (typeof scanId !== 'string') return;

@@ -7,6 +7,10 @@ import type { Client } from './harness';
 import { TEST_DATABASE_URL } from './harness';
 import { startWorker, type RunningWorker } from '@/server/jobs/worker';
 
+// Jobs of this test run go to a queue of their own: other runs (and their workers) may share the
+// test database, and must neither take these scans nor hand theirs to this run's workers.
+process.env.TRIMWIRE_SCAN_QUEUE ??= `trimwire-scan-test-${process.pid}-${Date.now()}`;
+
 export const DEMO_DIR = path.resolve(__dirname, '../../../server/db/demo');
 export const demoDeck = (file: string) => fs.readFileSync(path.join(DEMO_DIR, file));
 
