@@ -18,6 +18,12 @@ import {
 // Shared empty lists for the common (non-DTL) base drive: most transistors have none of these.
 const NONE: number[] = Object.freeze([]) as unknown as number[];
 
+/**
+ * An exact-size copy of a list built by push: V8 grows a pushed-to array to 17 slots, so the
+ * one- to three-entry lists a large design keeps by the hundred thousand would be mostly spare.
+ */
+export const fit = <T>(a: T[]): T[] => a.slice();
+
 const C = 0;
 const B = 1;
 const E = 2;
@@ -29,15 +35,17 @@ function isNpn(cx: ExtractContext, d: number): boolean {
 /** Resistors from a net to a positive rail. */
 export function resistorPullUps(cx: ExtractContext, net: number): PullUp[] {
   const out: PullUp[] = [];
-  eachTerminal(cx, net, (d, t) => {
+  const { offsets, termDev, termIdx } = cx;
+  for (let i = offsets[net], end = offsets[net + 1]; i < end; i++) {
+    const d = termDev[i];
     const dev = cx.nl.devices[d];
-    if (dev.kind !== 'resistor') return;
-    const o = otherEnd(cx, d, t);
+    if (dev.kind !== 'resistor') continue;
+    const o = otherEnd(cx, d, termIdx[i]);
     if (o !== net && isHighRail(cx, o)) {
       out.push({ device: d, kind: 'resistor', ohms: dev.value, rail: o, railVolts: cx.railVolts[o] });
     }
-  });
-  return out;
+  }
+  return out.length ? fit(out) : out;
 }
 
 /**
@@ -48,37 +56,50 @@ export function isStackNode(cx: ExtractContext, net: number): boolean {
   if (isRail(cx, net)) return false;
   let collectors = 0;
   let emitters = 0;
-  let other = 0;
-  eachTerminal(cx, net, (d, t) => {
-    if (isNpn(cx, d) && t === C) collectors++;
-    else if (isNpn(cx, d) && t === E) emitters++;
-    else other++;
-  });
-  return collectors > 0 && emitters > 0 && other === 0;
+  const { offsets, termDev, termIdx } = cx;
+  for (let i = offsets[net], end = offsets[net + 1]; i < end; i++) {
+    const t = termIdx[i];
+    if (!isNpn(cx, termDev[i]) || (t !== C && t !== E)) return false;
+    if (t === C) collectors++;
+    else emitters++;
+  }
+  return collectors > 0 && emitters > 0;
 }
 
 /** Emitter nets that count as ground: low rails, or a net that reaches ground only through resistors. */
 function emitterGrounded(cx: ExtractContext, net: number): boolean {
   if (isLowRail(cx, net)) return true;
-  let ok = true;
   let toGround = false;
-  eachTerminal(cx, net, (d, t) => {
+  const { offsets, termDev, termIdx } = cx;
+  for (let i = offsets[net], end = offsets[net + 1]; i < end; i++) {
+    const d = termDev[i];
+    const t = termIdx[i];
     const dev = cx.nl.devices[d];
-    if (isNpn(cx, d) && t === E) return;
+    if (dev.kind === 'npn' && t === E) continue;
     if (dev.kind === 'resistor' && isLowRail(cx, otherEnd(cx, d, t))) toGround = true;
-    else if (dev.kind !== 'capacitor') ok = false;
-  });
-  return ok && toGround;
+    else if (dev.kind !== 'capacitor') return false;
+  }
+  return toGround;
 }
 
 export class BaseResolver {
-  private readonly cache: (BaseDrive | undefined)[] = [];
+  private readonly cache: (BaseDrive | undefined)[];
   /** Nets absorbed into base networks (DTL diode nodes): part of a gate, not signals. */
   readonly absorbed = new Set<number>();
-  constructor(private readonly cx: ExtractContext) {}
+  constructor(private readonly cx: ExtractContext) {
+    this.cache = new Array(cx.nl.devices.length);
+  }
 
   drive(transistor: number): BaseDrive {
-    return (this.cache[transistor] ??= this.resolve(transistor));
+    let hit = this.cache[transistor];
+    if (!hit) {
+      hit = this.resolve(transistor);
+      hit.inputs = fit(hit.inputs);
+      hit.baseResistors = fit(hit.baseResistors);
+      hit.devices = fit(hit.devices);
+      this.cache[transistor] = hit;
+    }
+    return hit;
   }
 
   private resolve(transistor: number): BaseDrive {
@@ -198,9 +219,16 @@ export class BaseResolver {
 function pullDownNetwork(cx: ExtractContext, bases: BaseResolver, net: number, depth: number, used: number[]): SwitchNetwork | undefined {
   if (depth > 16) return undefined;
   const branches: SwitchNetwork[] = [];
-  eachTerminal(cx, net, (d, t) => {
-    if (!isNpn(cx, d) || t !== C) return;
-    const e = cx.nl.devices[d].terminals[E];
+  const { offsets, termDev, termIdx } = cx;
+  const start = offsets[net];
+  const end = offsets[net + 1];
+  let diodes = false;
+  for (let i = start; i < end; i++) {
+    const d = termDev[i];
+    const dev = cx.nl.devices[d];
+    if (dev.kind === 'diode' && termIdx[i] === 0) diodes = true;
+    if (dev.kind !== 'npn' || termIdx[i] !== C) continue;
+    const e = dev.terminals[E];
     const sw: SwitchNetwork = { type: 'switch', device: d, on: bases.drive(d).on };
     if (emitterGrounded(cx, e)) {
       used.push(d);
@@ -212,17 +240,17 @@ function pullDownNetwork(cx: ExtractContext, bases: BaseResolver, net: number, d
         branches.push({ type: 'series', parts: [sw, ...(rest.type === 'series' ? rest.parts : [rest])] });
       }
     }
-  });
+  }
   // Steering diodes (anode on this line, cathode on a common override node): the line is pulled
   // low whenever that node's own pull-down conducts; the diodes block the other way.
-  eachTerminal(cx, net, (d, t) => {
-    const dev = cx.nl.devices[d];
-    if (dev.kind !== 'diode' || t !== 0 || !isSteeringNode(cx, dev.terminals[1])) return;
+  for (let i = start; diodes && i < end; i++) {
+    const dev = cx.nl.devices[termDev[i]];
+    if (dev.kind !== 'diode' || termIdx[i] !== 0 || !isSteeringNode(cx, dev.terminals[1])) continue;
     const rest = pullDownNetwork(cx, bases, dev.terminals[1], depth + 1, used);
     if (rest) branches.push(rest);
-  });
+  }
   if (branches.length === 0) return undefined;
-  return branches.length === 1 ? branches[0] : { type: 'parallel', parts: branches };
+  return branches.length === 1 ? branches[0] : { type: 'parallel', parts: fit(branches) };
 }
 
 /**
@@ -234,21 +262,27 @@ export function isSteeringNode(cx: ExtractContext, net: number): boolean {
   if (isRail(cx, net)) return false;
   let collectors = 0;
   let diodes = 0;
-  let ok = true;
-  eachTerminal(cx, net, (d, t) => {
-    const dev = cx.nl.devices[d];
-    if (isNpn(cx, d) && t === C) collectors++;
-    else if (dev.kind === 'diode' && t === 1) {
-      const anode = dev.terminals[0];
-      let lineCollectors = 0;
-      eachTerminal(cx, anode, (d2, t2) => {
-        if (isNpn(cx, d2) && t2 === C) lineCollectors++;
-      });
-      if (anode === net || lineCollectors === 0 || resistorPullUps(cx, anode).length === 0) ok = false;
-      diodes++;
-    } else ok = false;
-  });
-  return ok && collectors > 0 && diodes > 0;
+  const { offsets, termDev, termIdx } = cx;
+  // a first pass that needs no allocation: most collector nets have no diode cathode at all
+  for (let i = offsets[net], end = offsets[net + 1]; i < end; i++) {
+    const dev = cx.nl.devices[termDev[i]];
+    const t = termIdx[i];
+    if (dev.kind === 'npn' && t === C) collectors++;
+    else if (dev.kind === 'diode' && t === 1) diodes++;
+    else return false;
+  }
+  if (collectors === 0 || diodes === 0) return false;
+  for (let i = offsets[net], end = offsets[net + 1]; i < end; i++) {
+    const dev = cx.nl.devices[termDev[i]];
+    if (dev.kind !== 'diode') continue;
+    const anode = dev.terminals[0];
+    let lineCollectors = 0;
+    for (let j = offsets[anode], e2 = offsets[anode + 1]; j < e2; j++) {
+      if (isNpn(cx, termDev[j]) && termIdx[j] === C) lineCollectors++;
+    }
+    if (anode === net || lineCollectors === 0 || resistorPullUps(cx, anode).length === 0) return false;
+  }
+  return true;
 }
 
 export function networkCondition(n: SwitchNetwork): Expr {
@@ -266,12 +300,15 @@ export function networkCondition(n: SwitchNetwork): Expr {
 export function extractBipolar(cx: ExtractContext, bases: BaseResolver): LogicNode[] {
   const nodes: LogicNode[] = [];
   const seen = new Uint8Array(cx.nl.nets.length);
-  cx.nl.devices.forEach((dev, di) => {
-    if (dev.kind !== 'npn') return;
+  const dedup = new DeviceSet(cx.nl.devices.length);
+  const devices = cx.nl.devices;
+  for (let di = 0; di < devices.length; di++) {
+    const dev = devices[di];
+    if (dev.kind !== 'npn') continue;
     const net = dev.terminals[C];
-    if (seen[net] || isRail(cx, net) || isStackNode(cx, net) || isSteeringNode(cx, net)) return;
+    if (seen[net] || isRail(cx, net) || isStackNode(cx, net) || isSteeringNode(cx, net)) continue;
     seen[net] = 1;
-    const node = collectorNode(cx, bases, net);
+    const node = collectorNode(cx, bases, net, dedup);
     if (node) nodes.push(node);
     else {
       cx.diagnostics.push({
@@ -281,49 +318,90 @@ export function extractBipolar(cx: ExtractContext, bases: BaseResolver): LogicNo
         loc: dev.loc,
       });
     }
-    void di;
-  });
+  }
   return nodes;
 }
 
-function collectorNode(cx: ExtractContext, bases: BaseResolver, net: number): LogicNode | undefined {
-  const used: number[] = [];
-  const pd = pullDownNetwork(cx, bases, net, 0, used);
+/** Lists of device ids without repeats, in first-seen order, with no Set per list. */
+class DeviceSet {
+  private readonly mark: Int32Array;
+  private stamp = 0;
+  constructor(n: number) {
+    this.mark = new Int32Array(n);
+  }
+  begin(): void {
+    this.stamp++;
+  }
+  /** Appends d to out unless it was added since the last begin(). */
+  add(out: number[], d: number): void {
+    if (this.mark[d] === this.stamp) return;
+    this.mark[d] = this.stamp;
+    out.push(d);
+  }
+}
+
+/** `used` of pullDownNetwork, reused: collector nodes do not read it. */
+const scratchUsed: number[] = [];
+
+const samePath = (p: string[], q: string[]): boolean => p === q || (p.length === q.length && p.every((x, i) => x === q[i]));
+
+function collectorNode(cx: ExtractContext, bases: BaseResolver, net: number, dedup: DeviceSet): LogicNode | undefined {
+  scratchUsed.length = 0;
+  const pd = pullDownNetwork(cx, bases, net, 0, scratchUsed);
   if (!pd) return undefined;
   const pullUps = resistorPullUps(cx, net);
   // Independent groups: the branches made in different instances (cells) are separate drivers.
   const branches = pd.type === 'parallel' ? pd.parts : [pd];
-  const byPath = new Map<string, SwitchNetwork[]>();
-  const firstPath = cx.nl.devices[firstSwitch(branches[0])].path;
-  const samePath = (p: string[]) => p === firstPath || (p.length === firstPath.length && p.every((x, i) => x === firstPath[i]));
-  if (branches.every((br) => samePath(cx.nl.devices[firstSwitch(br)].path))) byPath.set(firstPath.join('.'), branches);
+  const devs = cx.nl.devices;
+  const firstPath = devs[firstSwitch(branches[0])].path;
+  // Common case: every branch made in one instance, one group; no path keys are built.
+  let byPath: { key: string | undefined; path: string[]; brs: SwitchNetwork[] }[];
+  if (branches.every((br) => samePath(devs[firstSwitch(br)].path, firstPath))) byPath = [{ key: undefined, path: firstPath, brs: branches }];
   else {
+    const index = new Map<string, number>();
+    byPath = [];
     for (const br of branches) {
-      const key = cx.nl.devices[firstSwitch(br)].path.join('.');
-      const list = byPath.get(key);
-      if (list) list.push(br);
-      else byPath.set(key, [br]);
+      const path = devs[firstSwitch(br)].path;
+      const key = path.join('.');
+      const at = index.get(key);
+      if (at !== undefined) byPath[at].brs.push(br);
+      else {
+        index.set(key, byPath.length);
+        byPath.push({ key, path, brs: [br] });
+      }
     }
   }
   const groups: DriverGroup[] = [];
-  for (const [key, brs] of byPath) {
-    const network: SwitchNetwork = brs.length === 1 ? brs[0] : { type: 'parallel', parts: brs };
+  for (const entry of byPath) {
+    const brs = entry.brs;
+    const network: SwitchNetwork = brs.length === 1 ? brs[0] : brs === branches ? pd : { type: 'parallel', parts: brs };
     const switches = switchesOf(network);
     const baseDrives = switches.map((s) => bases.drive(s));
-    const own = pullUps.filter((u) => cx.nl.devices[u.device].path.join('.') === key);
-    const family: Family = baseDrives.some((b) => b.kind === 'diode-and') ? 'dtl' : 'rtl';
+    // a load belongs to the group of its own instance (paths compared as their dotted names)
+    const key = entry.key;
+    const own = pullUps.filter((u) => {
+      const p = devs[u.device].path;
+      return p === entry.path || p.join('.') === (key ?? entry.path.join('.'));
+    });
+    let dtl = false;
+    const groupDevices: number[] = switches.slice();
+    for (const b of baseDrives) {
+      if (b.kind === 'diode-and') dtl = true;
+      for (const d of b.devices) groupDevices.push(d);
+    }
+    for (const u of own) groupDevices.push(u.device);
     groups.push({
-      family,
+      family: dtl ? 'dtl' : 'rtl',
       pullDown: network,
       pullsLow: networkCondition(network),
       pullsHigh: TRUE,
       bases: baseDrives,
-      devices: [...switches, ...baseDrives.flatMap((b) => b.devices), ...own.map((u) => u.device)],
+      devices: fit(groupDevices),
       path: commonPath(cx, switches),
       openCollector: own.length === 0,
     });
   }
-  const pullsLow = or(...groups.map((g) => g.pullsLow));
+  const pullsLow = groups.length === 1 ? groups[0].pullsLow : or(...groups.map((g) => g.pullsLow));
   const wired = groups.length > 1 || pullUps.length > 1;
   const kind = wired ? 'wired' : groups[0].openCollector ? 'open-collector' : 'static';
   if (pullUps.length === 0) {
@@ -333,7 +411,10 @@ function collectorNode(cx: ExtractContext, bases: BaseResolver, net: number): Lo
       message: `net ${netName(cx, net)} is pulled down but has no pull-up in this design; it needs one outside`,
     });
   }
-  const devices = [...new Set([...groups.flatMap((g) => g.devices), ...pullUps.map((u) => u.device)])];
+  const devices: number[] = [];
+  dedup.begin();
+  for (const g of groups) for (const d of g.devices) dedup.add(devices, d);
+  for (const u of pullUps) dedup.add(devices, u.device);
   const fn = not(pullsLow);
   return {
     net,
@@ -342,10 +423,10 @@ function collectorNode(cx: ExtractContext, bases: BaseResolver, net: number): Lo
     family: groups.some((g) => g.family === 'dtl') ? 'dtl' : 'rtl',
     fn,
     inputs: [],
-    devices,
+    devices: fit(devices),
     pullUp: pullUps[0],
     pullUps,
-    groups,
+    groups: fit(groups),
   };
 }
 

@@ -12,6 +12,10 @@ import type { DesignFamily, Family, LogicNode, LogicView } from './types';
 
 export type * from './types';
 
+function* chain<T>(...lists: T[][]): Generator<T> {
+  for (const l of lists) yield* l;
+}
+
 export function extractLogic(nl: FlatNetlist): LogicView {
   const cx = makeContext(nl);
   const nNets = nl.nets.length;
@@ -19,19 +23,21 @@ export function extractLogic(nl: FlatNetlist): LogicView {
   const controlRead = new Uint8Array(nNets);
   for (const d of nl.devices) {
     if (d.kind === 'nmos' || d.kind === 'pmos' || d.kind === 'npn' || d.kind === 'pnp') controlRead[d.terminals[1]] = 1;
-    else if (d.kind === 'gate' && d.op !== 'pullup' && d.op !== 'pulldown') for (const t of d.terminals.slice(1)) controlRead[t] = 1;
+    else if (d.kind === 'gate' && d.op !== 'pullup' && d.op !== 'pulldown') for (let t = 1; t < d.terminals.length; t++) controlRead[d.terminals[t]] = 1;
   }
   const bases = new BaseResolver(cx);
   const bip = extractBipolar(cx, bases);
   for (const nd of bip) for (const g of nd.groups) for (const b of g.bases) for (const i of b.inputs) controlRead[i] = 1;
   const gates = extractGates(cx);
-  const driven = new Set<number>([...bip, ...gates].map((n) => n.net));
+  const driven = new Set<number>();
+  for (const n of bip) driven.add(n.net);
+  for (const n of gates) driven.add(n.net);
   const mos = extractMos(cx, driven, (n) => controlRead[n] === 1);
 
   // One node per net: the first extractor to claim a net wins; a clash is reported.
   const nodes: LogicNode[] = [];
   const nodeByNet = new Map<number, number>();
-  for (const node of [...gates, ...bip, ...mos]) {
+  for (const node of chain(gates, bip, mos)) {
     if (nodeByNet.has(node.net)) {
       cx.diagnostics.push({
         severity: 'warning',
@@ -44,12 +50,16 @@ export function extractLogic(nl: FlatNetlist): LogicView {
     nodes.push(node);
   }
   const nodeByName = new Map<string, number>();
-  nodes.forEach((n, i) => {
-    const s = support(n.fn);
+  // one support set reused for every node: a Set per node is most of a large design's garbage
+  const s = new Set<string>();
+  for (let i = 0; i < nodes.length; i++) {
+    const n = nodes[i];
+    s.clear();
+    support(n.fn, s);
     if (n.enable) support(n.enable, s);
     n.inputs = [...s];
     nodeByName.set(n.name, i);
-  });
+  }
   cx.diagnostics.push(...markLoops(nodes, nodeByName));
 
   const inputs = new Set<string>();
@@ -61,9 +71,10 @@ export function extractLogic(nl: FlatNetlist): LogicView {
   const used = new Uint8Array(nl.devices.length);
   for (const n of nodes) for (const d of n.devices) used[d] = 1;
   const unexplained: string[] = [];
-  nl.devices.forEach((d, i) => {
+  for (let i = 0; i < nl.devices.length; i++) {
+    const d = nl.devices[i];
     if (!used[i] && (d.kind === 'npn' || d.kind === 'pnp' || d.kind === 'nmos' || d.kind === 'pmos')) unexplained.push(d.name);
-  });
+  }
   if (unexplained.length) {
     cx.diagnostics.push({
       severity: 'warning',
@@ -83,10 +94,16 @@ export function extractLogic(nl: FlatNetlist): LogicView {
     nodes,
     nodeByNet,
     inputs: [...inputs].sort(),
-    stateBits: nodes.filter((n) => n.kind === 'latch').map((n) => n.name),
+    stateBits: stateBitsOf(nodes),
     rails,
     family,
     familyCounts,
     diagnostics: cx.diagnostics,
   };
+}
+
+function stateBitsOf(nodes: LogicNode[]): string[] {
+  const out: string[] = [];
+  for (const n of nodes) if (n.kind === 'latch') out.push(n.name);
+  return out;
 }

@@ -11,7 +11,15 @@ function isInverting(n: LogicNode): boolean {
 /** Marks latch nets in place; returns the diagnostics for loops that are not simple latches. */
 export function markLoops(nodes: LogicNode[], nodeByName: Map<string, number>): Diagnostic[] {
   const n = nodes.length;
-  const succ: number[][] = nodes.map((node) => node.inputs.map((nm) => nodeByName.get(nm)).filter((x): x is number => x !== undefined));
+  const succ: number[][] = new Array(n);
+  for (let i = 0; i < n; i++) {
+    const list: number[] = [];
+    for (const nm of nodes[i].inputs) {
+      const x = nodeByName.get(nm);
+      if (x !== undefined) list.push(x);
+    }
+    succ[i] = list;
+  }
   const index = new Int32Array(n).fill(-1);
   const low = new Int32Array(n);
   const onStack = new Uint8Array(n);
