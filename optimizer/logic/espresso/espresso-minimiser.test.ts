@@ -8,7 +8,7 @@ import { exactMinimiser } from '../minimiser';
 import { fromMinterms } from '../truth-table';
 import { WORKED_EXAMPLES, parityTable } from '../worked-examples';
 import { createEspressoMinimiser } from './espresso-minimiser';
-import { buildPla, plaProblem } from './pla';
+import { buildPla, buildPlaText, plaProblem, plaTextProblem } from './pla';
 import { EspressoPool, MinimiserError } from './pool';
 
 const fixture = (name: string) => path.join(__dirname, 'fixtures', name);
@@ -85,6 +85,21 @@ describe('isolation of the native minimiser', () => {
     expect(plaProblem(['.i 2', '.o 1', '10 1'])).toMatch(/end with/);
     const t = fromMinterms(['a', 'b'], [{ name: 'F', on: [3], dc: [1] }]);
     expect(plaProblem(buildPla(t.outputs[0], 2))).toBeUndefined();
+  });
+
+  it('builds PLA text row by row from the table and refuses malformed text at the first bad row', () => {
+    const t = fromMinterms(['a', 'b', 'c'], [{ name: 'F', on: [1, 6], dc: [7] }]);
+    // Berkeley PLA type fd: on-set rows end in 1, don't-care rows in - (espresso(5) man page, from memory)
+    expect(buildPlaText(t.outputs[0], 3)).toBe('.i 3\n.o 1\n.type fd\n001 1\n110 1\n111 -\n.e');
+    expect(buildPla(t.outputs[0], 3)).toEqual(buildPlaText(t.outputs[0], 3).split('\n'));
+    expect(plaTextProblem(buildPlaText(t.outputs[0], 3))).toBeUndefined();
+    expect(plaTextProblem('.i 3\n.o 1\n001 1\n11 1\n.e')).toMatch(/line 4 "11 1" is not a row/);
+    expect(plaTextProblem('.i 3\n.o 1\n001 1\n0011\n.e')).toMatch(/line 4/);
+    expect(plaTextProblem('.i 3\n.o 1\n001 2\n.e')).toMatch(/line 3/);
+    expect(plaTextProblem('.i 3\n.o 1\n001 1\n001 1')).toMatch(/end with/);
+    expect(plaTextProblem('.i 17\n.o 1\n.e')).toMatch(/outside/);
+    expect(plaTextProblem('.o 1\n.i 3\n.e')).toMatch(/must start/);
+    expect(plaProblem(['.i 1', '.o 1', '1 1\n0 1', '.e'])).toMatch(/line break/);
   });
 
   it('kills a child that exceeds the timeout and serves the next request with a fresh one', async () => {

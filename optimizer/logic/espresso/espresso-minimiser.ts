@@ -7,7 +7,7 @@ import type { MinimiseMethod, MinimiseResult, Minimiser, MinimiseOptions } from 
 import { MAX_QM_INPUTS, minimiseOutputQm } from '../quine-mccluskey';
 import { constantValue, type OutputTable, type TruthTable } from '../truth-table';
 import { EspressoPool, MinimiserError, type PoolOptions } from './pool';
-import { buildPla, MAX_ESPRESSO_INPUTS, parseCubes, plaProblem } from './pla';
+import { buildPlaText, MAX_ESPRESSO_INPUTS, parseCubes, plaTextProblem } from './pla';
 
 /** Inputs up to which a cover Espresso got wrong is recomputed exactly instead of failing. */
 export const EXACT_FALLBACK_INPUTS = 10;
@@ -19,16 +19,17 @@ export interface EspressoMinimiser extends Minimiser {
   clearCache(): void;
 }
 
-/** Covers remembered per PLA text (bit slices repeat the same blocks); re-checked on every use. */
+/** Covers remembered per function (bit slices repeat the same blocks); re-checked on every use. */
 const CACHE_ENTRIES = 512;
 
-function plaKey(lines: string[]): string {
+/** FNV-1a over the on-set and don't-care words: the function's key without building its PLA. */
+function tableKey(out: OutputTable, n: number): string {
   let h = 0x811c9dc5;
-  for (const line of lines) {
-    for (let i = 0; i < line.length; i++) h = Math.imul(h ^ line.charCodeAt(i), 0x01000193);
-    h = Math.imul(h ^ 10, 0x01000193);
+  for (const set of [out.on, out.dc]) {
+    for (let w = 0; w < set.length; w++) h = Math.imul(h ^ set[w], 0x01000193);
+    h = Math.imul(h ^ 0x2c, 0x01000193);
   }
-  return `${lines.length}:${(h >>> 0).toString(16)}`;
+  return `${n}:${(h >>> 0).toString(16)}`;
 }
 
 export function createEspressoMinimiser(options: PoolOptions & { pool?: EspressoPool } = {}): EspressoMinimiser {
@@ -54,7 +55,7 @@ export function createEspressoMinimiser(options: PoolOptions & { pool?: Espresso
     async minimiseCover(fn: TruthTable, opts: MinimiseOptions = {}): Promise<MinimiseResult> {
       const n = fn.inputs.length;
       const results: { cover: Cover; method: MinimiseMethod }[] = new Array(fn.outputs.length);
-      const pending: { k: number; lines: string[]; key: string }[] = [];
+      const pending: { k: number; text?: string; key: string }[] = [];
       fn.outputs.forEach((out, k) => {
         const constant = constantValue(out, n);
         if (constant === 0) results[k] = { cover: [], method: 'constant' };
@@ -63,20 +64,24 @@ export function createEspressoMinimiser(options: PoolOptions & { pool?: Espresso
           if (n > MAX_ESPRESSO_INPUTS) {
             throw new MinimiserError('rejected', `functions of more than ${MAX_ESPRESSO_INPUTS} inputs are not sent to the minimiser (got ${n})`);
           }
-          const lines = buildPla(out, n);
-          const problem = plaProblem(lines);
-          if (problem) throw new InternalError(`built an unsafe PLA for ${out.name}: ${problem}`);
-          const key = plaKey(lines);
+          const key = tableKey(out, n);
           const hit = cache.get(key);
+          // A remembered cover is believed only after the same check a fresh one gets.
           if (hit && !coverMismatch(hit, out, n)) results[k] = { cover: hit, method: 'espresso' };
-          else pending.push({ k, lines, key });
+          else pending.push({ k, key });
         }
       });
       if (pending.length) {
-        // Every non-constant output in one round trip to one child.
-        const answers = await pool.runBatch(pending.map((p) => p.lines), opts.timeoutMs);
+        // Built and validated only on a cache miss; every non-constant output in one round trip.
+        const texts = pending.map((p) => {
+          const text = buildPlaText(fn.outputs[p.k], n);
+          const problem = plaTextProblem(text);
+          if (problem) throw new InternalError(`built an unsafe PLA for ${fn.outputs[p.k].name}: ${problem}`);
+          return text;
+        });
+        const answers = await pool.runTexts(texts, opts.timeoutMs);
         pending.forEach((p, i) => {
-          const r = accept(fn.outputs[p.k], n, parseCubes(answers[i], n));
+          const r = accept(fn.outputs[p.k], n, parseCubes(answers[i] === '' ? [] : answers[i].split('\n'), n));
           results[p.k] = r;
           if (r.method === 'espresso') {
             if (cache.size >= CACHE_ENTRIES) cache.delete(cache.keys().next().value!);

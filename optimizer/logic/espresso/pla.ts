@@ -1,48 +1,125 @@
-// Berkeley PLA text exchanged with the Espresso process: built from one output of a truth table,
-// validated before it is sent (the native code exits on malformed input) and parsed on return.
+// Berkeley PLA text exchanged with the Espresso process: built from one output of a truth table
+// as one string (one message to the child, no per-line objects), validated before it is sent (the
+// native code exits on malformed input) by a single pass over its characters, and parsed on return.
 import { InternalError } from '../../errors';
 import { type Cover, cubeFromString } from '../cubes';
-import { mintermsOf, type OutputTable } from '../truth-table';
+import type { OutputTable } from '../truth-table';
 
 /** Largest input count sent to Espresso (2^16 rows of minterms at most). */
 export const MAX_ESPRESSO_INPUTS = 16;
 
-function mintermText(m: number, n: number): string {
-  return m.toString(2).padStart(n, '0');
+const C0 = 48;
+const C1 = 49;
+const DASH = 45;
+const SPACE = 32;
+const NL = 10;
+
+/** Appends one row per set bit of `set` (minterm as n binary digits, then " " and `mark`). */
+function writeRows(buf: Uint8Array, at: number, set: Uint32Array, n: number, mark: number): number {
+  const size = 2 ** n;
+  for (let w = 0; w < set.length; w++) {
+    let word = set[w];
+    while (word !== 0) {
+      const low = word & -word;
+      const m = w * 32 + (31 - Math.clz32(low));
+      word ^= low;
+      if (m >= size) continue;
+      for (let i = 0; i < n; i++) buf[at++] = (m >>> (n - 1 - i)) & 1 ? C1 : C0;
+      buf[at++] = SPACE;
+      buf[at++] = mark;
+      buf[at++] = NL;
+    }
+  }
+  return at;
 }
 
-/** Type-fd PLA of one non-constant output: on-set rows "…1", don't-care rows "…-". */
+function bitCount(set: Uint32Array): number {
+  let c = 0;
+  for (let w = 0; w < set.length; w++) {
+    let x = set[w];
+    x -= (x >>> 1) & 0x55555555;
+    x = (x & 0x33333333) + ((x >>> 2) & 0x33333333);
+    c += (((x + (x >>> 4)) & 0x0f0f0f0f) * 0x01010101) >>> 24;
+  }
+  return c;
+}
+
+/** Type-fd PLA text of one non-constant output: on-set rows "…1", don't-care rows "…-", lines joined by "\n". */
+export function buildPlaText(out: OutputTable, n: number): string {
+  const head = `.i ${n}\n.o 1\n.type fd\n`;
+  const rows = bitCount(out.on) + bitCount(out.dc);
+  const buf = new Uint8Array(head.length + rows * (n + 3) + 2);
+  for (let i = 0; i < head.length; i++) buf[i] = head.charCodeAt(i);
+  let at = writeRows(buf, head.length, out.on, n, C1);
+  at = writeRows(buf, at, out.dc, n, DASH);
+  buf[at++] = 46; // ".e"
+  buf[at++] = 101;
+  return Buffer.from(buf.buffer, buf.byteOffset, at).toString('latin1');
+}
+
+/** The same PLA as lines (the form the native call takes). */
 export function buildPla(out: OutputTable, n: number): string[] {
-  const lines = [`.i ${n}`, '.o 1', '.type fd'];
-  for (const m of mintermsOf(out.on, n)) lines.push(`${mintermText(m, n)} 1`);
-  for (const m of mintermsOf(out.dc, n)) lines.push(`${mintermText(m, n)} -`);
-  lines.push('.e');
-  return lines;
+  return buildPlaText(out, n).split('\n');
 }
 
-/** Why a PLA must not be sent, or undefined when it is safe. */
-export function plaProblem(lines: string[]): string | undefined {
-  const iLine = /^\.i (\d+)$/.exec(lines[0] ?? '');
-  const oLine = /^\.o (\d+)$/.exec(lines[1] ?? '');
-  if (!iLine || !oLine) return 'a PLA must start with ".i N" and ".o M"';
-  const n = Number(iLine[1]);
-  const o = Number(oLine[1]);
+/** Why PLA text (lines joined by "\n") must not be sent, or undefined when it is safe. */
+export function plaTextProblem(text: string): string | undefined {
+  return plaBytesProblem(Buffer.from(text, 'latin1'), text);
+}
+
+/**
+ * The check itself, one pass over the bytes (no regular expression or string per row): a header
+ * of ".i N", ".o M" and an optional ".type", rows of N of 0/1/- then a space and M of 0/1/-/~,
+ * ".e" last, and at least one on-set row.
+ */
+function plaBytesProblem(buf: Uint8Array, text: string): string | undefined {
+  const head = /^\.i (\d+)\n\.o (\d+)\n(\.type (?:f|fd|fr|fdr)\n)?/.exec(text.slice(0, 40));
+  if (!head) {
+    const first = text.slice(0, 200).split('\n', 3);
+    if (!/^\.i (\d+)$/.test(first[0] ?? '') || !/^\.o (\d+)$/.test(first[1] ?? '')) return 'a PLA must start with ".i N" and ".o M"';
+  }
+  const first = text.slice(0, 200).split('\n', 3);
+  const n = Number(/^\.i (\d+)$/.exec(first[0])![1]);
+  const o = Number(/^\.o (\d+)$/.exec(first[1])![1]);
   if (n < 1 || n > MAX_ESPRESSO_INPUTS) return `.i ${n} is outside 1..${MAX_ESPRESSO_INPUTS}`;
   if (o < 1 || o > 64) return `.o ${o} is outside 1..64`;
-  if (lines[lines.length - 1] !== '.e') return 'a PLA must end with ".e"';
-  const row = new RegExp(`^[01-]{${n}} [01~-]{${o}}$`);
+  if (!text.endsWith('\n.e')) return 'a PLA must end with ".e"';
+  let at = head ? head[0].length : first[0].length + first[1].length + 2;
+  let lineNo = head ? (head[3] ? 4 : 3) : 3;
+  const end = buf.length - 2; // start of ".e"
+  const width = n + 1 + o;
   let rows = 0;
   let onRows = 0;
-  for (let k = 2; k < lines.length - 1; k++) {
-    const line = lines[k];
-    if (/^\.type (f|fd|fr|fdr)$/.test(line) && k === 2) continue;
-    if (!row.test(line)) return `line ${k + 1} "${line.slice(0, 40)}" is not a row of ${n} inputs and ${o} outputs`;
+  while (at < end) {
+    let ok = at + width < buf.length && buf[at + width] === NL && buf[at + n] === SPACE;
+    for (let i = 0; ok && i < n; i++) {
+      const c = buf[at + i];
+      ok = c === C0 || c === C1 || c === DASH;
+    }
+    let on = false;
+    for (let i = n + 1; ok && i < width; i++) {
+      const c = buf[at + i];
+      if (c === C1) on = true;
+      else ok = c === C0 || c === DASH || c === 126; // '~'
+    }
+    if (!ok) {
+      const stop = text.indexOf('\n', at);
+      return `line ${lineNo} "${text.slice(at, Math.min(stop < 0 ? text.length : stop, at + 40))}" is not a row of ${n} inputs and ${o} outputs`;
+    }
     rows++;
-    if (line.slice(n + 1).includes('1')) onRows++;
+    if (on) onRows++;
+    at += width + 1;
+    lineNo++;
   }
   // A PLA with no product rows corrupts the next call inside the native code.
   if (rows === 0 || onRows === 0) return 'a PLA with no on-set rows is never sent (the function is constant)';
   return undefined;
+}
+
+/** Why PLA lines must not be sent, or undefined when they are safe. */
+export function plaProblem(lines: string[]): string | undefined {
+  if (lines.some((l) => l.includes('\n'))) return 'a PLA line must not contain a line break';
+  return plaTextProblem(lines.join('\n'));
 }
 
 /** Parses Espresso's single-output cube lines ("1-0 1") into a cover. */

@@ -22,9 +22,11 @@ export class MinimiserError extends Error {
 
 interface Job {
   id: number;
-  batch: string[][];
+  /** PLA texts (lines joined by "\n"). */
+  batch: string[];
   timeoutMs: number;
-  resolve: (cubes: string[][]) => void;
+  /** Cube texts, one per PLA. */
+  resolve: (cubes: string[]) => void;
   reject: (err: Error) => void;
 }
 
@@ -66,8 +68,20 @@ export class EspressoPool {
     return this.runBatch([lines], timeoutMs).then((r) => r[0]);
   }
 
-  /** Several PLAs in one round trip to one child (the timeout covers the whole batch). */
+  /** Several PLAs (as lines) in one round trip to one child (the timeout covers the whole batch). */
   runBatch(batch: string[][], timeoutMs = this.defaultTimeout): Promise<string[][]> {
+    return this.runTexts(
+      batch.map((lines) => lines.join('\n')),
+      timeoutMs,
+    ).then((texts) => texts.map((t) => (t === '' ? [] : t.split('\n'))));
+  }
+
+  /**
+   * Several PLA texts (lines joined by "\n", already validated by the caller) in one round trip
+   * to one child; resolves with one text of cube lines per PLA. One string per PLA each way keeps
+   * the serialisation cost a small fraction of the minimiser's own time.
+   */
+  runTexts(batch: string[], timeoutMs = this.defaultTimeout): Promise<string[]> {
     if (this.closed) return Promise.reject(new MinimiserError('closed', 'the minimiser pool is closed'));
     return new Promise((resolve, reject) => {
       this.queue.push({ id: this.nextId++, batch, timeoutMs, resolve, reject });
@@ -105,11 +119,11 @@ export class EspressoPool {
     proc.stderr?.on('data', (chunk: Buffer) => {
       slot.stderr = (slot.stderr + chunk.toString('utf8')).slice(-2000);
     });
-    proc.on('message', (msg: { id: number; ok: boolean; cubes?: string[][]; error?: string }) => {
+    proc.on('message', (msg: { id: number; ok: boolean; cubes?: unknown[]; error?: string }) => {
       const job = slot.job;
       if (!job || msg.id !== job.id) return;
       this.finish(slot);
-      if (msg.ok && Array.isArray(msg.cubes) && msg.cubes.length === job.batch.length) job.resolve(msg.cubes);
+      if (msg.ok && Array.isArray(msg.cubes) && msg.cubes.length === job.batch.length && msg.cubes.every((c) => typeof c === 'string')) job.resolve(msg.cubes as string[]);
       else {
         // An error inside the native code may leave it in a bad state: replace the child.
         this.retire(slot);

@@ -4,11 +4,12 @@
 'use strict';
 const espresso = require('kuzzle-espresso-logic-minimizer');
 
-// One message carries a batch of PLAs (one round trip for a function and its complement).
+// One message carries a batch of PLAs, each as one text (lines joined by "\n": one string to
+// serialise instead of thousands); the answer is one text of cube lines per PLA.
 process.on('message', (msg) => {
   if (!msg || typeof msg.id !== 'number' || !Array.isArray(msg.batch)) return;
   try {
-    const cubes = msg.batch.map((lines) => espresso.minimize(lines));
+    const cubes = msg.batch.map((text) => espresso.minimize(String(text).split('\n')).join('\n'));
     process.send({ id: msg.id, ok: true, cubes });
   } catch (err) {
     process.send({ id: msg.id, ok: false, error: String((err && err.message) || err) });
