@@ -9,7 +9,9 @@ import { fanOut } from '../margins/line';
 import { NetlistBuilder } from '../netlist/build';
 import { defineRule } from './define-rule';
 import { scan } from './scan';
+import { scanOne } from './support/rule-test-kit';
 import { sliceInverters } from './test-helpers';
+import { tristateSlim } from './tristate-slim';
 import { emptyEdit } from './types';
 
 /** Test double of a sharing rule: keep slice 0's inverter, merge every other slice's output into it. */
@@ -123,5 +125,36 @@ describe('scan', () => {
     expect(v.method).toBe('switch-level');
     expect(v.counterexample!.A).not.toBe(v.counterexample!.B);
     expect(v.note).toMatch(/driven both ways/);
+  });
+
+  describe('tri-state lines are compared only where some stage drives them', () => {
+    /** Wren-8 data bus of two slices, each a CMOS tri-state inverter of D_k enabled by EN_k. */
+    const bus = () => {
+      const b = new NetlistBuilder('Wren-8 data bus').rail('VDD', 5);
+      for (let k = 0; k < 2; k++) {
+        b.within([`XB${k}`], () => {
+          b.pmos('PI', 'ENB', `/EN${k}`, 'VDD', { bulk: 'VDD' }).nmos('NI', 'ENB', `/EN${k}`, '0');
+          b.pmos('P1', 'M1', `/D${k}`, 'VDD', { bulk: 'VDD' }).pmos('P2', '/BUS', 'ENB', 'M1', { bulk: 'VDD' });
+          b.nmos('N2', '/BUS', `/EN${k}`, 'M2').nmos('N1', 'M2', `/D${k}`, '0');
+        });
+      }
+      return b.pmos('PR', 'Q', 'BUS', 'VDD', { bulk: 'VDD' }).nmos('NR', 'Q', 'BUS', '0').build();
+    };
+
+    it('proves tristate-slim under an at-most-one-enabled assumption (the idle line is not compared)', async () => {
+      const s = await scanOne(tristateSlim, bus(), { assumptions: ['!(EN0 & EN1)'] });
+      const p = s.findings[0].proposals[0];
+      expect(p.verification.status).toBe('proved');
+      expect(p.verification.assumptions).toEqual(['A1']);
+      expect(p.verification.compared).toContain('BUS');
+      expect(p.verdict).not.toBe('refuted');
+    });
+
+    it('still refutes it when both stages may drive, with both enables on in the counterexample', async () => {
+      const s = await scanOne(tristateSlim, bus());
+      const v = s.findings[0].proposals[0].verification;
+      expect(v.status).toBe('refuted');
+      expect([v.counterexample!.EN0, v.counterexample!.EN1]).toEqual([1, 1]);
+    });
   });
 });

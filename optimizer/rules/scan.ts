@@ -3,8 +3,8 @@
 // savings, and give a verdict: ready, failing-margins, refuted (or unproved when no proof ran).
 import { extractLogic } from '../extract';
 import type { LogicView } from '../extract/types';
-import { combinationalModel } from '../extract/compose';
-import { v, type Expr } from '../logic/expr';
+import { combinationalModel, ENABLE_SUFFIX } from '../extract/compose';
+import { and, v, type Expr } from '../logic/expr';
 import { editSavings, type Savings } from '../cost/cost';
 import { DEFAULT_PARTS_TABLE, type PartsTable } from '../cost/parts-table';
 import type { MarginResult } from '../margins/corners';
@@ -142,8 +142,24 @@ export function verifyProposal(
   const beforeFns: Record<string, Expr> = {};
   const afterFns: Record<string, Expr> = {};
   compared.forEach((name, k) => {
-    beforeFns[name] = bModel.outputs[before.nl.nets[before.nl.netByName.get(name)!].name];
-    afterFns[name] = aModel.outputs[afterNames[k]] ?? v(afterNames[k]);
+    const bName = before.nl.nets[before.nl.netByName.get(name)!].name;
+    const b = bModel.outputs[bName];
+    const a = aModel.outputs[afterNames[k]] ?? v(afterNames[k]);
+    const enBefore = bModel.outputs[bName + ENABLE_SUFFIX];
+    if (!enBefore) {
+      beforeFns[name] = b;
+      afterFns[name] = a;
+      return;
+    }
+    // A tri-state line's value is unspecified where no stage drives it before the rewrite: compare
+    // only where some stage drives, and require the rewritten line to be driven there too.
+    beforeFns[name] = and(enBefore, b);
+    afterFns[name] = and(enBefore, a);
+    const enAfter = aModel.outputs[afterNames[k] + ENABLE_SUFFIX];
+    if (enAfter) {
+      beforeFns[name + ENABLE_SUFFIX] = enBefore;
+      afterFns[name + ENABLE_SUFFIX] = and(enBefore, enAfter);
+    }
   });
   let r: EquivResult;
   try {
