@@ -19,43 +19,98 @@ export const WEAK = 3;
 export const BLEED = 2;
 export const CHARGE = 1;
 
-export interface Edge {
-  device: number;
-  a: number;
-  b: number;
-  /** Strongest signal the edge passes. */
-  cap: number;
-  /** 'nmos' on at 1, 'pmos' on at 0, 'expr' = bipolar base drive, 'always' = resistor/load. */
-  control: 'nmos' | 'pmos' | 'expr' | 'always';
-  gate: number;
-  expr?: Expr;
-  /** Diodes: a (anode) passes 1 toward b; b (cathode) passes 0 toward a. */
-  oneWay: boolean;
+/** Edge controls: resistor/load (always on), NMOS-like (on at 1), PMOS/PNP (on at 0), bipolar base drive. */
+export const CTL_ALWAYS = 0;
+export const CTL_NMOS = 1;
+export const CTL_PMOS = 2;
+export const CTL_EXPR = 3;
+
+/** Compressed lists: the entries of list i are list[off[i]] .. list[off[i+1]-1]. */
+export interface Csr {
+  off: Int32Array;
+  list: Int32Array;
 }
 
+/** Base-drive programs, postfix, two ints an instruction (opcode, argument), OP_END last. */
+export const OP_CONST = 0;
+export const OP_NET = 1;
+export const OP_NOT = 2;
+export const OP_AND = 3;
+export const OP_OR = 4;
+export const OP_XOR = 5;
+export const OP_END = 6;
+
+/**
+ * Everything is in typed arrays indexed by edge, net or group: a million-transistor design has
+ * millions of edges and nets, and an object or array apiece would be most of the heap.
+ */
 export interface SwitchModel {
   nl: FlatNetlist;
-  edges: Edge[];
+  /** Per edge: the device, its two ends, strongest signal it passes, control kind and net. */
+  edgeCount: number;
+  edgeDevice: Int32Array;
+  edgeA: Int32Array;
+  edgeB: Int32Array;
+  edgeCap: Uint8Array;
+  /** CTL_*: NMOS-like and PMOS-like edges read edgeGate, a bipolar edge runs its program. */
+  edgeControl: Uint8Array;
+  edgeGate: Int32Array;
+  /** Diodes: a (anode) passes 1 toward b; b (cathode) passes 0 toward a. */
+  edgeOneWay: Uint8Array;
+  /** Per edge with CTL_EXPR: start of its base-drive program in `code`. */
+  programAt: Int32Array;
+  code: Int32Array;
   /** Group per net (-1 for rails and inputs, which are sources). */
   groupOf: Int32Array;
-  groups: { nets: number[]; edges: number[]; gates: number[] }[];
-  /** Edges per net (adjacency, by edge index). */
-  edgesAt: number[][];
+  groupCount: number;
+  groupNets: Csr;
+  groupEdges: Csr;
+  groupGates: Csr;
+  /** Edges per net (by edge index). */
+  edgesAt: Csr;
   /** Groups that must be re-evaluated when this net changes (controls and source adjacency). */
-  readers: number[][];
+  readers: Csr;
   /** Evaluation order: groups fed only by earlier ranks come later (feedback loops broken). */
   rank: Int32Array;
   /** Gate-level devices reading a net. */
-  gateReaders: number[][];
-  /** Gate-level devices (indices into nl.devices) and their output net. */
+  gateReaders: Csr;
+  /** Gate-level devices (indices into nl.devices). */
   gates: number[];
   railValue: Map<number, 0 | 1>;
   /** Per net: 0 or 1 for a rail, -1 otherwise (array form of railValue for the inner loops). */
   railVal: Int8Array;
-  /** Per edge with control 'expr': the base drive compiled over net ids. */
-  compiled: (CompiledExpr | undefined)[];
   isInput: Uint8Array;
   netIdsOf: (name: string) => number;
+}
+
+/** Key/value pairs collected in order, then grouped by key keeping that order (counting sort). */
+class Pairs {
+  keys = new Int32Array(1024);
+  vals = new Int32Array(1024);
+  size = 0;
+  push(k: number, v: number): void {
+    if (this.size === this.keys.length) {
+      this.keys = grow(this.keys);
+      this.vals = grow(this.vals);
+    }
+    this.keys[this.size] = k;
+    this.vals[this.size++] = v;
+  }
+  toCsr(n: number): Csr {
+    const off = new Int32Array(n + 1);
+    for (let i = 0; i < this.size; i++) off[this.keys[i] + 1]++;
+    for (let i = 0; i < n; i++) off[i + 1] += off[i];
+    const fill = off.slice(0, n);
+    const list = new Int32Array(this.size);
+    for (let i = 0; i < this.size; i++) list[fill[this.keys[i]]++] = this.vals[i];
+    return { off, list };
+  }
+}
+
+function grow(a: Int32Array) {
+  const b = new Int32Array(a.length * 2);
+  b.set(a);
+  return b;
 }
 
 function find(p: Int32Array, x: number): number {
@@ -78,44 +133,104 @@ export function buildSwitchModel(nl: FlatNetlist, inputNames: string[]): SwitchM
   for (const n of inputNames) isInput[netIdsOf(n)] = 1;
   const railValue = new Map<number, 0 | 1>();
   for (const r of nl.rails) railValue.set(r.net, r.volts > 0 ? 1 : 0);
+  const railVal = new Int8Array(nNets).fill(-1);
+  for (const [net, v] of railValue) railVal[net] = v;
   const isSource = (n: number) => isInput[n] === 1 || isRail(cx, n);
 
   const bases = new BaseResolver(cx);
-  const baseNet = new Set<number>();
-  const inBaseNetwork = new Uint8Array(nl.devices.length);
-  const edges: Edge[] = [];
+  const nDev = nl.devices.length;
+  const baseNet = new Uint8Array(nNets);
+  const inBaseNetwork = new Uint8Array(nDev);
   const gates: number[] = [];
-  nl.devices.forEach((d, i) => {
+  for (let i = 0; i < nDev; i++) {
+    const d = nl.devices[i];
     if (d.kind === 'npn' || d.kind === 'pnp') {
-      const drive = bases.drive(i);
-      for (const x of drive.devices) inBaseNetwork[x] = 1;
-      baseNet.add(d.terminals[1]);
+      for (const x of bases.drive(i).devices) inBaseNetwork[x] = 1;
+      baseNet[d.terminals[1]] = 1;
     }
-  });
-  nl.devices.forEach((d, i) => {
+  }
+  // At most one edge per device.
+  const edgeDevice = new Int32Array(nDev);
+  const edgeA = new Int32Array(nDev);
+  const edgeB = new Int32Array(nDev);
+  const edgeCap = new Uint8Array(nDev);
+  const edgeControl = new Uint8Array(nDev);
+  const edgeGate = new Int32Array(nDev);
+  const edgeOneWay = new Uint8Array(nDev);
+  const programAt = new Int32Array(nDev).fill(-1);
+  let code = new Int32Array(1024);
+  let codeLen = 0;
+  const emit = (op: number, arg: number): void => {
+    if (codeLen + 2 > code.length) code = grow(code);
+    code[codeLen++] = op;
+    code[codeLen++] = arg;
+  };
+  const compile = (e: Expr): void => {
+    switch (e.op) {
+      case 'const':
+        return emit(OP_CONST, e.value ? 2 : 1);
+      case 'var': {
+        const id = nl.netByName.get(e.name);
+        return id === undefined ? emit(OP_CONST, 3) : emit(OP_NET, id);
+      }
+      case 'not':
+        compile(e.arg);
+        return emit(OP_NOT, 0);
+      case 'and':
+      case 'or':
+      case 'xor':
+        for (const a of e.args) compile(a);
+        return emit(e.op === 'and' ? OP_AND : e.op === 'or' ? OP_OR : OP_XOR, e.args.length);
+      case 'implies':
+        compile(e.left);
+        emit(OP_NOT, 0);
+        compile(e.right);
+        return emit(OP_OR, 2);
+      case 'iff':
+        compile(e.left);
+        compile(e.right);
+        emit(OP_XOR, 2);
+        return emit(OP_NOT, 0);
+    }
+  };
+  let nEdges = 0;
+  const edge = (device: number, a: number, b: number, cap: number, control: number, gate: number, oneWay: boolean): void => {
+    edgeDevice[nEdges] = device;
+    edgeA[nEdges] = a;
+    edgeB[nEdges] = b;
+    edgeCap[nEdges] = cap;
+    edgeControl[nEdges] = control;
+    edgeGate[nEdges] = gate;
+    edgeOneWay[nEdges] = oneWay ? 1 : 0;
+    nEdges++;
+  };
+  for (let i = 0; i < nDev; i++) {
+    const d = nl.devices[i];
     const t = d.terminals;
     switch (d.kind) {
       case 'nmos':
-      case 'pmos': {
-        if (loadTransistor(cx, i)) edges.push({ device: i, a: t[0], b: t[2], cap: WEAK, control: 'always', gate: -1, oneWay: false });
-        else edges.push({ device: i, a: t[0], b: t[2], cap: DRIVEN, control: d.kind, gate: t[1], oneWay: false });
+      case 'pmos':
+        if (loadTransistor(cx, i)) edge(i, t[0], t[2], WEAK, CTL_ALWAYS, -1, false);
+        else edge(i, t[0], t[2], DRIVEN, d.kind === 'nmos' ? CTL_NMOS : CTL_PMOS, t[1], false);
         break;
-      }
       case 'npn':
-        edges.push({ device: i, a: t[0], b: t[2], cap: DRIVEN, control: 'expr', gate: -1, expr: bases.drive(i).on, oneWay: false });
+        programAt[nEdges] = codeLen;
+        compile(bases.drive(i).on);
+        emit(OP_END, 0);
+        edge(i, t[0], t[2], DRIVEN, CTL_EXPR, -1, false);
         break;
       case 'pnp':
         // a PNP conducts while its base is pulled low
-        edges.push({ device: i, a: t[0], b: t[2], cap: DRIVEN, control: 'pmos', gate: t[1], oneWay: false });
+        edge(i, t[0], t[2], DRIVEN, CTL_PMOS, t[1], false);
         break;
       case 'resistor':
-        if (!inBaseNetwork[i] && !baseNet.has(t[0]) && !baseNet.has(t[1])) {
+        if (!inBaseNetwork[i] && !baseNet[t[0]] && !baseNet[t[1]]) {
           const toLow = (isRail(cx, t[0]) && !railValue.get(t[0])) || (isRail(cx, t[1]) && !railValue.get(t[1]));
-          edges.push({ device: i, a: t[0], b: t[1], cap: toLow ? BLEED : WEAK, control: 'always', gate: -1, oneWay: false });
+          edge(i, t[0], t[1], toLow ? BLEED : WEAK, CTL_ALWAYS, -1, false);
         }
         break;
       case 'diode':
-        if (!inBaseNetwork[i]) edges.push({ device: i, a: t[0], b: t[1], cap: DRIVEN, control: 'always', gate: -1, oneWay: true });
+        if (!inBaseNetwork[i]) edge(i, t[0], t[1], DRIVEN, CTL_ALWAYS, -1, true);
         break;
       case 'gate':
         gates.push(i);
@@ -123,66 +238,100 @@ export function buildSwitchModel(nl: FlatNetlist, inputNames: string[]): SwitchM
       default:
         break; // capacitors and non-rail sources carry no switch-level signal
     }
-  });
+  }
   // Groups: nets joined by edges, never through sources.
   const parent = new Int32Array(nNets);
   for (let i = 0; i < nNets; i++) parent[i] = i;
-  for (const e of edges) {
-    if (isSource(e.a) || isSource(e.b)) continue;
-    const x = find(parent, e.a);
-    const y = find(parent, e.b);
+  for (let ei = 0; ei < nEdges; ei++) {
+    const a = edgeA[ei];
+    const b = edgeB[ei];
+    if (isSource(a) || isSource(b)) continue;
+    const x = find(parent, a);
+    const y = find(parent, b);
     if (x !== y) parent[x] = y;
   }
+  // Group ids and each group's nets in first-touch order (edges, then gate outputs).
   const groupOf = new Int32Array(nNets).fill(-1);
-  const groups: SwitchModel['groups'] = [];
-  const rootGroup = new Map<number, number>();
+  const groupOfRoot = new Int32Array(nNets).fill(-1);
+  const netPairs = new Pairs();
+  let groupCount = 0;
   const groupFor = (n: number): number => {
     if (isSource(n)) return -1;
     if (groupOf[n] >= 0) return groupOf[n];
     const r = find(parent, n);
-    let g = rootGroup.get(r);
-    if (g === undefined) {
-      g = groups.length;
-      groups.push({ nets: [], edges: [], gates: [] });
-      rootGroup.set(r, g);
-    }
+    let g = groupOfRoot[r];
+    if (g < 0) g = groupOfRoot[r] = groupCount++;
     groupOf[n] = g;
-    groups[g].nets.push(n);
+    netPairs.push(g, n);
     return g;
   };
-  const edgesAt: number[][] = Array.from({ length: nNets }, () => []);
-  const readers: number[][] = Array.from({ length: nNets }, () => []);
-  const gateReaders: number[][] = Array.from({ length: nNets }, () => []);
-  const addReader = (net: number, g: number) => {
-    const list = readers[net];
-    if (list[list.length - 1] !== g) list.push(g);
+  const edgePairs = new Pairs();
+  const atPairs = new Pairs();
+  const readerPairs = new Pairs();
+  const lastReader = new Int32Array(nNets).fill(-1);
+  const addReader = (net: number, g: number): void => {
+    if (lastReader[net] === g) return;
+    lastReader[net] = g;
+    readerPairs.push(net, g);
   };
-  edges.forEach((e, ei) => {
-    const g = groupFor(e.a) >= 0 ? groupFor(e.a) : groupFor(e.b);
-    groupFor(e.b);
-    if (g < 0) return; // an edge between two sources carries nothing
-    groups[g].edges.push(ei);
-    edgesAt[e.a].push(ei);
-    edgesAt[e.b].push(ei);
-    if (isSource(e.a)) addReader(e.a, g);
-    if (isSource(e.b)) addReader(e.b, g);
-    if (e.gate >= 0) addReader(e.gate, g);
-    if (e.expr) for (const n of exprNets(e.expr, nl)) addReader(n, g);
-  });
+  for (let ei = 0; ei < nEdges; ei++) {
+    const a = edgeA[ei];
+    const b = edgeB[ei];
+    const ga = groupFor(a);
+    const g = ga >= 0 ? ga : groupFor(b);
+    groupFor(b);
+    if (g < 0) continue; // an edge between two sources carries nothing
+    edgePairs.push(g, ei);
+    atPairs.push(a, ei);
+    atPairs.push(b, ei);
+    if (isSource(a)) addReader(a, g);
+    if (isSource(b)) addReader(b, g);
+    if (edgeGate[ei] >= 0) addReader(edgeGate[ei], g);
+    if (edgeControl[ei] === CTL_EXPR) {
+      for (let pc = programAt[ei]; code[pc] !== OP_END; pc += 2) if (code[pc] === OP_NET) addReader(code[pc + 1], g);
+    }
+  }
+  const gatePairs = new Pairs();
+  const gateReaderPairs = new Pairs();
   for (const gi of gates) {
     const d = nl.devices[gi];
     const g = groupFor(d.terminals[0]);
-    if (g >= 0) groups[g].gates.push(gi);
-    for (const n of d.terminals.slice(1)) {
-      gateReaders[n].push(gi);
+    if (g >= 0) gatePairs.push(g, gi);
+    for (let k = 1; k < d.terminals.length; k++) {
+      const n = d.terminals[k];
+      gateReaderPairs.push(n, gi);
       if (g >= 0) addReader(n, g);
     }
   }
-  const rank = rankGroups(groups, readers);
-  const railVal = new Int8Array(nNets).fill(-1);
-  for (const [net, v] of railValue) railVal[net] = v;
-  const compiled = edges.map((e) => (e.expr ? compileExpr(e.expr, nl) : undefined));
-  return { nl, edges, groupOf, groups, edgesAt, readers, rank, gateReaders, gates, railValue, railVal, compiled, isInput, netIdsOf };
+  const groupNets = netPairs.toCsr(groupCount);
+  const readers = readerPairs.toCsr(nNets);
+  return {
+    nl,
+    edgeCount: nEdges,
+    edgeDevice: edgeDevice.slice(0, nEdges),
+    edgeA: edgeA.slice(0, nEdges),
+    edgeB: edgeB.slice(0, nEdges),
+    edgeCap: edgeCap.slice(0, nEdges),
+    edgeControl: edgeControl.slice(0, nEdges),
+    edgeGate: edgeGate.slice(0, nEdges),
+    edgeOneWay: edgeOneWay.slice(0, nEdges),
+    programAt: programAt.slice(0, nEdges),
+    code: code.slice(0, codeLen),
+    groupOf,
+    groupCount,
+    groupNets,
+    groupEdges: edgePairs.toCsr(groupCount),
+    groupGates: gatePairs.toCsr(groupCount),
+    edgesAt: atPairs.toCsr(nNets),
+    readers,
+    rank: rankGroups(groupCount, groupNets, readers),
+    gateReaders: gateReaderPairs.toCsr(nNets),
+    gates,
+    railValue,
+    railVal,
+    isInput,
+    netIdsOf,
+  };
 }
 
 /** A control expression with net names resolved to ids once, evaluated in three values. */
@@ -213,66 +362,53 @@ export function compileExpr(e: Expr, nl: FlatNetlist): CompiledExpr {
   }
 }
 
+
 /**
  * Topological ranks of the group graph (Kahn): evaluating in rank order settles acyclic logic with
  * one evaluation per group instead of unit-delay ripples that are quadratic in chain length.
  * Groups on loops get ranks after their ranked predecessors.
  */
-function rankGroups(groups: SwitchModel['groups'], readers: number[][]): Int32Array {
-  const n = groups.length;
-  const succ: number[][] = groups.map((g) => {
-    const out = new Set<number>();
-    for (const net of g.nets) for (const r of readers[net]) if (r !== -1) out.add(r);
-    return [...out];
-  });
+function rankGroups(n: number, groupNets: Csr, readers: Csr): Int32Array {
+  // successors of each group in first-seen order, without a set per group
+  const succPairs = new Pairs();
+  const seenBy = new Int32Array(n).fill(-1);
+  for (let g = 0; g < n; g++) {
+    for (let i = groupNets.off[g]; i < groupNets.off[g + 1]; i++) {
+      const net = groupNets.list[i];
+      for (let j = readers.off[net]; j < readers.off[net + 1]; j++) {
+        const r = readers.list[j];
+        if (seenBy[r] === g) continue;
+        seenBy[r] = g;
+        succPairs.push(g, r);
+      }
+    }
+  }
+  const succ = succPairs.toCsr(n);
   const indeg = new Int32Array(n);
-  succ.forEach((s, g) => s.forEach((t) => t !== g && indeg[t]++));
+  for (let g = 0; g < n; g++) for (let i = succ.off[g]; i < succ.off[g + 1]; i++) if (succ.list[i] !== g) indeg[succ.list[i]]++;
   const rank = new Int32Array(n).fill(-1);
   const queue: number[] = [];
   for (let g = 0; g < n; g++) if (indeg[g] === 0) queue.push(g);
   let next = 0;
   let head = 0;
   let assigned = 0;
+  let firstUnranked = 0;
   for (;;) {
     while (head < queue.length) {
       const g = queue[head++];
       if (rank[g] >= 0) continue;
       rank[g] = next++;
       assigned++;
-      for (const t of succ[g]) if (t !== g && --indeg[t] === 0 && rank[t] < 0) queue.push(t);
+      for (let i = succ.off[g]; i < succ.off[g + 1]; i++) {
+        const t = succ.list[i];
+        if (t !== g && --indeg[t] === 0 && rank[t] < 0) queue.push(t);
+      }
     }
     if (assigned === n) break;
-    // a loop: start it at its first unranked group
-    let g = 0;
-    while (rank[g] >= 0) g++;
-    indeg[g] = 0;
-    queue.push(g);
+    // a loop: start it at its first unranked group (ranked groups stay ranked: the scan resumes)
+    while (rank[firstUnranked] >= 0) firstUnranked++;
+    indeg[firstUnranked] = 0;
+    queue.push(firstUnranked);
   }
   return rank;
-}
-
-function exprNets(e: Expr, nl: FlatNetlist, out: number[] = []): number[] {
-  switch (e.op) {
-    case 'var': {
-      const id = nl.netByName.get(e.name);
-      if (id !== undefined) out.push(id);
-      break;
-    }
-    case 'not':
-      exprNets(e.arg, nl, out);
-      break;
-    case 'and':
-    case 'or':
-    case 'xor':
-      for (const a of e.args) exprNets(a, nl, out);
-      break;
-    case 'implies':
-    case 'iff':
-      exprNets(e.left, nl, out);
-      exprNets(e.right, nl, out);
-      break;
-    default:
-      break;
-  }
-  return out;
 }

@@ -7,9 +7,26 @@ import { InputError } from '../errors';
 import type { FlatNetlist } from '../netlist/ir';
 import type { Expr } from '../logic/expr';
 import { gateFunction } from '../extract/gates';
-import { ternaryCompiled, ternaryExpr, type Mask } from './ternary';
+import { ternaryExpr, type Mask } from './ternary';
 import { RankQueue } from './rank-queue';
-import { buildSwitchModel, BLEED, CHARGE, DRIVEN, RAIL, WEAK, type CompiledExpr, type SwitchModel } from './switch-model';
+import {
+  buildSwitchModel,
+  BLEED,
+  CHARGE,
+  CTL_EXPR,
+  CTL_NMOS,
+  CTL_PMOS,
+  DRIVEN,
+  OP_AND,
+  OP_CONST,
+  OP_END,
+  OP_NET,
+  OP_NOT,
+  OP_OR,
+  RAIL,
+  WEAK,
+  type SwitchModel,
+} from './switch-model';
 
 const PASSES = [DRIVEN, WEAK, BLEED, CHARGE] as const;
 
@@ -73,28 +90,79 @@ export class SwitchSimulator {
     this.maxEval = options.maxEvaluationsPerGroup ?? 50;
     // a flip-flop holds an unknown value until its first clock edge
     for (const gi of this.model.gates) if (nl.devices[gi].op === 'dff') this.gateOut[gi] = 3;
+    this.evalCount = new Int32Array(this.model.groupCount);
+    this.evalStep = new Int32Array(this.model.groupCount).fill(-1);
+    this.changed = new Int32Array(n);
   }
 
   /** Value a control terminal sees: a driven net's value, a floating net's stored charge. */
-  private read(net: number, reader: string): Mask {
+  private read(net: number, reader: number): Mask {
     if (this.level[net] >= BLEED) return this.mask[net];
     // confirmed only if the net is still floating once the step has settled
+    const name = this.model.nl.devices[reader].name;
     const list = this.pendingFloating.get(net) ?? [];
-    if (!list.includes(reader) && list.length < 8) list.push(reader);
+    if (!list.includes(name) && list.length < 8) list.push(name);
     this.pendingFloating.set(net, list);
     return this.charge[net] || 3;
   }
 
-  private evalExpr(e: Expr, reader: string): Mask {
+  private evalExpr(e: Expr, reader: number): Mask {
     return ternaryExpr(e, (name) => {
       const id = this.model.nl.netByName.get(name);
       return id === undefined ? 3 : this.read(id, reader);
     });
   }
 
-  /** Three-valued evaluation of a compiled control (bipolar base drives). */
-  private evalCompiled(e: CompiledExpr, reader: string): Mask {
-    return ternaryCompiled(e, (net) => this.read(net, reader));
+  /**
+   * Three-valued evaluation of a bipolar base drive's program (postfix, on a small stack): no
+   * closure or array per evaluation, since it runs for every bipolar switch of every group update.
+   */
+  private evalProgram(pc: number, reader: number): Mask {
+    const code = this.model.code;
+    const st = this.evalStack;
+    let sp = 0;
+    for (;;) {
+      const op = code[pc];
+      const arg = code[pc + 1];
+      pc += 2;
+      if (op === OP_NET) st[sp++] = this.read(arg, reader);
+      else if (op === OP_CONST) st[sp++] = arg;
+      else if (op === OP_NOT) {
+        const m = st[sp - 1];
+        st[sp - 1] = ((m & 1) << 1) | ((m >> 1) & 1);
+      } else if (op === OP_END) return st[0];
+      else {
+        // and / or / xor over the top `arg` entries, as ternary.ts defines them
+        let r: number;
+        const from = sp - arg;
+        if (op === OP_AND) {
+          let can0 = 0;
+          let can1 = 1;
+          for (let i = from; i < sp; i++) {
+            can0 |= st[i] & 1;
+            can1 &= (st[i] >> 1) & 1;
+          }
+          r = arg === 1 ? st[from] : can0 | (can1 << 1);
+        } else if (op === OP_OR) {
+          let can0 = 1;
+          let can1 = 0;
+          for (let i = from; i < sp; i++) {
+            can0 &= st[i] & 1;
+            can1 |= (st[i] >> 1) & 1;
+          }
+          r = arg === 1 ? st[from] : can0 | (can1 << 1);
+        } else {
+          r = 1;
+          for (let i = from; i < sp; i++) {
+            const m = st[i];
+            if (m === 3 || r === 3) r = 3;
+            else if (m === 2) r = r === 1 ? 2 : 1;
+          }
+        }
+        sp = from;
+        st[sp++] = r;
+      }
+    }
   }
 
   private evalGate(gi: number): Mask {
@@ -104,13 +172,13 @@ export class SwitchSimulator {
     const f = gateFunction(d.op!, ins, q);
     if (d.op === 'pullup' || d.op === 'pulldown') return 0;
     if (f.enable) {
-      const en = this.evalExpr(f.enable, d.name);
+      const en = this.evalExpr(f.enable, gi);
       if (en === 1) return 0;
-      const val = this.evalExpr(f.value, d.name);
+      const val = this.evalExpr(f.value, gi);
       return en === 2 ? val : 3;
     }
     if (d.op === 'dff') return this.mask[d.terminals[0]]; // edge-triggered: updated by the clock edge in applyEdge
-    return this.evalExpr(f.value, d.name);
+    return this.evalExpr(f.value, gi);
   }
 
   // Scratch space reused by every group evaluation (no allocation per evaluation).
@@ -121,7 +189,15 @@ export class SwitchSimulator {
   private oldMask!: Uint8Array;
   private pure0!: Int32Array;
   private pure1!: Int32Array;
-  private readonly pureTouched: number[] = [];
+  private pureTouched!: Int32Array;
+  private nTouched = 0;
+  private evalStack!: Uint8Array;
+  /** Evaluations of each group in the current step (valid where evalStep is the step). */
+  private readonly evalCount: Int32Array;
+  private readonly evalStep: Int32Array;
+  /** Nets whose value or strength the last group evaluation changed. */
+  private readonly changed: Int32Array;
+  private nChanged = 0;
   private stack!: Int32Array;
   private top = 0;
   private queue?: RankQueue;
@@ -131,7 +207,9 @@ export class SwitchSimulator {
   private scratch(): void {
     if (this.stack) return;
     const n = this.model.nl.nets.length;
-    this.edgeSt = new Uint8Array(this.model.edges.length);
+    this.edgeSt = new Uint8Array(this.model.edgeCount);
+    this.pureTouched = new Int32Array(2 * n);
+    this.evalStack = new Uint8Array(this.model.code.length + 1);
     this.sureLevel = new Uint8Array(n);
     this.sureMask = new Uint8Array(n);
     this.oldLevel = new Uint8Array(n);
@@ -148,10 +226,10 @@ export class SwitchSimulator {
     if (pure && this.tracking) {
       if (mk === 1 && this.pure0[n] === 0) {
         this.pure0[n] = dev + 1;
-        this.pureTouched.push(n);
+        this.pureTouched[this.nTouched++] = n;
       } else if (mk === 2 && this.pure1[n] === 0) {
         this.pure1[n] = dev + 1;
-        this.pureTouched.push(n);
+        this.pureTouched[this.nTouched++] = n;
       }
     }
     const next = (level[n] === lvl ? this.mask[n] : 0) | mk;
@@ -164,34 +242,45 @@ export class SwitchSimulator {
   /** One strength-propagation pass over a group; unknown switches conduct only when includeX. */
   private propagate(g: number, includeX: boolean): void {
     const m = this.model;
-    const grp = m.groups[g];
     const { level, mask, charge, edgeSt } = this;
+    const { edgeA, edgeB, edgeCap, edgeOneWay, edgeDevice, groupOf, railVal } = m;
+    const nets = m.groupNets.list;
+    const n0 = m.groupNets.off[g];
+    const n1 = m.groupNets.off[g + 1];
+    const edges = m.groupEdges.list;
+    const e0 = m.groupEdges.off[g];
+    const e1 = m.groupEdges.off[g + 1];
+    const gates = m.groupGates.list;
+    const g0 = m.groupGates.off[g];
+    const g1 = m.groupGates.off[g + 1];
+    const at = m.edgesAt;
     const nl = m.nl;
-    for (const n of grp.nets) {
-      level[n] = 0;
-      mask[n] = 0;
+    for (let i = n0; i < n1; i++) {
+      level[nets[i]] = 0;
+      mask[nets[i]] = 0;
     }
     this.tracking = !includeX;
     for (const lvl of PASSES) {
       this.curLevel = lvl;
       this.top = 0;
-      for (const ei of grp.edges) {
-        const e = m.edges[ei];
+      for (let k = e0; k < e1; k++) {
+        const ei = edges[k];
         const st = edgeSt[ei];
-        if (e.cap < lvl || st === 1 || (st === 3 && !includeX)) continue;
+        if (edgeCap[ei] < lvl || st === 1 || (st === 3 && !includeX)) continue;
         for (let side = 0; side < 2; side++) {
-          const from = side ? e.b : e.a;
-          const to = side ? e.a : e.b;
-          if (m.groupOf[to] < 0) continue;
-          const fromIsSrc = m.groupOf[from] < 0;
+          const from = side ? edgeB[ei] : edgeA[ei];
+          const to = side ? edgeA[ei] : edgeB[ei];
+          if (groupOf[to] < 0) continue;
+          const fromIsSrc = groupOf[from] < 0;
           if (!fromIsSrc && level[from] <= lvl) continue;
-          const rv = m.railVal[from];
+          const rv = railVal[from];
           let mk = fromIsSrc && rv >= 0 ? rv + 1 : mask[from];
-          if (e.oneWay) mk &= side === 0 ? 2 : 1; // the anode passes a 1 down, the cathode a 0 up
-          if (mk) this.deliver(to, mk, e.device, mk !== 3 && st === 2);
+          if (edgeOneWay[ei]) mk &= side === 0 ? 2 : 1; // the anode passes a 1 down, the cathode a 0 up
+          if (mk) this.deliver(to, mk, edgeDevice[ei], mk !== 3 && st === 2);
         }
       }
-      for (const gi of grp.gates) {
+      for (let k = g0; k < g1; k++) {
+        const gi = gates[k];
         const d = nl.devices[gi];
         const weak = d.op === 'pullup' || d.op === 'pulldown';
         if ((weak ? WEAK : DRIVEN) !== lvl) continue;
@@ -208,80 +297,96 @@ export class SwitchSimulator {
         }
         this.deliver(out, mk, gi, mk !== 3 && kind !== 'wand' && kind !== 'wor');
       }
-      if (lvl === CHARGE) for (const n of grp.nets) if (level[n] === 0 && charge[n]) this.deliver(n, charge[n], -1, false);
+      if (lvl === CHARGE) {
+        for (let i = n0; i < n1; i++) {
+          const n = nets[i];
+          if (level[n] === 0 && charge[n]) this.deliver(n, charge[n], -1, false);
+        }
+      }
       while (this.top > 0) {
         const n = this.stack[--this.top];
         if (level[n] !== lvl) continue;
         const mn = mask[n];
-        for (const ei of m.edgesAt[n]) {
-          const e = m.edges[ei];
+        for (let k = at.off[n], kEnd = at.off[n + 1]; k < kEnd; k++) {
+          const ei = at.list[k];
           const st = edgeSt[ei];
-          if (e.cap < lvl || st === 1 || (st === 3 && !includeX)) continue;
-          const to = e.a === n ? e.b : e.a;
-          if (m.groupOf[to] < 0) continue;
+          if (edgeCap[ei] < lvl || st === 1 || (st === 3 && !includeX)) continue;
+          const a = edgeA[ei];
+          const to = a === n ? edgeB[ei] : a;
+          if (groupOf[to] < 0) continue;
           let mk = mn;
-          if (e.oneWay) mk &= e.a === n ? 2 : 1;
-          if (mk) this.deliver(to, mk, e.device, mk !== 3 && st === 2);
+          if (edgeOneWay[ei]) mk &= a === n ? 2 : 1;
+          if (mk) this.deliver(to, mk, edgeDevice[ei], mk !== 3 && st === 2);
         }
       }
       if (this.tracking) {
-        for (const n of this.pureTouched) {
+        for (let i = 0; i < this.nTouched; i++) {
+          const n = this.pureTouched[i];
           if (this.pure0[n] && this.pure1[n] && level[n] === lvl && lvl >= WEAK) {
             this.pendingContention.set(n, [this.pure0[n], this.pure1[n]].map((d) => nl.devices[d - 1].name));
           }
           this.pure0[n] = 0;
           this.pure1[n] = 0;
         }
-        this.pureTouched.length = 0;
+        this.nTouched = 0;
       }
     }
   }
 
-  /** Ternary evaluation of one group; pushes the nets whose value or strength changed. */
-  private evaluateGroup(g: number, changed: number[]): void {
+  /** Ternary evaluation of one group; records in `changed` the nets whose value or strength changed. */
+  private evaluateGroup(g: number): void {
     this.scratch();
     const m = this.model;
-    const grp = m.groups[g];
     const nl = m.nl;
-    const { level, mask, charge, edgeSt } = this;
-    for (const gi of grp.gates) {
+    const { level, mask, charge, edgeSt, oldLevel, oldMask } = this;
+    const nets = m.groupNets.list;
+    const n0 = m.groupNets.off[g];
+    const n1 = m.groupNets.off[g + 1];
+    for (let k = m.groupGates.off[g]; k < m.groupGates.off[g + 1]; k++) {
+      const gi = m.groupGates.list[k];
       if (nl.devices[gi].op !== 'dff') this.gateOut[gi] = this.evalGate(gi);
     }
     // controls are read before the group's own nets are cleared (a gate may sit in its own group)
     let unknown = false;
-    for (const ei of grp.edges) {
-      const e = m.edges[ei];
+    const edges = m.groupEdges.list;
+    for (let k = m.groupEdges.off[g], kEnd = m.groupEdges.off[g + 1]; k < kEnd; k++) {
+      const ei = edges[k];
+      const control = m.edgeControl[ei];
       let st: Mask = 2;
-      if (e.control === 'nmos') st = this.read(e.gate, nl.devices[e.device].name);
-      else if (e.control === 'pmos') {
-        const r = this.read(e.gate, nl.devices[e.device].name);
+      if (control === CTL_NMOS) st = this.read(m.edgeGate[ei], m.edgeDevice[ei]);
+      else if (control === CTL_PMOS) {
+        const r = this.read(m.edgeGate[ei], m.edgeDevice[ei]);
         st = ((r & 1) << 1) | ((r >> 1) & 1);
-      } else if (e.control === 'expr') st = this.evalCompiled(m.compiled[ei]!, nl.devices[e.device].name);
+      } else if (control === CTL_EXPR) st = this.evalProgram(m.programAt[ei], m.edgeDevice[ei]);
       edgeSt[ei] = st; // 1 = off, 2 = on, 3 = unknown
       if (st === 3) unknown = true;
     }
-    for (const n of grp.nets) {
-      this.oldLevel[n] = level[n];
-      this.oldMask[n] = mask[n];
+    for (let i = n0; i < n1; i++) {
+      const n = nets[i];
+      oldLevel[n] = level[n];
+      oldMask[n] = mask[n];
     }
     this.propagate(g, false);
     if (unknown) {
       // Ternary evaluation: once with only the switches surely on, once with the unknown ones on
       // too; a net whose two answers differ is X (an unknown switch matters only if it changes
       // something).
-      for (const n of grp.nets) {
+      for (let i = n0; i < n1; i++) {
+        const n = nets[i];
         this.sureLevel[n] = level[n];
         this.sureMask[n] = mask[n];
       }
       this.propagate(g, true);
-      for (const n of grp.nets) {
+      for (let i = n0; i < n1; i++) {
+        const n = nets[i];
         mask[n] |= this.sureMask[n];
         if (this.sureLevel[n] > level[n]) level[n] = this.sureLevel[n];
       }
     }
-    for (const n of grp.nets) {
+    for (let i = n0; i < n1; i++) {
+      const n = nets[i];
       if (level[n] >= CHARGE) charge[n] = mask[n];
-      if (level[n] !== this.oldLevel[n] || mask[n] !== this.oldMask[n]) changed.push(n);
+      if (level[n] !== oldLevel[n] || mask[n] !== oldMask[n]) this.changed[this.nChanged++] = n;
     }
   }
 
@@ -290,7 +395,7 @@ export class SwitchSimulator {
     const m = this.model;
     this.step++;
     const first = this.step === 0;
-    const groups = new Set<number>();
+    const queue = (this.queue ??= new RankQueue(m.rank));
     // edge-triggered flip-flops sample d on the rising clock before anything else moves
     const dffUpdates: [number, Mask][] = [];
     for (const [name, value] of Object.entries(vector)) {
@@ -299,46 +404,52 @@ export class SwitchSimulator {
       const mk = maskOf(value);
       if (this.mask[net] !== mk || this.level[net] !== RAIL) {
         if (this.mask[net] === 1 && mk === 2) {
-          for (const gi of m.gateReaders[net]) {
+          for (let k = m.gateReaders.off[net]; k < m.gateReaders.off[net + 1]; k++) {
+            const gi = m.gateReaders.list[k];
             const d = m.nl.devices[gi];
-            if (d.op === 'dff' && d.terminals[2] === net) dffUpdates.push([gi, this.read(d.terminals[1], d.name)]);
+            if (d.op === 'dff' && d.terminals[2] === net) dffUpdates.push([gi, this.read(d.terminals[1], gi)]);
           }
         }
         this.mask[net] = mk;
         this.level[net] = RAIL;
-        for (const g of m.readers[net]) groups.add(g);
+        for (let k = m.readers.off[net]; k < m.readers.off[net + 1]; k++) queue.push(m.readers.list[k]);
       }
     }
     for (const [gi, mk] of dffUpdates) {
       this.gateOut[gi] = mk;
       const g = m.groupOf[m.nl.devices[gi].terminals[0]];
-      if (g >= 0) groups.add(g);
+      if (g >= 0) queue.push(g);
     }
-    if (first) m.groups.forEach((_, g) => groups.add(g));
+    if (first) for (let g = 0; g < m.groupCount; g++) queue.push(g);
     // Rank-ordered worklist (a binary heap on the topological rank): each group of acyclic logic
-    // settles in one evaluation; loops iterate up to the bound.
-    const queue = (this.queue ??= new RankQueue(m.rank));
-    for (const g of groups) queue.push(g);
-    const evals = new Map<number, number>();
-    const stuck = new Set<number>();
-    const changed: number[] = [];
+    // settles in one evaluation; loops iterate up to the bound. Counts are per step (evalStep
+    // says which step a group's count belongs to); a stuck group's count stays above the bound.
+    const { evalCount, evalStep, changed } = this;
+    const step = this.step;
+    const { off: rOff, list: rList } = m.readers;
     while (queue.size) {
       const g = queue.pop();
-      if (stuck.has(g)) continue;
-      const count = (evals.get(g) ?? 0) + 1;
-      evals.set(g, count);
-      changed.length = 0;
+      if (evalStep[g] !== step) {
+        evalStep[g] = step;
+        evalCount[g] = 0;
+      }
+      if (evalCount[g] > this.maxEval) continue; // stuck: already set to X this step
+      const count = ++evalCount[g];
+      this.nChanged = 0;
       if (count > this.maxEval) {
-        stuck.add(g);
-        for (const n of m.groups[g].nets) {
+        const nets = m.groupNets.list.subarray(m.groupNets.off[g], m.groupNets.off[g + 1]);
+        for (const n of nets) {
           this.mask[n] = 3;
           this.charge[n] = 3;
           this.level[n] = Math.max(this.level[n], WEAK);
-          changed.push(n);
+          changed[this.nChanged++] = n;
         }
-        this.result.oscillations.push({ step: this.step, nets: m.groups[g].nets.slice(0, 8).map((n) => m.nl.nets[n].name) });
-      } else this.evaluateGroup(g, changed);
-      for (const n of changed) for (const r of m.readers[n]) queue.push(r);
+        this.result.oscillations.push({ step, nets: Array.from(nets.subarray(0, 8), (n) => m.nl.nets[n].name) });
+      } else this.evaluateGroup(g);
+      for (let i = 0; i < this.nChanged; i++) {
+        const n = changed[i];
+        for (let k = rOff[n], kEnd = rOff[n + 1]; k < kEnd; k++) queue.push(rList[k]);
+      }
     }
     for (const [net, readers] of this.pendingFloating) {
       if (this.level[net] < BLEED) this.result.floatingReads.push({ net: m.nl.nets[net].name, step: this.step, readers });
