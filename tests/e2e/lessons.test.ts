@@ -90,6 +90,13 @@ async function exploreShared(page: Page, size: SizeName) {
   await badge.scrollIntoViewIfNeeded();
   await screenshot(page, 'share-explored', 'anonymous', size);
 
+  // The two-level rewrite's side by side: map with don't-cares and the cover.
+  const side = page.getByTestId('explorer-two-level-0');
+  await side.scrollIntoViewIfNeeded();
+  expect(await page.getByTestId('explorer-two-level-0-cover').innerText()).toMatch(/=/);
+  expect(await page.getByTestId('explorer-two-level-0-map').innerText()).toContain('–');
+  await screenshot(page, 'share-two-level', 'anonymous', size);
+
   // Back to the scanned figures: the badge passes again.
   await page.getByTestId('explorer-reset').click();
   await expect.poll(() => badge.innerText()).toBe('Pass');

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { formatMoney, formatSi } from './explorer-format';
+import { formatMoney, formatSetting, formatSi } from './explorer-format';
 
 describe('explorer number wording', () => {
   it('writes values with engineering prefixes', () => {
@@ -17,5 +17,12 @@ describe('explorer number wording', () => {
 
   it('writes money to two places with the currency', () => {
     expect(formatMoney(1.2, 'EUR')).toBe('1.20 EUR');
+  });
+
+  it('words slider settings with their units', () => {
+    expect(formatSetting('loads', 1)).toBe('1 load');
+    expect(formatSetting('loads', 4)).toBe('4 loads');
+    expect(formatSetting('pullUpOhms', 4300)).toBe('4.3 kΩ');
+    expect(formatSetting('clockPeriod', 1e-6)).toBe('1 µs');
   });
 });

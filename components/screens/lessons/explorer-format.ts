@@ -28,3 +28,9 @@ export const SETTING_LABELS: Record<SettingKey, { label: string; unit: string }>
 };
 
 export const SETTING_ORDER: SettingKey[] = ['betaMin', 'pullUpOhms', 'supplyVolts', 'clockPeriod', 'loads'];
+
+/** A slider's value in words: "4.7 kΩ", "250 ns", "1 load", "12 loads". */
+export function formatSetting(key: SettingKey, value: number): string {
+  if (key === 'loads') return `${value} load${value === 1 ? '' : 's'}`;
+  return formatSi(value, SETTING_LABELS[key].unit);
+}

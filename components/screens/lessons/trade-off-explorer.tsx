@@ -8,7 +8,7 @@ import { useWhatIf } from '@/components/data/use-lessons';
 import { useTheme } from '@/components/theme/use-theme';
 import { Button, Card, Notice, Text, ToggleRow } from '@/components/ui';
 import { Slider } from '@/components/ui/slider';
-import { formatSi, SETTING_LABELS, SETTING_ORDER } from './explorer-format';
+import { formatSetting, SETTING_LABELS, SETTING_ORDER } from './explorer-format';
 import { MarginsCard, PartsCard } from './explorer-results';
 import { TwoLevelSide } from './two-level-side';
 
@@ -56,7 +56,8 @@ export function TradeOffExplorer({ explorer, testID = 'explorer' }: { explorer: 
               min={ranges[k].min}
               max={ranges[k].max}
               step={ranges[k].step}
-              format={(v) => formatSi(v, SETTING_LABELS[k].unit)}
+              // A setting no stored margin uses reads so until it is moved (it changes nothing).
+              format={(v) => (moved[k] === undefined && scanned[k] === undefined ? 'not used here' : formatSetting(k, v))}
               onChange={(v) => setMoved((m) => ({ ...m, [k]: v }))}
               testID={`${testID}-slider-${k}`}
             />

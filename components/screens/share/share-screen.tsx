@@ -4,7 +4,7 @@ import { useLocalSearchParams } from 'expo-router';
 import { View } from 'react-native';
 import { useSharedLesson } from '@/components/data/use-lessons';
 import { useTheme } from '@/components/theme/use-theme';
-import { EmptyState, Loading, Notice, Screen, Text } from '@/components/ui';
+import { EmptyState, Loading, Notice, Screen } from '@/components/ui';
 import { formatDate } from '@/components/screens/common/format';
 import { LessonReading } from '@/components/screens/lessons/lesson-reading';
 import { PrintButton } from '@/components/screens/lessons/print-button';
@@ -36,7 +36,6 @@ export function ShareScreen() {
     >
       <View style={{ gap: spacing.lg }}>
         <Notice tone="info" message="A shared lesson: read-only. Sign-in is not needed to explore it." testID="share-readonly" />
-        <Text tone="muted">Trimwire · Larkspur Relay Works lesson</Text>
         <LessonReading sections={lesson.sections} explorer={explorer} />
       </View>
     </Screen>
