@@ -1,47 +1,60 @@
 // Worklist of groups ordered by topological rank (a binary min-heap with a membership flag), so
 // the simulator settles acyclic logic with one evaluation per group and a group is queued once.
+// Heap entries and their ranks sit in typed arrays and sift by moving a hole: no allocation per
+// push or pop, since a large design pushes millions of groups in a simulation.
 export class RankQueue {
-  private readonly heap: number[] = [];
+  private readonly items: Int32Array;
+  private readonly keys: Int32Array;
+  private count = 0;
   private readonly queued: Uint8Array;
   constructor(private readonly rank: Int32Array) {
     this.queued = new Uint8Array(rank.length);
+    // each group is in the heap at most once
+    this.items = new Int32Array(rank.length);
+    this.keys = new Int32Array(rank.length);
   }
 
   get size(): number {
-    return this.heap.length;
+    return this.count;
   }
 
   push(g: number): void {
     if (this.queued[g]) return;
     this.queued[g] = 1;
-    const { heap, rank } = this;
-    heap.push(g);
-    let i = heap.length - 1;
+    const { items, keys } = this;
+    const key = this.rank[g];
+    let i = this.count++;
     while (i > 0) {
       const p = (i - 1) >> 1;
-      if (rank[heap[p]] <= rank[heap[i]]) break;
-      [heap[p], heap[i]] = [heap[i], heap[p]];
+      if (keys[p] <= key) break;
+      items[i] = items[p];
+      keys[i] = keys[p];
       i = p;
     }
+    items[i] = g;
+    keys[i] = key;
   }
 
   pop(): number {
-    const { heap, rank } = this;
-    const top = heap[0];
-    const last = heap.pop()!;
-    if (heap.length) {
-      heap[0] = last;
+    const { items, keys } = this;
+    const top = items[0];
+    const n = --this.count;
+    if (n > 0) {
+      const g = items[n];
+      const key = keys[n];
       let i = 0;
       for (;;) {
         const l = 2 * i + 1;
+        if (l >= n) break;
         const r = l + 1;
-        let k = i;
-        if (l < heap.length && rank[heap[l]] < rank[heap[k]]) k = l;
-        if (r < heap.length && rank[heap[r]] < rank[heap[k]]) k = r;
-        if (k === i) break;
-        [heap[k], heap[i]] = [heap[i], heap[k]];
+        const k = r < n && keys[r] < keys[l] ? r : l;
+        if (keys[k] >= key) break;
+        items[i] = items[k];
+        keys[i] = keys[k];
         i = k;
       }
+      items[i] = g;
+      keys[i] = key;
     }
     this.queued[top] = 0;
     return top;
