@@ -194,8 +194,14 @@ describe('review workflow', () => {
 
       // Accept a proved one, with passing margins when there is one, so it is fit to apply.
       const proved = ours().filter({ hasText: 'Proved' });
-      const ready = proved.filter({ hasText: 'Margins pass' });
-      const pick = (await ready.count()) ? ready.first() : (await proved.count()) ? proved.first() : ours().first();
+      const choices = [proved.filter({ hasText: 'Margins pass' }), proved.filter({ hasText: 'Margins warn' }), proved, ours()];
+      let pick = ours().first();
+      for (const c of choices) {
+        if (await c.count()) {
+          pick = c.first();
+          break;
+        }
+      }
       await pick.click();
       await page.getByTestId('proposal-detail').waitFor();
       acceptedTitle = await page.getByTestId('proposal-title').innerText();
@@ -253,7 +259,10 @@ describe('review workflow', () => {
       await expect(page.getByTestId('apply-result').innerText()).resolves.toMatch(/Revision 2 made with 1 accepted proposal/);
       const detail = (await (await page.request.get(`/api/designs/${designId}`)).json()) as { revisions: { number: number; partCounts: { total: number } }[] };
       const [r1, r2] = [detail.revisions.find((r) => r.number === 1)!, detail.revisions.find((r) => r.number === 2)!];
-      expect(r2.partCounts.total).toBeLessThan(r1.partCounts.total);
+      // The new revision is the old one less what the applied proposal saves.
+      const applied = (await (await page.request.get(`/api/designs/${designId}/proposals?status=applied`)).json()) as { proposals: { savings: { parts: number } }[] };
+      expect(applied.proposals).toHaveLength(1);
+      expect(r1.partCounts.total - r2.partCounts.total).toBe(applied.proposals[0].savings.parts);
 
       await page.getByTestId('design-open-revisions').click();
       await page.getByTestId('revisions-screen').waitFor();
