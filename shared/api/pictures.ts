@@ -5,8 +5,8 @@ import { z } from 'zod';
 const LevelSchema = z.union([z.literal(0), z.literal(1), z.literal('X'), z.literal('Z')]);
 const PartSchema = z.object({
   name: z.string(),
-  kind: z.string(),
-  op: z.string().optional(),
+  kind: z.enum(['npn', 'pnp', 'nmos', 'pmos', 'resistor', 'capacitor', 'diode', 'vsource', 'isource', 'gate']),
+  op: z.enum(['buf', 'not', 'and', 'or', 'nand', 'nor', 'xor', 'xnor', 'bufif0', 'bufif1', 'notif0', 'notif1', 'pullup', 'pulldown', 'latch', 'dff']).optional(),
   value: z.number().optional(),
   model: z.string().optional(),
   terminals: z.array(z.object({ name: z.string(), net: z.string() })),

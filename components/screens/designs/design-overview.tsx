@@ -7,6 +7,7 @@ import { useMe } from '@/components/data/use-me';
 import { useTheme } from '@/components/theme/use-theme';
 import { Badge, Button, Card, ErrorState, Loading, Text } from '@/components/ui';
 import { formatDateTime } from '@/components/screens/common/format';
+import { DesignCharts } from '@/components/charts/design-charts';
 import { ApplyCard } from './apply-card';
 import { AssumptionsCard } from './assumptions-card';
 import { BoardBudgets } from './board-budgets';
@@ -48,6 +49,7 @@ export function DesignOverview({ id }: { id: string }) {
       <ScanCard design={design} canScan={canChange} onOpenProposals={() => router.push(openProposals)} />
       {canChange ? <ApplyCard design={design} /> : null}
       <BoardBudgets boards={design.boards} />
+      <DesignCharts design={design} />
       <AssumptionsCard designId={design.id} assumptions={design.assumptions} canEdit={canChange} />
       <RevisionsCard revisions={design.revisions} limit={3} />
     </View>

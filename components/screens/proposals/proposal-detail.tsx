@@ -7,6 +7,7 @@ import { useProposal } from '@/components/data/use-proposals';
 import { useTheme } from '@/components/theme/use-theme';
 import { Badge, Card, ErrorState, Loading, Text } from '@/components/ui';
 import { formatDateTime } from '@/components/screens/common/format';
+import { ProposalPictures } from '@/components/drawing/proposal-pictures';
 import { Cautions } from './cautions';
 import { ChangeCard } from './change-card';
 import { CommentsCard } from './comments-card';
@@ -49,6 +50,7 @@ export function ProposalDetailView({ id }: { id: string }) {
         ) : null}
       </Card>
       <ChangeCard proposal={proposal} />
+      <ProposalPictures proposal={proposal} />
       <EvidenceCard proposal={proposal} />
       <MarginsCard proposal={proposal} />
       <Card title="Assumptions relied on" testID="proposal-assumptions">
