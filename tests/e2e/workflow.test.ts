@@ -328,6 +328,12 @@ describe('review workflow', () => {
         await page.getByTestId('proposal-detail').waitFor();
       }
       await screenshot(page, 'sign-off', 'reviewer', 'wide');
+      // The decided proposals of the uploaded design, beside the list, with their decisions.
+      await page.goto(`${designUrl}/proposals?status=rejected`);
+      await page.locator('[data-testid^="proposal-row-"][role="button"]').first().click();
+      await page.getByTestId('proposal-decision-0').waitFor();
+      await expect(page.getByTestId('proposal-decision-0').innerText()).resolves.toContain(REJECT_REASON);
+      await screenshot(page, 'proposals', 'reviewer', 'wide');
     } finally {
       await wide.context.close();
     }
