@@ -89,7 +89,7 @@ export async function layoutRegion(graph: RegionGraph, extraOptions: Record<stri
       'elk.direction': directionOf(graph),
       'elk.edgeRouting': 'ORTHOGONAL',
       'elk.randomSeed': '1',
-      'elk.spacing.nodeNode': '36',
+      'elk.spacing.nodeNode': '56',
       'elk.layered.spacing.nodeNodeBetweenLayers': '48',
       'elk.spacing.edgeNode': '16',
       'elk.spacing.edgeEdge': '10',
