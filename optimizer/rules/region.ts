@@ -6,15 +6,20 @@ import type { FlatDevice, FlatNet, FlatNetlist } from '../netlist/ir';
 import { deviceIndex } from '../rewrite/edits';
 import type { Edit } from './types';
 
-const indexCache = new WeakMap<FlatNetlist, { byName: Map<string, number>; sources: number[] }>();
+const indexCache = new WeakMap<FlatNetlist, { byName: Map<string, number>; sources: number[]; onNet: Map<number, number[]> }>();
 
-/** Device index by name and the sources, built once per design. */
+/** Device index by name, the sources, and the devices on each net, built once per design. */
 export function indexOf(nl: FlatNetlist) {
   let idx = indexCache.get(nl);
   if (!idx) {
-    idx = { byName: deviceIndex(nl), sources: [] };
+    idx = { byName: deviceIndex(nl), sources: [], onNet: new Map() };
     nl.devices.forEach((d, i) => {
       if (d.kind === 'vsource') idx!.sources.push(i);
+      for (const t of new Set(d.terminals)) {
+        const list = idx!.onNet.get(t);
+        if (list) list.push(i);
+        else idx!.onNet.set(t, [i]);
+      }
     });
     indexCache.set(nl, idx);
   }

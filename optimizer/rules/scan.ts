@@ -82,17 +82,22 @@ function ownersOf(view: LogicView): Map<number, string[]> {
 /**
  * Nets an edit changes: terminals of removed, reconnected and added devices, merged nets, and
  * every driven net whose logic group contains a removed or reconnected device (a base resistor
- * moved changes the collector node it feeds).
+ * moved changes the collector node it feeds). A merge moves every device on the removed net onto
+ * the kept one, so the groups holding those devices change too.
  */
 function changedNets(nl: FlatNetlist, view: LogicView, p: Proposal): string[] {
   const names = new Set<string>();
-  const index = indexOf(nl).byName;
+  const { byName: index, onNet } = indexOf(nl);
   const hit = new Set<number>();
   for (const name of [...p.edit.removeDevices, ...p.edit.reconnect.map((r) => r.device)]) {
     const i = index.get(name);
     if (i === undefined) continue;
     hit.add(i);
     for (const t of nl.devices[i].terminals) names.add(nl.nets[t].name);
+  }
+  for (const m of p.edit.mergeNets) {
+    const id = nl.netByName.get(m.remove);
+    for (const d of id === undefined ? [] : (onNet.get(id) ?? [])) hit.add(d);
   }
   const owners = ownersOf(view);
   for (const d of hit) for (const n of owners.get(d) ?? []) names.add(n);
