@@ -1,6 +1,8 @@
 // `npm run bench`: generated bit-sliced designs of 10k, 100k and 1M transistors, each size run in
 // its own child process for clean peak-memory numbers. The deck is written by the parent (not
-// timed); the child times each stage and reports its peak resident memory. Prints a table.
+// timed); the child times each stage and reports its peak resident memory. Prints a table, then
+// the scan with all rules per size (each in a child with a time budget) and the two-level
+// minimiser's overhead over the bare Espresso call. `--skip-scan`, `--skip-minimise` leave those out.
 //
 // Reading the table: one row per generated design ("10k hier" = about 10,000 transistors, one
 // slice subcircuit instantiated per bit; "flat" = every device written out in the deck). Each
@@ -21,6 +23,8 @@ import { generateBitSliced, slicesFor, type Family } from '@/optimizer/netlist/g
 import type { Design, FlatNetlist } from '@/optimizer/netlist/ir';
 import { extractLogic } from '@/optimizer/extract/index';
 import { SwitchSimulator } from '@/optimizer/verify/switch-sim';
+import { createEspressoMinimiser } from '@/optimizer/logic/espresso/espresso-minimiser';
+import { scan } from '@/optimizer/rules/scan';
 
 /** What the stages share; each stage reads what earlier ones left and may add its own result. */
 interface BenchContext {
@@ -120,6 +124,108 @@ function selectedStages(argv: string[]): Stage[] {
   return picked;
 }
 
+/** Scan sizes (transistors, hierarchical RTL bit slices) and the wall-clock budget of each child. */
+const SCAN_SIZES = [1_000, 2_000, 10_000, 100_000, 1_000_000];
+const SCAN_BUDGET_S = Number(process.env.BENCH_SCAN_BUDGET_S ?? 180);
+
+interface ScanChildResult {
+  devices: number;
+  prepare: number;
+  scan: number;
+  findings: number;
+  verdicts: Record<string, number>;
+  ruleErrors: number;
+  peakRssMiB: number;
+}
+
+/** Child: parse, flatten and extract (the "prepare" column), then scan with every rule. */
+async function scanChild(deckPath: string): Promise<void> {
+  let t0 = performance.now();
+  const flat = flatten(readSpice(readFileSync(deckPath, 'utf8'), 'bench.cir').design);
+  const view = extractLogic(flat);
+  const prepare = (performance.now() - t0) / 1000;
+  const minimiser = createEspressoMinimiser({ size: 1 });
+  try {
+    t0 = performance.now();
+    const r = await scan(flat, { view, minimiser });
+    const seconds = (performance.now() - t0) / 1000;
+    const verdicts: Record<string, number> = {};
+    for (const f of r.findings) for (const p of f.proposals) verdicts[p.verdict] = (verdicts[p.verdict] ?? 0) + 1;
+    const result: ScanChildResult = {
+      devices: flat.devices.length,
+      prepare,
+      scan: seconds,
+      findings: r.findings.length,
+      verdicts,
+      ruleErrors: r.ruleErrors.length,
+      peakRssMiB: process.resourceUsage().maxRSS / 1024,
+    };
+    process.stdout.write(JSON.stringify(result) + '\n');
+  } finally {
+    minimiser.close();
+  }
+}
+
+function printTable(header: string[], rows: string[][]): void {
+  const widths = header.map((h, i) => Math.max(h.length, ...rows.map((r) => r[i].length)));
+  const line = (cells: string[]) => cells.map((x, i) => (i === 0 ? x.padEnd(widths[i]) : x.padStart(widths[i]))).join('  ');
+  console.log(line(header));
+  console.log(widths.map((w) => '-'.repeat(w)).join('  '));
+  for (const r of rows) console.log(line(r));
+}
+
+/** Scan with all rules per size; once a size exceeds its budget the larger ones are not started. */
+function scanSection(dir: string): void {
+  const header = ['design', 'devices', 'prepare s', 'scan s', 'findings', 'verdicts', 'rule errors', 'peak RSS MiB'];
+  const rows: string[][] = [];
+  let over = false;
+  for (const n of SCAN_SIZES) {
+    const label = `${n >= 1e6 ? n / 1e6 + 'M' : n / 1e3 + 'k'} hier`;
+    if (over) {
+      rows.push([label, '', '', `not run (a smaller size exceeded ${SCAN_BUDGET_S} s)`, '', '', '', '']);
+      continue;
+    }
+    const deckPath = path.join(dir, `scan-${n}.cir`);
+    writeFileSync(deckPath, writeSpice(generateBitSliced({ slices: slicesFor(n, 'rtl'), family: 'rtl' })));
+    const run = spawnSync(process.execPath, [...process.execArgv, __filename, '--scan-child', deckPath], {
+      encoding: 'utf8',
+      maxBuffer: 16 * 1024 * 1024,
+      timeout: SCAN_BUDGET_S * 1000,
+      killSignal: 'SIGKILL',
+    });
+    if (run.error || run.status !== 0) {
+      const stopped = run.signal === 'SIGKILL' || (run.error as NodeJS.ErrnoException | undefined)?.code === 'ETIMEDOUT';
+      rows.push([label, '', '', stopped ? `> ${SCAN_BUDGET_S} (stopped)` : `failed (status ${run.status})`, '', '', '', '']);
+      if (!stopped) process.stderr.write(`${label}: scan child failed\n${run.stderr}\n`);
+      over = true;
+      continue;
+    }
+    const r = JSON.parse(run.stdout.trim().split('\n').pop()!) as ScanChildResult;
+    rows.push([
+      label,
+      r.devices.toLocaleString('en-US'),
+      r.prepare.toFixed(2),
+      r.scan.toFixed(2),
+      String(r.findings),
+      Object.entries(r.verdicts).map(([k, x]) => `${k} ${x}`).join(', ') || '—',
+      String(r.ruleErrors),
+      r.peakRssMiB.toFixed(0),
+    ]);
+    process.stderr.write(`done scan ${label}\n`);
+  }
+  console.log('');
+  console.log(`Scan with all rules (RTL bit slices, hierarchical; goal: 100k transistors under 10 s, 1M under 2 min, under 4 GB; budget ${SCAN_BUDGET_S} s a size)`);
+  printTable(header, rows);
+}
+
+/** The two-level minimiser's table (its own script, so it can also be run alone). */
+function minimiseSection(): void {
+  const run = spawnSync(process.execPath, [...process.execArgv, path.resolve(__dirname, '../optimizer/logic/espresso/bench-minimise.ts')], { encoding: 'utf8' });
+  console.log('');
+  console.log('two-level-minimise against the bare Espresso call (function and complement; goal: overhead under 30 % at 8–14 inputs)');
+  process.stdout.write(run.status === 0 ? run.stdout : `failed (status ${run.status})\n${run.stderr}\n`);
+}
+
 function parent(): void {
   const dir = path.resolve(__dirname, '../bench-results');
   mkdirSync(dir, { recursive: true });
@@ -165,7 +271,14 @@ function parent(): void {
       ]),
     );
   }
+  if (!argv.includes('--skip-scan')) scanSection(dir);
+  if (!argv.includes('--skip-minimise')) minimiseSection();
 }
 
 if (process.argv[2] === '--child') child(process.argv[3], selectedStages(process.argv));
-else parent();
+else if (process.argv[2] === '--scan-child') {
+  scanChild(process.argv[3]).catch((e: unknown) => {
+    process.stderr.write(String(e instanceof Error ? e.stack : e) + '\n');
+    process.exitCode = 1;
+  });
+} else parent();
