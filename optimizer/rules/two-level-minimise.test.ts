@@ -1,6 +1,5 @@
 // two-level-minimise: valid cases (no finding) and invalid cases (findings with message id, data,
 // savings equal to the applied part delta, proofs by the scan), per family, and the doc examples.
-import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import { editSavings } from '../cost/cost';
@@ -15,6 +14,7 @@ import { createEspressoMinimiser } from '../logic/espresso/espresso-minimiser';
 import { NetlistBuilder } from '../netlist/build';
 import type { FlatNetlist } from '../netlist/ir';
 import { scan } from './scan';
+import { deckExamples } from './support/rule-test-kit';
 import { twoLevelMinimise } from './two-level-minimise';
 import type { Assumption, Proposal, Rule } from './types';
 
@@ -41,21 +41,7 @@ function countDelta(nl: FlatNetlist, p: Proposal) {
   };
 }
 
-/** The doc's ```spice examples: `* expect: none | <messageId> key=value …`, `* assume: ID EXPR`. */
-function docExamples(file: string) {
-  const md = readFileSync(file, 'utf8');
-  return [...md.matchAll(/```spice\n([\s\S]*?)```/g)].map((m) => {
-    const deck = m[1];
-    const [head, ...pairs] = /^\*\s*expect:\s*(.+)$/m.exec(deck)![1].trim().split(/\s+/);
-    return {
-      label: deck.split('\n')[0].trim(),
-      deck,
-      expect: { messageId: head === 'none' ? null : head, data: Object.fromEntries(pairs.map((p) => p.split('=') as [string, string])) },
-      assumptions: [...deck.matchAll(/^\*\s*assume:\s*(\S+)\s+(.+)$/gm)].map((a) => assumption(a[1], a[2].trim())),
-    };
-  });
-}
-const examples = docExamples(path.join(__dirname, 'two-level-minimise.md'));
+const examples = deckExamples(path.join(__dirname, 'two-level-minimise.md'));
 const deck = (k: number) => deckToFlat(examples[k].deck);
 
 /**

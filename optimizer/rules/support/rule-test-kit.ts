@@ -153,7 +153,10 @@ export function deckExamples(mdPath: string): DeckExample[] {
   for (const m of md.matchAll(/```spice\n([\s\S]*?)```/g)) {
     const deck = m[1];
     const expectLine = /^\*\s*expect:\s*(.+)$/m.exec(deck);
-    if (!expectLine) throw new Error(`${mdPath}: a spice example lacks a "* expect:" line`);
+    if (!expectLine) {
+      const line = md.slice(0, m.index ?? 0).split('\n').length;
+      throw new Error(`${mdPath}:${line}: the spice example "${deck.split('\n')[0].trim()}" lacks a "* expect: none" or "* expect: <messageId> key=value …" line`);
+    }
     const [head, ...pairs] = expectLine[1].trim().split(/\s+/);
     const data = Object.fromEntries(pairs.map((p) => p.split('=') as [string, string]));
     const assumptions = [...deck.matchAll(/^\*\s*assume:\s*(\S+)\s+(.+)$/gm)].map((a) => assumption(a[1], a[2].trim()));
