@@ -19,20 +19,25 @@ export interface ExtractContext {
 
 export function makeContext(nl: FlatNetlist): ExtractContext {
   const nNets = nl.nets.length;
+  const devices = nl.devices;
   const counts = new Int32Array(nNets + 1);
-  for (const d of nl.devices) for (const t of d.terminals) counts[t + 1]++;
+  for (let di = 0; di < devices.length; di++) {
+    const ts = devices[di].terminals;
+    for (let ti = 0; ti < ts.length; ti++) counts[ts[ti] + 1]++;
+  }
   for (let i = 0; i < nNets; i++) counts[i + 1] += counts[i];
-  const offsets = counts.slice();
+  const offsets = counts;
   const fill = counts.slice(0, nNets);
   const termDev = new Int32Array(offsets[nNets]);
   const termIdx = new Int8Array(offsets[nNets]);
-  nl.devices.forEach((d, di) => {
-    d.terminals.forEach((t, ti) => {
-      const at = fill[t]++;
+  for (let di = 0; di < devices.length; di++) {
+    const ts = devices[di].terminals;
+    for (let ti = 0; ti < ts.length; ti++) {
+      const at = fill[ts[ti]]++;
       termDev[at] = di;
       termIdx[at] = ti;
-    });
-  });
+    }
+  }
   const railVolts = new Float64Array(nNets).fill(NaN);
   for (const r of nl.rails) railVolts[r.net] = r.volts;
   return { nl, offsets, termDev, termIdx, railVolts, diagnostics: [], vars: new Array(nNets) };

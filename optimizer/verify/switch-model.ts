@@ -7,6 +7,9 @@ import type { Expr } from '../logic/expr';
 import { makeContext, isRail } from '../extract/context';
 import { BaseResolver } from '../extract/bipolar';
 import { loadTransistor } from '../extract/mos';
+import { grow, Pairs, type Csr } from './csr';
+
+export type { Csr } from './csr';
 
 /**
  * Strengths (Bryant 1984): rail > driven transistor > pull-up resistor > stored charge, plus a
@@ -24,12 +27,6 @@ export const CTL_ALWAYS = 0;
 export const CTL_NMOS = 1;
 export const CTL_PMOS = 2;
 export const CTL_EXPR = 3;
-
-/** Compressed lists: the entries of list i are list[off[i]] .. list[off[i+1]-1]. */
-export interface Csr {
-  off: Int32Array;
-  list: Int32Array;
-}
 
 /** Base-drive programs, postfix, two ints an instruction (opcode, argument), OP_END last. */
 export const OP_CONST = 0;
@@ -81,36 +78,6 @@ export interface SwitchModel {
   railVal: Int8Array;
   isInput: Uint8Array;
   netIdsOf: (name: string) => number;
-}
-
-/** Key/value pairs collected in order, then grouped by key keeping that order (counting sort). */
-class Pairs {
-  keys = new Int32Array(1024);
-  vals = new Int32Array(1024);
-  size = 0;
-  push(k: number, v: number): void {
-    if (this.size === this.keys.length) {
-      this.keys = grow(this.keys);
-      this.vals = grow(this.vals);
-    }
-    this.keys[this.size] = k;
-    this.vals[this.size++] = v;
-  }
-  toCsr(n: number): Csr {
-    const off = new Int32Array(n + 1);
-    for (let i = 0; i < this.size; i++) off[this.keys[i] + 1]++;
-    for (let i = 0; i < n; i++) off[i + 1] += off[i];
-    const fill = off.slice(0, n);
-    const list = new Int32Array(this.size);
-    for (let i = 0; i < this.size; i++) list[fill[this.keys[i]]++] = this.vals[i];
-    return { off, list };
-  }
-}
-
-function grow(a: Int32Array) {
-  const b = new Int32Array(a.length * 2);
-  b.set(a);
-  return b;
 }
 
 function find(p: Int32Array, x: number): number {
