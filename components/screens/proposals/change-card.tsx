@@ -8,12 +8,14 @@ import { signed } from './labels';
 
 function Names({ label, names, testID }: { label: string; names: readonly string[]; testID: string }) {
   const { colours, spacing, radii } = useTheme();
-  if (names.length === 0) return null;
-  const shown = names.slice(0, 24);
+  // The engine may name a net once per device touching it; each name is shown once.
+  const unique = [...new Set(names)];
+  if (unique.length === 0) return null;
+  const shown = unique.slice(0, 24);
   return (
     <View style={{ gap: spacing.xs }} testID={testID}>
       <Text variant="overline" tone="muted">
-        {label} ({names.length})
+        {label} ({unique.length})
       </Text>
       <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: spacing.xs }}>
         {shown.map((n) => (
@@ -21,9 +23,9 @@ function Names({ label, names, testID }: { label: string; names: readonly string
             <Text variant="mono">{n}</Text>
           </View>
         ))}
-        {names.length > shown.length ? (
+        {unique.length > shown.length ? (
           <Text variant="caption" tone="muted">
-            and {names.length - shown.length} more
+            and {unique.length - shown.length} more
           </Text>
         ) : null}
       </View>
