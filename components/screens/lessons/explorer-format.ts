@@ -15,8 +15,8 @@ export function formatSi(value: number, unit: string): string {
   return `${Number((value / scale).toPrecision(3))} ${prefix}${unit}`;
 }
 
-export function formatMoney(value: number, currency: string): string {
-  return `${value.toFixed(2)} ${currency}`;
+export function formatMoney(value: number, currency?: string): string {
+  return currency ? `${value.toFixed(2)} ${currency}` : value.toFixed(2);
 }
 
 export const SETTING_LABELS: Record<SettingKey, { label: string; unit: string }> = {

@@ -18,7 +18,8 @@ const PART_ROWS = [
 export function PartsCard({ result, explorer }: { result: WhatIfResult; explorer: ExplorerData }) {
   const { parts, currency } = result;
   const rows = PART_ROWS.filter(([k]) => parts.before[k] > 0 || parts.after[k] > 0).map(([k, label]) => [label, String(parts.before[k]), String(parts.after[k]), String(parts.saved[k])]);
-  rows.push(['Cost', formatMoney(parts.before.cost, currency), formatMoney(parts.after.cost, currency), formatMoney(parts.saved.cost, currency)]);
+  // The currency goes in the row's name so the cells stay short enough for a phone.
+  rows.push([`Cost (${currency})`, formatMoney(parts.before.cost), formatMoney(parts.after.cost), formatMoney(parts.saved.cost)]);
   return (
     <Card title="Parts and cost" description={explorer.pricesNote} testID="explorer-parts">
       <DataTable

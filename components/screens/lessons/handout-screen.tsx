@@ -49,7 +49,7 @@ export function HandoutScreen() {
         {result && <PartsCard result={result} explorer={explorer} />}
         {result && <MarginsCard result={result} explorer={explorer} />}
         {explorer.proposals.filter((p) => p.twoLevel).map((p, i) => (
-          <TwoLevelSide key={p.id} view={p.twoLevel!} testID={`handout-two-level-${i}`} />
+          <TwoLevelSide key={p.id} view={p.twoLevel!} assumptions={p.evidence.assumptions} testID={`handout-two-level-${i}`} />
         ))}
         {explorer.cautions.map((c, i) => (
           <Text key={i} variant="caption" tone="muted">

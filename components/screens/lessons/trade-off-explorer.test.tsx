@@ -28,7 +28,7 @@ const explorer: ExplorerData = {
   inputs,
   proposals: inputs.proposals.map((p) => ({
     id: p.id, ruleId: p.ruleId, title: p.title, message: '', verdict: 'proved', marginStatus: 'pass', status: 'open',
-    evidence: { method: 'sat', assumptions: [] }, location: { devices: [], instances: [], nets: [] }, twoLevel: null,
+    evidence: { method: 'sat', assumptions: [] }, location: { devices: [], instances: [], nets: [] }, region: { before: [], after: [], reconnect: [], mergeNets: [] }, twoLevel: null,
   })),
   defaults: defaultSettings(inputs),
   pricesNote: 'invented demo prices',

@@ -87,7 +87,7 @@ export function TradeOffExplorer({ explorer, testID = 'explorer' }: { explorer: 
         <View style={{ flex: wide ? 3 : undefined, minWidth: 0 }}>{results}</View>
       </View>
       {twoLevel.map((p, i) => (
-        <TwoLevelSide key={p.id} view={p.twoLevel!} testID={`${testID}-two-level-${i}`} />
+        <TwoLevelSide key={p.id} view={p.twoLevel!} assumptions={p.evidence.assumptions} testID={`${testID}-two-level-${i}`} />
       ))}
       {explorer.cautions.length > 0 && (
         <Card title="Before you build it" testID={`${testID}-cautions`}>

@@ -56,24 +56,26 @@ export function KarnaughMap({ view, testID }: { view: TwoLevelView; testID: stri
   );
 }
 
-export function TwoLevelSide({ view, testID }: { view: TwoLevelView; testID: string }) {
+/** `assumptions` names each assumption id by its expression, so a don't-care says why in words. */
+export function TwoLevelSide({ view, testID, assumptions = [] }: { view: TwoLevelView; testID: string; assumptions?: { id: string; expression: string }[] }) {
+  const named = new Map(assumptions.map((a) => [a.id, a.expression]));
   const { spacing } = useTheme();
   const wide = useLayoutSize() === 'wide';
   const showMap = view.map !== null && view.inputs.length <= MAP_LIMIT;
   const hasAfter = view.rows.some((r) => r.after !== undefined);
   const columns = [
     ...view.inputs.map((n) => ({ title: n })),
-    { title: `${view.output} before` },
+    { title: 'Before' },
     { title: 'Cover' },
     ...(hasAfter ? [{ title: 'After' }] : []),
-    { title: 'Don’t-care because', weight: 3 },
+    { title: 'Don’t-care: breaks', weight: 3 },
   ];
   const rows = view.rows.map((r) => [
     ...r.bits.map(String),
     String(r.before),
     String(r.cover),
     ...(hasAfter ? [r.after === undefined ? '' : String(r.after)] : []),
-    r.excludedBy.length ? r.excludedBy.join(', ') : '',
+    r.excludedBy.map((id) => named.get(id) ?? id).join(', '),
   ]);
   return (
     <Card title={`Where the saving comes from: ${view.output}`} description={`${view.dontCares} of ${view.rows.length} input combinations are don't-cares under the assumptions.`} testID={testID}>
