@@ -65,10 +65,11 @@ export function TwoLevelSide({ view, testID, assumptions = [] }: { view: TwoLeve
   const hasAfter = view.rows.some((r) => r.after !== undefined);
   const columns = [
     ...view.inputs.map((n) => ({ title: n })),
-    { title: 'Before' },
+    // Short headings: seven columns must fit a phone.
+    { title: 'Was' },
     { title: 'Cover' },
-    ...(hasAfter ? [{ title: 'After' }] : []),
-    { title: 'Don’t-care: breaks', weight: 3 },
+    ...(hasAfter ? [{ title: 'Now' }] : []),
+    { title: 'Don’t-care: breaks', weight: 2.5 },
   ];
   const rows = view.rows.map((r) => [
     ...r.bits.map(String),
