@@ -1,10 +1,12 @@
 // /handout/:id — a print-friendly page of a lesson: title, notes, the proposals with their part
-// savings and margins as scanned, the side-by-side views, and the cautions; no controls.
+// savings and margins as scanned, their charts and before/after drawings, the side-by-side views,
+// and the cautions; no controls.
 import { useLocalSearchParams, useRouter } from 'expo-router';
 import { View } from 'react-native';
 import { useExplorer, useLesson, useWhatIf } from '@/components/data/use-lessons';
 import { useTheme } from '@/components/theme/use-theme';
-import { Button, ErrorState, Loading, Screen, Text } from '@/components/ui';
+import { Button, Card, ErrorState, Loading, Screen, Text } from '@/components/ui';
+import { ExplorerCharts, RegionPicture } from './explorer-pictures';
 import { MarginsCard, PartsCard } from './explorer-results';
 import { LessonSections } from './lesson-reading';
 import { PrintButton } from './print-button';
@@ -48,6 +50,12 @@ export function HandoutScreen() {
         <Text variant="title">All proposals switched on, at the scanned figures</Text>
         {result && <PartsCard result={result} explorer={explorer} />}
         {result && <MarginsCard result={result} explorer={explorer} />}
+        {result && <ExplorerCharts explorer={explorer} result={result} testID="handout" />}
+        {explorer.proposals.map((p, i) => (
+          <Card key={p.id} title={p.title} description={`${p.ruleId} · the change, drawn`} testID={`handout-proposal-drawing-${i}`}>
+            <RegionPicture proposals={[p]} testID={`handout-region-${i}`} empty="This rewrite removes or adds no parts to draw." />
+          </Card>
+        ))}
         {explorer.proposals.filter((p) => p.twoLevel).map((p, i) => (
           <TwoLevelSide key={p.id} view={p.twoLevel!} assumptions={p.evidence.assumptions} testID={`handout-two-level-${i}`} />
         ))}

@@ -1,7 +1,7 @@
 // Proves the explorer screen against the engine it runs: switching a proposal off moves its parts
 // saving out of the "after" column, and moving the pull-up slider to its end shows the badge the
 // engine computes for that setting (a rise time that passes at the scanned pull-up and fails at
-// the largest one).
+// the largest one). The charts and the drawing follow the same settings.
 import { afterEach, describe, expect, it } from 'vitest';
 import { cleanup, fireEvent, render, screen } from '@testing-library/react';
 import { riseTime } from '@/optimizer/margins/line';
@@ -28,7 +28,10 @@ const explorer: ExplorerData = {
   inputs,
   proposals: inputs.proposals.map((p) => ({
     id: p.id, ruleId: p.ruleId, title: p.title, message: '', verdict: 'proved', marginStatus: 'pass', status: 'open',
-    evidence: { method: 'sat', assumptions: [] }, location: { devices: [], instances: [], nets: [] }, region: { before: [], after: [], reconnect: [], mergeNets: [] }, twoLevel: null,
+    evidence: { method: 'sat', assumptions: [] }, location: { devices: [], instances: [], nets: [] }, twoLevel: null,
+    region: p.id === 'p-bus'
+      ? { before: [{ name: 'XB1.Q1', kind: 'npn', terminals: ['BUS', 'XB1.B', '0'] }], after: [{ name: 'RPULL', kind: 'resistor', terminals: ['VCC', 'BUS'], value: 4300 }], reconnect: [], mergeNets: [] }
+      : { before: [], after: [], reconnect: [], mergeNets: [] },
   })),
   defaults: defaultSettings(inputs),
   pricesNote: 'invented demo prices',
@@ -61,5 +64,35 @@ describe('TradeOffExplorer', () => {
     expect(screen.getByTestId('explorer-slider-betaMin-value').textContent).toBe('not used here');
     fireEvent.click(screen.getByTestId('explorer-reset'));
     expect(screen.getByTestId('margin-badge-0-0').textContent).toBe('Pass');
+  });
+});
+
+describe('TradeOffExplorer pictures', () => {
+  const label = (id: string) => screen.getByTestId(id).querySelector('[aria-label]')!.getAttribute('aria-label');
+  const transistorBars = () => screen.getByTestId('explorer-chart-parts').querySelector('[data-kind="transistors"]')!;
+
+  it('redraws the margins chart with the engine’s figures when the pull-up slider moves', () => {
+    const max = explorer.defaults.ranges.pullUpOhms.max;
+    const atMax = runWhatIf(inputs, { pullUpOhms: max }, ['p-bus', 'p-ws']).proposals[0]!.margins[0]!;
+    render(<TradeOffExplorer explorer={explorer} />);
+    const scanned = label('explorer-chart-margins');
+    expect(scanned).toContain(`${rise.value} against ${rise.limit} ${rise.unit}, pass`);
+    fireEvent.keyDown(screen.getByTestId('explorer-slider-pullUpOhms'), { key: 'End' });
+    expect(label('explorer-chart-margins')).toContain(`${atMax.value} against ${atMax.limit} ${atMax.unit}, fail`);
+    expect(screen.getByTestId('explorer-chart-margins').querySelector('[data-status]')!.getAttribute('data-status')).toBe('fail');
+  });
+
+  it('redraws the parts chart and the drawing when a proposal is switched off', () => {
+    render(<TradeOffExplorer explorer={explorer} />);
+    expect(transistorBars().getAttribute('data-after')).toBe('8');
+    expect(label('explorer-chart-parts')).toContain('Transistors: 18 before, 8 after');
+    expect(screen.getByTestId('explorer-region-before')).toBeTruthy();
+    fireEvent.click(screen.getByTestId('explorer-toggle-0').querySelector('input')!);
+    expect(transistorBars().getAttribute('data-after')).toBe('16');
+    expect(label('explorer-chart-parts')).toContain('Transistors: 18 before, 16 after');
+    // Only the bus rewrite changes drawable parts; with it off there is nothing to draw.
+    expect(screen.queryByTestId('explorer-region-before')).toBeNull();
+    expect(screen.getByTestId('explorer-region-empty')).toBeTruthy();
+    expect(screen.getByTestId('explorer-chart-margins-empty')).toBeTruthy();
   });
 });

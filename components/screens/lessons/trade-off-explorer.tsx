@@ -1,6 +1,6 @@
 // The trade-off explorer: switch each proposal on or off and move the sliders; part counts, cost,
 // every margin and the worst rise time recompute in the browser with the engine's own what-if
-// code. Nothing here is saved: a what-if never changes the stored design.
+// code, and the charts and before/after drawing redraw with them. Nothing here is saved: a what-if never changes the stored design.
 import { useState } from 'react';
 import { View } from 'react-native';
 import type { ExplorerData, SettingKey, WhatIfSettings } from '@/optimizer/whatif';
@@ -9,6 +9,7 @@ import { useTheme } from '@/components/theme/use-theme';
 import { Button, Card, Notice, Text, ToggleRow } from '@/components/ui';
 import { Slider } from '@/components/ui/slider';
 import { formatSetting, SETTING_LABELS, SETTING_ORDER } from './explorer-format';
+import { ExplorerPictures } from './explorer-pictures';
 import { MarginsCard, PartsCard } from './explorer-results';
 import { TwoLevelSide } from './two-level-side';
 
@@ -76,6 +77,7 @@ export function TradeOffExplorer({ explorer, testID = 'explorer' }: { explorer: 
       {error && <Notice tone="warning" testID={`${testID}-error`} message={`These settings cannot be worked out: ${error}`} />}
       {result && <MarginsCard result={result} explorer={explorer} />}
       {result && <PartsCard result={result} explorer={explorer} />}
+      {result && <ExplorerPictures explorer={explorer} result={result} enabled={enabled} testID={testID} />}
     </View>
   );
 
