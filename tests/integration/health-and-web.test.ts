@@ -66,7 +66,7 @@ describe('web build and SPA fallback', () => {
   });
 
   it('unknown /api paths stay JSON 404s', async () => {
-    const res = await request(h.app).get('/api/designs/42').expect(404);
+    const res = await request(h.app).get('/api/no-such-resource/42').expect(404);
     expect(res.body.error.code).toBe('not-found');
   });
 
