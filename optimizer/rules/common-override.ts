@@ -87,14 +87,27 @@ function receiverFamilies(readers: Map<string, LogicNode[]>, line: LogicNode): M
   return r.length ? r.map((n) => n.family) : [line.family];
 }
 
-function chunkMargins(ctx: RuleContext, ov: Override[], chunk: Chunk, loads: NetIndex, readers: Map<string, LogicNode[]>): MarginResult[] {
+/** Per line, the diode-input receivers' pull-ups (asked of the index once per line, not per split). */
+function inputPullUpsOf(loads: NetIndex, memo: Map<number, number[]>, net: number): number[] {
+  let r = memo.get(net);
+  if (!r) {
+    r = loads.driverLoads(net).diodeInputs.map((d) => d.pullUpOhms);
+    memo.set(net, r);
+  }
+  return r;
+}
+
+/** The steered low level against the receivers depends on which lines share a part, not on how many parts there are. */
+const LOW_LEVEL = 'diode-steered low level';
+
+function chunkMargins(ctx: RuleContext, ov: Override[], chunk: Chunk, loads: NetIndex, readers: Map<string, LogicNode[]>, pullUpMemo: Map<number, number[]>): MarginResult[] {
   const members = [chunk.keep, ...chunk.others];
   if (members.length < 2) return [];
   const nodes = members.map((i) => ctx.view.nodes[ov[i].node]);
   const vcc = nodes[0].pullUp!.railVolts;
   const load = {
     linePullUps: nodes.flatMap((n) => n.pullUps.map((u) => u.ohms).filter((x): x is number => x !== undefined)),
-    inputPullUps: nodes.flatMap((n) => loads.driverLoads(n.net).diodeInputs.map((d) => d.pullUpOhms)),
+    inputPullUps: nodes.flatMap((n) => inputPullUpsOf(loads, pullUpMemo, n.net)),
   };
   const kept = ov[chunk.keep];
   const out: MarginResult[] = [steeredSinkCurrent({ vcc, load }, ctx.margins)];
@@ -211,8 +224,10 @@ export const commonOverride = defineRule({
       });
       const inputs = [...new Set([...nodes.flatMap((n) => n.inputs), ...[...region].flatMap((d) => (nl.devices[d].kind === 'nmos' || nl.devices[d].kind === 'pmos' ? [nl.nets[nl.devices[d].terminals[1]].name] : []))])].sort();
 
-      const marginsFor = (chunks: Chunk[]) => worstPerName(chunks.flatMap((ch) => chunkMargins(ctx, ov, ch, loads, readers)));
-      const { parts, margins: electrical, passes: electricalPass } = fewestParts(members, marginsFor);
+      const pullUpMemo = new Map<number, number[]>();
+      const marginsFor = (chunks: Chunk[]) => worstPerName(chunks.flatMap((ch) => chunkMargins(ctx, ov, ch, loads, readers, pullUpMemo)));
+      // A receiver whose threshold the steered low level misses fails every split: stop at once.
+      const { parts, margins: electrical, passes: electricalPass } = fewestParts(members, marginsFor, (m) => m.name === LOW_LEVEL);
       const chunks = chunked(members, parts);
       const edit = steeringEdit(ctx, ov, chunks, control);
       const { margin: fight, needs } = contention(ctx, ov[members[0]].on, [...region], edit, inputs, lines, options.sneakExhaustiveLimit);

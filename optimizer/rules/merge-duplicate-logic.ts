@@ -44,19 +44,36 @@ export const mergeDuplicateLogic = defineRule({
       const total = loads.reduce((s, l) => s + l.length, 0);
       const family = cls.family as MapFamily;
       // Fewest drivers first: k = 1, 2, … bins packed largest-first onto the least-loaded bin.
+      // Fewer than total / fan-out limit bins always leave one bin over the limit, so those k
+      // are skipped (the first try, k = 1, is still kept for the refusal's margins).
+      const order = loads.map((l, i) => i).sort((a, b) => loads[b].length - loads[a].length || a - b);
+      const binMargins = (bin: number[], k: number) => {
+        const kept = members[bin[0]];
+        const all: LineLoad[] = bin.flatMap((m) => loads[m]);
+        return lineMargins(kept, all, family, ctx.margins).map((r) => (k > 1 ? { ...r, note: `${kept.name}: ${r.note}` } : r));
+      };
+      const fanLimit = ctx.margins.fanOut[family];
+      const firstUseful = Number.isFinite(fanLimit) && fanLimit > 0 ? Math.max(2, Math.ceil(total / fanLimit)) : 2;
       let chosen: { bins: number[][]; margins: MarginResult[] } | undefined;
-      let firstTry: { bins: number[][]; margins: MarginResult[] } | undefined;
-      for (let k = 1; k < members.length && !chosen; k++) {
-        const bins = pack(loads, k);
-        const margins = bins.flatMap((bin) => {
-          const kept = members[bin[0]];
-          const all: LineLoad[] = bin.flatMap((m) => loads[m]);
-          return lineMargins(kept, all, family, ctx.margins).map((r) => (k > 1 ? { ...r, note: `${kept.name}: ${r.note}` } : r));
-        });
-        if (!firstTry) firstTry = { bins, margins };
-        if (!failing(margins)) chosen = { bins, margins };
+      const firstBins = pack(order, loads, 1);
+      const firstTry = { bins: firstBins, margins: firstBins.flatMap((bin) => binMargins(bin, 1)) };
+      if (members.length > 1 && !failing(firstTry.margins)) chosen = firstTry;
+      for (let k = firstUseful; k < members.length && !chosen; k++) {
+        const bins = pack(order, loads, k);
+        // Stop at the first bin that fails: a failing k is only tried, never shown.
+        const margins: MarginResult[] = [];
+        let ok = true;
+        for (const bin of bins) {
+          const m = binMargins(bin, k);
+          margins.push(...m);
+          if (failing(m)) {
+            ok = false;
+            break;
+          }
+        }
+        if (ok) chosen = { bins, margins };
       }
-      const plan = chosen ?? firstTry!;
+      const plan = chosen ?? firstTry;
       const edit: Edit = emptyEdit();
       const keptNames: string[] = [];
       const removedNames: string[] = [];
@@ -102,16 +119,32 @@ export const mergeDuplicateLogic = defineRule({
   },
 });
 
-/** Members split into k bins, heaviest first onto the lightest bin; each bin lists members in design order. */
-function pack(loads: LineLoad[][], k: number): number[][] {
-  const order = loads.map((l, i) => i).sort((a, b) => loads[b].length - loads[a].length || a - b);
+/**
+ * Members (given heaviest first) split into k bins, each onto the lightest bin (the lowest-numbered
+ * among equals, found with a heap); each bin lists members in design order.
+ */
+function pack(order: number[], loads: LineLoad[][], k: number): number[][] {
   const bins: number[][] = Array.from({ length: k }, () => []);
   const weight = new Array<number>(k).fill(0);
+  // Min-heap of bin numbers by (weight, number); starts as 0 … k − 1, already a valid heap.
+  const heap = Array.from({ length: k }, (_, i) => i);
+  const less = (a: number, b: number) => weight[a] < weight[b] || (weight[a] === weight[b] && a < b);
   for (const m of order) {
-    let best = 0;
-    for (let b = 1; b < k; b++) if (weight[b] < weight[best]) best = b;
+    const best = heap[0];
     bins[best].push(m);
     weight[best] += Math.max(1, loads[m].length);
+    // The root only grew: sift it down.
+    let i = 0;
+    for (;;) {
+      const l = 2 * i + 1;
+      const r = l + 1;
+      let s = i;
+      if (l < k && less(heap[l], heap[s])) s = l;
+      if (r < k && less(heap[r], heap[s])) s = r;
+      if (s === i) break;
+      [heap[i], heap[s]] = [heap[s], heap[i]];
+      i = s;
+    }
   }
   return bins.filter((b) => b.length > 0).map((b) => b.sort((x, y) => x - y));
 }

@@ -31,15 +31,23 @@ export function worstPerName(all: MarginResult[]): MarginResult[] {
 /**
  * The fewest parts (1 … members − 1) whose margins all pass; when none does, one part with its
  * failing margins (`passes` false) so the attractive rewrite is shown refused, with the reason.
+ * `sizeFree` names checks whose failure does not depend on how the members are split (such a
+ * failure with one part refuses every split, so the search stops at once).
  */
-export function fewestParts(members: number[], marginsFor: (chunks: Chunk[]) => MarginResult[]): { parts: number; margins: MarginResult[]; single: MarginResult[]; passes: boolean } {
+export function fewestParts(
+  members: number[],
+  marginsFor: (chunks: Chunk[]) => MarginResult[],
+  sizeFree: (m: MarginResult) => boolean = () => false,
+): { parts: number; margins: MarginResult[]; single: MarginResult[]; passes: boolean } {
   const single = marginsFor(chunked(members, 1));
+  const fails = (ms: MarginResult[]) => ms.some((m) => m.status === 'fail');
+  if (single.some((m) => m.status === 'fail' && sizeFree(m))) return { parts: 1, margins: single, single, passes: false };
   let parts = 1;
   let margins = single;
-  while (margins.some((m) => m.status === 'fail') && parts + 1 < members.length) {
+  while (fails(margins) && parts + 1 < members.length) {
     parts++;
     margins = marginsFor(chunked(members, parts));
   }
-  const passes = !margins.some((m) => m.status === 'fail');
+  const passes = !fails(margins);
   return passes ? { parts, margins, single, passes } : { parts: 1, margins: single, single, passes };
 }
