@@ -2,29 +2,15 @@
 // SIGINT (finishing requests in flight, then closing the database).
 import { startServer } from '@/server/serve';
 import { EnvError } from '@/server/env';
+import { exitOnSignals } from '@/server/shutdown';
 
 export { startServer } from '@/server/serve';
 
 async function main(): Promise<void> {
   const server = await startServer();
   console.log(`Trimwire is serving ${server.url} (${server.env.NODE_ENV})`);
-  let stopping = false;
-  const stop = (signal: string) => {
-    if (stopping) return;
-    stopping = true;
-    console.log(`${signal} received, shutting down`);
-    // Requests that never finish must not keep the process alive forever.
-    setTimeout(() => process.exit(1), 10_000).unref();
-    server.close().then(
-      () => process.exit(0),
-      (err: unknown) => {
-        console.error(err);
-        process.exit(1);
-      },
-    );
-  };
-  process.on('SIGTERM', () => stop('SIGTERM'));
-  process.on('SIGINT', () => stop('SIGINT'));
+  // Requests that never finish must not keep the process alive forever.
+  exitOnSignals('server', () => server.close(), 10_000);
 }
 
 if (require.main === module) {

@@ -1,17 +1,10 @@
 // Shapes of the trade-off explorer's engine: what a stored design's proposals give it (inputs),
 // what the learner moves (settings and the toggled set), and what it recomputes (result).
+import type { Savings } from '../cost/cost';
 import type { MarginResult, MarginStatus } from '../margins/corners';
 
-/** Part totals of a design or a saving (the cost engine's Savings shape). */
-export interface PartTotals {
-  transistors: number;
-  resistors: number;
-  diodes: number;
-  capacitors: number;
-  gates: number;
-  areaMm2: number;
-  cost: number;
-}
+/** Part totals of a design or a saving: the cost engine's Savings shape. */
+export type PartTotals = Savings;
 
 /** One proposal as the explorer needs it: its part delta and its margins with their inputs. */
 export interface WhatIfProposal {

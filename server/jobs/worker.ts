@@ -8,6 +8,7 @@ import type PgBoss from 'pg-boss';
 import { createEspressoMinimiser, type EspressoMinimiser } from '@/optimizer/logic/espresso/espresso-minimiser';
 import { createDb, type Db } from '@/server/db';
 import { loadEnv, EnvError } from '@/server/env';
+import { exitOnSignals } from '@/server/shutdown';
 import { createSmtpMailer, type Mailer } from '@/server/mail/mailer';
 import { ensureScanQueue, newBoss, scanQueueName, sendScan } from '@/server/jobs/queue';
 import { runScan, type RunOutcome } from '@/server/jobs/run-scan';
@@ -76,19 +77,7 @@ async function main(): Promise<void> {
   const env = loadEnv();
   const worker = await startWorker({ databaseUrl: env.DATABASE_URL, smtpUrl: env.SMTP_URL, mailFrom: env.MAIL_FROM, publicUrl: env.PUBLIC_URL });
   console.log(`Trimwire scan worker ${worker.id} is waiting for scans`);
-  const stop = (signal: string) => {
-    console.log(`${signal} received, worker stopping`);
-    setTimeout(() => process.exit(1), 15_000).unref();
-    worker.stop().then(
-      () => process.exit(0),
-      (err: unknown) => {
-        console.error(err);
-        process.exit(1);
-      },
-    );
-  };
-  process.on('SIGTERM', () => stop('SIGTERM'));
-  process.on('SIGINT', () => stop('SIGINT'));
+  exitOnSignals('worker', () => worker.stop(), 15_000);
 }
 
 if (require.main === module) {
