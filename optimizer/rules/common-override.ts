@@ -168,8 +168,7 @@ function holds(a: Assumption, v: Record<string, 0 | 1>): boolean {
  * must be ruled out by the stated assumptions (those that do are what the proposal relies on).
  * Contention while the override is off is the design's own, not this rewrite's.
  */
-function contention(ctx: RuleContext, on: Expr, region: number[], edit: Edit, inputs: string[], lines: string[], limit: number): { margin: MarginResult; needs: Assumption[] } {
-  const bad = contentionVectors(ctx.netlist, region, edit, inputs, lines, limit).filter((b) => evaluate(on, b.vector) === 1);
+function contention(ctx: RuleContext, bad: { vector: Record<string, 0 | 1>; nets: string[] }[]): { margin: MarginResult; needs: Assumption[] } {
   const needs = ctx.assumptions.filter((a) => bad.some((b) => !holds(a, b.vector)));
   const left = bad.filter((b) => needs.every((a) => holds(a, b.vector)));
   const first = left[0];
@@ -187,6 +186,74 @@ function contention(ctx: RuleContext, on: Expr, region: number[], edit: Edit, in
         : 'no vector drives a line both ways (switch-level simulation, Bryant 1984)',
   };
   return { margin, needs };
+}
+
+/** The region of some lines: their own devices and the other devices that drive them. */
+function regionOf(ctx: RuleContext, ov: Override[], at: number[], drivers: Map<number, number[]>): number[] {
+  const region = new Set<number>();
+  for (const i of at) {
+    const n = ctx.view.nodes[ov[i].node];
+    for (const d of n.devices) region.add(d);
+    for (const d of drivers.get(n.net) ?? []) region.add(d);
+  }
+  return [...region];
+}
+
+function inputsOf(ctx: RuleContext, ov: Override[], at: number[], region: number[]): string[] {
+  const nl = ctx.netlist;
+  const gates = region.flatMap((d) => (nl.devices[d].kind === 'nmos' || nl.devices[d].kind === 'pmos' ? [nl.nets[nl.devices[d].terminals[1]].name] : []));
+  return [...new Set([...at.flatMap((i) => ctx.view.nodes[ov[i].node].inputs), ...gates])].sort();
+}
+
+/** The part of the edit that touches a region (its devices, and the diodes of the given lines). */
+function editWithin(ctx: RuleContext, edit: Edit, region: number[], lines: Set<string>): Edit {
+  const names = new Set(region.map((d) => ctx.netlist.devices[d].name));
+  return {
+    ...edit,
+    removeDevices: edit.removeDevices.filter((n) => names.has(n)),
+    reconnect: edit.reconnect.filter((r) => names.has(r.device)),
+    addDevices: edit.addDevices.filter((a) => lines.has(a.terminals[0])),
+  };
+}
+
+/**
+ * Contention and back-feed by switch-level simulation. When all the lines' inputs fit the
+ * exhaustive limit the whole region is simulated at once; beyond, each pair of lines is simulated
+ * with the kept override(s) of its part(s) — the lines meet only at the common override nets, so
+ * a pair with its override shows any line-to-line path, and each small region is simulated
+ * exhaustively instead of a whole-region sample whose cost grows with every line.
+ */
+function switchChecks(ctx: RuleContext, ov: Override[], members: number[], chunks: Chunk[], edit: Edit, drivers: Map<number, number[]>, limit: number): { fight: MarginResult; backFeed: MarginResult; needs: Assumption[] } {
+  const nl = ctx.netlist;
+  const on = ov[members[0]].on;
+  const lineOf = (i: number) => ctx.view.nodes[ov[i].node].name;
+  const all = regionOf(ctx, ov, members, drivers);
+  const allInputs = inputsOf(ctx, ov, members, all);
+  const groups: { watch: number[]; with: number[] }[] = [];
+  if (allInputs.length <= limit) groups.push({ watch: members, with: members });
+  else {
+    const keptOf = new Map<number, number>();
+    for (const ch of chunks) for (const m of [ch.keep, ...ch.others]) keptOf.set(m, ch.keep);
+    for (let k = 0; k < members.length; k += 2) {
+      const watch = members.slice(k, k + 2);
+      groups.push({ watch, with: [...new Set([...watch, ...watch.map((m) => keptOf.get(m)!)])] });
+    }
+  }
+  const bad: { vector: Record<string, 0 | 1>; nets: string[] }[] = [];
+  const sims: { region: number[]; edit: Edit; inputs: string[]; watch: string[] }[] = [];
+  for (const g of groups) {
+    const region = g.with === members ? all : regionOf(ctx, ov, g.with, drivers);
+    const inputs = g.with === members ? allInputs : inputsOf(ctx, ov, g.with, region);
+    const part = g.with === members ? edit : editWithin(ctx, edit, region, new Set(g.with.map(lineOf)));
+    const watch = g.watch.map(lineOf);
+    sims.push({ region, edit: part, inputs, watch });
+    bad.push(...contentionVectors(nl, region, part, inputs, watch, limit).filter((b) => evaluate(on, b.vector) === 1));
+  }
+  const { margin: fight, needs } = contention(ctx, bad);
+  const allowed = (v: Record<string, 0 | 1>) => needs.every((a) => holds(a, v));
+  const reports = sims.map((x) => sneakCheck(nl, x.region, x.edit, x.inputs, x.watch, limit, allowed));
+  const joined = { bad: reports.flatMap((r) => r.bad), vectors: reports.reduce((n, r) => n + r.vectors, 0) };
+  return { fight, backFeed: { ...sneakMargin(joined), name: 'back-feed between lines' }, needs };
 }
 
 export const commonOverride = defineRule({
@@ -216,23 +283,22 @@ export const commonOverride = defineRule({
       const nodes = members.map((i) => ctx.view.nodes[ov[i].node]);
       const lines = nodes.map((n) => n.name);
       const lineNets = new Set(nodes.map((n) => n.net));
-      // The region: the lines' own devices and anything else that drives a line (an active pull-up
-      // the extractor does not explain still contends in the switch-level model).
-      const region = new Set(nodes.flatMap((n) => n.devices));
+      // Anything else that drives a line (an active pull-up the extractor does not explain still
+      // contends in the switch-level model), per line net, found in one pass.
+      const drivers = new Map<number, number[]>();
       nl.devices.forEach((d, i) => {
-        if (d.kind !== 'resistor' && d.kind !== 'diode' && d.kind !== 'capacitor' && d.kind !== 'gate' && d.terminals.some((t, k) => k !== 1 && lineNets.has(t))) region.add(i);
+        if (d.kind === 'resistor' || d.kind === 'diode' || d.kind === 'capacitor' || d.kind === 'gate') return;
+        const hit = new Set(d.terminals.filter((t, k) => k !== 1 && lineNets.has(t)));
+        for (const t of hit) drivers.set(t, [...(drivers.get(t) ?? []), i]);
       });
-      const inputs = [...new Set([...nodes.flatMap((n) => n.inputs), ...[...region].flatMap((d) => (nl.devices[d].kind === 'nmos' || nl.devices[d].kind === 'pmos' ? [nl.nets[nl.devices[d].terminals[1]].name] : []))])].sort();
 
-      const pullUpMemo = new Map<number, number[]>();
       const marginsFor = (chunks: Chunk[]) => worstPerName(chunks.flatMap((ch) => chunkMargins(ctx, ov, ch, loads, readers, pullUpMemo)));
+      const pullUpMemo = new Map<number, number[]>();
       // A receiver whose threshold the steered low level misses fails every split: stop at once.
       const { parts, margins: electrical, passes: electricalPass } = fewestParts(members, marginsFor, (m) => m.name === LOW_LEVEL);
       const chunks = chunked(members, parts);
       const edit = steeringEdit(ctx, ov, chunks, control);
-      const { margin: fight, needs } = contention(ctx, ov[members[0]].on, [...region], edit, inputs, lines, options.sneakExhaustiveLimit);
-      const allowed = (v: Record<string, 0 | 1>) => needs.every((a) => holds(a, v));
-      const backFeed = { ...sneakMargin(sneakCheck(nl, [...region], edit, inputs, lines, options.sneakExhaustiveLimit, allowed)), name: 'back-feed between lines' };
+      const { fight, backFeed, needs } = switchChecks(ctx, ov, members, chunks, edit, drivers, options.sneakExhaustiveLimit);
       const margins = [...electrical, fight, backFeed];
       const passes = electricalPass && fight.status !== 'fail' && backFeed.status !== 'fail';
       const failed = margins.filter((m) => m.status === 'fail').map((m) => m.name).join(', ');
