@@ -205,15 +205,19 @@ function inputsOf(ctx: RuleContext, ov: Override[], at: number[], region: number
   return [...new Set([...at.flatMap((i) => ctx.view.nodes[ov[i].node].inputs), ...gates])].sort();
 }
 
-/** The part of the edit that touches a region (its devices, and the diodes of the given lines). */
-function editWithin(ctx: RuleContext, edit: Edit, region: number[], lines: Set<string>): Edit {
-  const names = new Set(region.map((d) => ctx.netlist.devices[d].name));
-  return {
+/** The part of the edit that touches a region (its devices, and the diodes of the given lines); the edit indexed once. */
+function editSplitter(edit: Edit): (names: Set<string>, lines: Set<string>) => Edit {
+  const diodesOf = new Map<string, Edit['addDevices']>();
+  for (const a of edit.addDevices) diodesOf.set(a.terminals[0], [...(diodesOf.get(a.terminals[0]) ?? []), a]);
+  const reconnectOf = new Map<string, Edit['reconnect']>();
+  for (const r of edit.reconnect) reconnectOf.set(r.device, [...(reconnectOf.get(r.device) ?? []), r]);
+  const removed = new Set(edit.removeDevices);
+  return (names, lines) => ({
     ...edit,
-    removeDevices: edit.removeDevices.filter((n) => names.has(n)),
-    reconnect: edit.reconnect.filter((r) => names.has(r.device)),
-    addDevices: edit.addDevices.filter((a) => lines.has(a.terminals[0])),
-  };
+    removeDevices: [...names].filter((n) => removed.has(n)),
+    reconnect: [...names].flatMap((n) => reconnectOf.get(n) ?? []),
+    addDevices: [...lines].flatMap((l) => diodesOf.get(l) ?? []),
+  });
 }
 
 /**
@@ -239,12 +243,13 @@ function switchChecks(ctx: RuleContext, ov: Override[], members: number[], chunk
       groups.push({ watch, with: [...new Set([...watch, ...watch.map((m) => keptOf.get(m)!)])] });
     }
   }
+  const split = editSplitter(edit);
   const bad: { vector: Record<string, 0 | 1>; nets: string[] }[] = [];
   const sims: { region: number[]; edit: Edit; inputs: string[]; watch: string[] }[] = [];
   for (const g of groups) {
     const region = g.with === members ? all : regionOf(ctx, ov, g.with, drivers);
     const inputs = g.with === members ? allInputs : inputsOf(ctx, ov, g.with, region);
-    const part = g.with === members ? edit : editWithin(ctx, edit, region, new Set(g.with.map(lineOf)));
+    const part = g.with === members ? edit : split(new Set(region.map((d) => nl.devices[d].name)), new Set(g.with.map(lineOf)));
     const watch = g.watch.map(lineOf);
     sims.push({ region, edit: part, inputs, watch });
     bad.push(...contentionVectors(nl, region, part, inputs, watch, limit).filter((b) => evaluate(on, b.vector) === 1));

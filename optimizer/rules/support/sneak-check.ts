@@ -8,13 +8,26 @@ import { applyProposals } from '../../rewrite/apply';
 import { simulate } from '../../verify/switch-sim';
 import type { Edit } from '../types';
 
+const railSourceMemo = new WeakMap<object, number[]>();
+
+/** The rails' sources, found once per netlist (a scan cuts many small regions from one design). */
+function railSources(nl: Readonly<FlatNetlist>): number[] {
+  let r = railSourceMemo.get(nl);
+  if (!r) {
+    const railNets = new Set(nl.rails.map((x) => x.net));
+    r = [];
+    nl.devices.forEach((d, i) => {
+      if (d.kind === 'vsource' && railNets.has(d.terminals[0])) r!.push(i);
+    });
+    railSourceMemo.set(nl, r);
+  }
+  return r;
+}
+
 /** The devices given (by index) and the rails' sources, as a netlist of its own. */
 export function subNetlist(nl: Readonly<FlatNetlist>, devices: Iterable<number>): FlatNetlist {
   const keep = new Set(devices);
-  const railNets = new Set(nl.rails.map((r) => r.net));
-  nl.devices.forEach((d, i) => {
-    if (d.kind === 'vsource' && railNets.has(d.terminals[0])) keep.add(i);
-  });
+  for (const i of railSources(nl)) keep.add(i);
   const newId = new Map<number, number>();
   const nets: FlatNetlist['nets'] = [];
   const netOf = (id: number) => {
