@@ -178,6 +178,30 @@ describe('common-override: invalid (findings)', () => {
     expect(withA.proposals[0].assumptions).toEqual(['A1']);
     expect(withA.proposals[0].margins.find((m) => m.name === 'contention')!.status).toBe('pass');
   });
+
+  it('checks contention and back-feed per group of lines when the lines have more inputs than the exhaustive limit', async () => {
+    // Six lines read CLR, LDN and D0…D5 (8 inputs): above a limit of 5 each pair of lines is
+    // simulated with the kept override, exhaustively (a pair and its override read at most 5).
+    const nl = bits(6, { receiver: 'dtl', activeHigh: true });
+    const options = { minCopies: 2, sneakExhaustiveLimit: 5 };
+    const without = (await runOne(rule, nl, { options })).findings[0];
+    const fight = without.proposals[0].margins.find((m) => m.name === 'contention')!;
+    expect(fight.status).toBe('fail');
+    expect(fight.note).toContain('CLR=1');
+    expect(fight.note).toContain('LDN=0');
+    const withA = (await runOne(rule, nl, { options, assumptions: [assumption('A1', '!(CLR & !LDN)')] })).findings[0];
+    expect(withA.proposals[0].assumptions).toEqual(['A1']);
+    const margins = withA.proposals[0].margins;
+    expect(margins.find((m) => m.name === 'contention')!.status).toBe('pass');
+    const backFeed = margins.find((m) => m.name === 'back-feed between lines')!;
+    expect(backFeed.status).toBe('pass');
+    // Three pairs, each exhaustive over at most 2^5 vectors (fewer where A1 rules vectors out).
+    expect(backFeed.note).toMatch(/on (\d+) input vectors/);
+    const n = Number(/on (\d+) input vectors/.exec(backFeed.note)![1]);
+    // More than one whole-region sample of 2^5 could hold: the pairs were simulated apart.
+    expect(n).toBeGreaterThan(2 ** 5);
+    expect(n).toBeLessThanOrEqual(3 * 2 ** 5);
+  });
 });
 
 describe('common-override: doc examples', () => {
