@@ -1,7 +1,7 @@
 // Functions of chosen nets over the design's primary inputs and state bits: each driven net's
 // local function is substituted into its readers (memoised, so shared logic stays shared). State
 // bits are cut: a latch net is a pseudo input (its value) and a pseudo output `<net>@next`.
-import { substitute, v, type Expr } from '../logic/expr';
+import { substitute, support, v, type Expr } from '../logic/expr';
 import type { LogicView } from './types';
 
 export const NEXT_SUFFIX = '@next';
@@ -24,18 +24,30 @@ export function combinationalModel(view: LogicView, outputs?: string[]): Combina
   const state = new Set(view.stateBits);
   const memo = new Map<string, Expr>();
   const resolving = new Set<string>();
-  const valueOf = (name: string): Expr => {
-    const hit = memo.get(name);
-    if (hit) return hit;
-    const node = byName.get(name);
-    if (!node || state.has(name)) return v(name);
-    if (resolving.has(name)) return v(name); // a loop the extractor did not cut: its net stays a variable
-    resolving.add(name);
-    // iterative deepening would be nicer for very deep logic; recursion depth = logic depth here
-    const e = substitute(node.fn, (n) => valueOf(n));
-    resolving.delete(name);
-    memo.set(name, e);
-    return e;
+  // Fan-in is resolved with an explicit stack (post-order), so a long ripple chain costs heap,
+  // not call depth: every substitution below only looks up nets already memoised.
+  const valueOf = (root: string): Expr => {
+    const stack: { name: string; expanded: boolean }[] = [{ name: root, expanded: false }];
+    while (stack.length) {
+      const { name, expanded } = stack.pop()!;
+      if (memo.has(name)) continue;
+      const node = byName.get(name);
+      if (!node || state.has(name)) {
+        memo.set(name, v(name));
+        continue;
+      }
+      if (expanded) {
+        resolving.delete(name);
+        // A net still resolving is a loop the extractor did not cut: it stays a variable.
+        memo.set(name, substitute(node.fn, (n) => memo.get(n) ?? v(n)));
+        continue;
+      }
+      if (resolving.has(name)) continue;
+      resolving.add(name);
+      stack.push({ name, expanded: true });
+      for (const dep of support(node.fn)) if (!memo.has(dep) && !resolving.has(dep)) stack.push({ name: dep, expanded: false });
+    }
+    return memo.get(root) ?? v(root);
   };
   let names = outputs;
   if (!names) {
