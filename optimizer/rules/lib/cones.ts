@@ -2,7 +2,7 @@
 // something not plain combinational) with every static node that feeds only into it. Replacing a
 // cone changes nothing but its root, which is what a local re-synthesis needs.
 import type { LogicNode, LogicView } from '../../extract/types';
-import { substitute, v, type Expr } from '../../logic/expr';
+import { substitute, support, v, type Expr } from '../../logic/expr';
 
 export interface Cone {
   root: LogicNode;
@@ -46,19 +46,9 @@ export function fanoutFreeCones(view: LogicView, maxLeaves: number, protectedNet
   const cones: Cone[] = [];
   for (const root of view.nodes) {
     if (!combinational(root) || !isRoot(root)) continue;
-    const nodes: LogicNode[] = [];
-    const leaves = new Set<string>();
-    const fnOf = (name: string): Expr => {
-      const node = byName.get(name);
-      if (!node || (node !== root && isRoot(node))) {
-        leaves.add(name);
-        return v(name);
-      }
-      nodes.push(node);
-      return substitute(node.fn, (x) => fnOf(x));
-    };
-    const fn = fnOf(root.name);
-    if (leaves.size > maxLeaves) continue;
+    const cone = coneFrom(root, byName, isRoot, maxLeaves);
+    if (!cone) continue;
+    const { nodes, leaves, fn } = cone;
     const devices = [...new Set(nodes.flatMap((n) => n.devices))];
     // A device shared with a node outside the cone cannot be removed with it.
     const own = devices.every((d) => deviceOwners.get(d) === nodes.filter((n) => n.devices.includes(d)).length);
@@ -66,4 +56,45 @@ export function fanoutFreeCones(view: LogicView, maxLeaves: number, protectedNet
     cones.push({ root, nodes, leaves: [...leaves].sort(), fn, devices });
   }
   return cones;
+}
+
+/**
+ * The cone under `root` (pre-order nodes, leaves, function over the leaves), walked with an
+ * explicit stack so a long single-reader chain costs heap rather than call depth; gives up as soon
+ * as the leaves pass `maxLeaves`.
+ */
+function coneFrom(
+  root: LogicNode,
+  byName: ReadonlyMap<string, LogicNode>,
+  isRoot: (n: LogicNode) => boolean,
+  maxLeaves: number,
+): { nodes: LogicNode[]; leaves: Set<string>; fn: Expr } | undefined {
+  const nodes: LogicNode[] = [];
+  const leaves = new Set<string>();
+  const memo = new Map<string, Expr>();
+  const open = new Set<string>();
+  const stack: { name: string; expanded: boolean }[] = [{ name: root.name, expanded: false }];
+  while (stack.length) {
+    const { name, expanded } = stack.pop()!;
+    if (memo.has(name)) continue;
+    const node = byName.get(name);
+    if (!node || (node !== root && isRoot(node))) {
+      leaves.add(name);
+      if (leaves.size > maxLeaves) return undefined;
+      memo.set(name, v(name));
+      continue;
+    }
+    if (expanded) {
+      open.delete(name);
+      memo.set(name, substitute(node.fn, (x) => memo.get(x) ?? v(x)));
+      continue;
+    }
+    if (open.has(name)) continue; // an uncut loop: the net stays a variable where it is read
+    open.add(name);
+    nodes.push(node);
+    stack.push({ name, expanded: true });
+    const deps = [...support(node.fn)].reverse();
+    for (const dep of deps) if (!memo.has(dep)) stack.push({ name: dep, expanded: false });
+  }
+  return { nodes, leaves, fn: memo.get(root.name)! };
 }
