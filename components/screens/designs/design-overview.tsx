@@ -44,6 +44,7 @@ export function DesignOverview({ id }: { id: string }) {
         <View style={{ flexDirection: 'row', flexWrap: 'wrap', gap: spacing.sm }}>
           <Button label="Proposals" icon="forward" variant="secondary" compact onPress={() => router.push(openProposals)} testID="design-open-proposals" accessibilityLabel={`Proposals of ${design.name}`} />
           <Button label="Revisions and exports" icon="history" variant="secondary" compact onPress={() => router.push(`/designs/${design.id}/revisions`)} testID="design-open-revisions" accessibilityLabel={`Revisions and exports of ${design.name}`} />
+          <Button label="Trade-off explorer" icon="lessons" variant="secondary" compact onPress={() => router.push(`/designs/${design.id}/explorer`)} testID="design-open-explorer" accessibilityLabel={`Trade-off explorer of ${design.name}`} />
         </View>
       </Card>
       <ScanCard design={design} canScan={canChange} onOpenProposals={() => router.push(openProposals)} />
