@@ -1,4 +1,6 @@
-// Pictures in Chromium: for a proposal of each rule the demo decks give, the proposal page draws
+// Pictures in Chromium: for a proposal of each rule (from the demo decks, or for rules they do not
+// exercise, from a deck in the rule's doc examples, uploaded with the assumptions and clock it
+// states), the proposal page draws
 // the changed region before and after (one symbol per part of the region, as the API reports it),
 // charts the margins and shows before/after waveforms; the design overview shows its charts.
 // Screenshots at phone and wide sizes go to tests/e2e/screenshots/<screen>-<role>-<size>.png.
@@ -8,16 +10,21 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createEspressoMinimiser } from '@/optimizer/logic/espresso/espresso-minimiser';
 import { DEMO_DESIGNS } from '@/server/db/seed-workflow';
 import { ENGINE_VERSION } from '@/server/features/designs/engine';
+import { createAssumption } from '@/server/features/assumptions/service';
 import { createDesign } from '@/server/features/designs/service';
 import { runScan } from '@/server/jobs/run-scan';
 import type { ProposalRegion } from '@/shared/api/pictures';
 import { DEMO_PASSWORD, screenshot, signIn, startE2e, type E2e, type SizeName } from './harness';
+import { ruleDeck } from './rule-examples';
 
 const ROOT = path.resolve(__dirname, '../..');
 let e2e: E2e;
 /** One proposal id per rule, and a design that has proposals. */
 const byRule = new Map<string, string>();
 let designId = '';
+/** Rules the demo decks do not exercise: each gets a deck from its doc's first finding example. */
+const EXAMPLE_RULES = ['two-level-minimise', 'tristate-slim', 'constant-input', 'shared-enable-switch'];
+const demoRules = new Set<string>();
 
 beforeAll(async () => {
   e2e = await startE2e();
@@ -27,15 +34,34 @@ beforeAll(async () => {
   const minimiser = createEspressoMinimiser({ size: 1 });
   try {
     const stamp = Date.now().toString(36);
+    const scanDesign = async (designId: string) => {
+      const rev = (await db.models.Revision.findOne({ where: { designId } }))!;
+      const scan = await db.models.Scan.create({ designId, revisionId: rev.id, revisionNumber: 1, rules: null, startedBy: designer.id, engineVersion: ENGINE_VERSION });
+      await runScan({ db, workerId: 'pictures-e2e', minimiser, heartbeatTimeoutS: 120, maxAttempts: 1 }, scan.id);
+      return db.models.Proposal.findAll({ where: { designId }, order: [['savingsParts', 'DESC']] });
+    };
     for (const d of DEMO_DESIGNS) {
       const buffer = fs.readFileSync(path.join(ROOT, 'server/db/demo', d.file));
       const design = await createDesign(db, designer, membership.teamId, { buffer, name: d.file }, { name: `${d.name} (pictures ${stamp})`, family: d.family });
-      const rev = (await db.models.Revision.findOne({ where: { designId: design.id } }))!;
-      const scan = await db.models.Scan.create({ designId: design.id, revisionId: rev.id, revisionNumber: 1, rules: null, startedBy: designer.id, engineVersion: ENGINE_VERSION });
-      await runScan({ db, workerId: 'pictures-e2e', minimiser, heartbeatTimeoutS: 120, maxAttempts: 1 }, scan.id);
-      const proposals = await db.models.Proposal.findAll({ where: { designId: design.id }, order: [['savingsParts', 'DESC']] });
+      const proposals = await scanDesign(design.id);
       for (const p of proposals) if (!byRule.has(p.ruleId)) byRule.set(p.ruleId, p.id);
       if (proposals.length && !designId) designId = design.id;
+    }
+    for (const r of byRule.keys()) demoRules.add(r);
+    for (const ruleId of EXAMPLE_RULES) {
+      if (byRule.has(ruleId)) continue;
+      // The doc example's deck, uploaded as a design with the assumptions and clock it states.
+      const ex = ruleDeck(ROOT, ruleId);
+      const file = `${ruleId}-example.cir`;
+      const design = await createDesign(db, designer, membership.teamId, { buffer: Buffer.from(ex.deck), name: file }, {
+        name: `${ex.label} (pictures ${stamp})`,
+        ...(ex.clockPeriodNs ? { clockPeriodNs: ex.clockPeriodNs } : {}),
+      });
+      for (const expression of ex.assumptions) {
+        await createAssumption(db, design, designer, { expression, justification: `Stated by the ${ruleId} rule's documented example.` });
+      }
+      const proposal = (await scanDesign(design.id)).find((p) => p.ruleId === ruleId);
+      if (proposal) byRule.set(ruleId, proposal.id);
     }
   } finally {
     await minimiser.close?.();
@@ -48,7 +74,11 @@ afterAll(async () => {
 
 describe('pictures', () => {
   it('the demo decks give proposals to draw', () => {
-    expect(byRule.size).toBeGreaterThan(0);
+    expect(demoRules.size).toBeGreaterThan(0);
+  });
+
+  it("every rule has a proposal to draw, from the demo decks or the rule's documented example", () => {
+    expect([...byRule.keys()].sort()).toEqual([...new Set([...demoRules, ...EXAMPLE_RULES])].sort());
   });
 
   for (const size of ['phone', 'wide'] as SizeName[]) {
