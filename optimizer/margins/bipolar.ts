@@ -50,10 +50,27 @@ export function forcedBeta(
   input: { vcc: number; pullUps: number[]; baseResistor: number; driveVolts?: number; betaMin: number },
   s: MarginSettings,
 ): MarginResult {
+  return {
+    ...forcedBetaWorst(input, (supply, rPullUp) => sinkCurrentAt(supply, input.pullUps, s, rPullUp), s),
+    note: `I_C/I_B ≤ ${s.forcedBetaTarget} is hard saturation (common practice); above β_min = ${round(input.betaMin)} the driver leaves saturation`,
+    inputs: { check: 'forced-beta', ...input, pullUps: [...input.pullUps] },
+  };
+}
+
+/**
+ * The worst-corner forced β of a transistor whose collector current at a corner is
+ * `collectorCurrentAt(supply, pull-up factor)`, its base fed through `baseResistor` from a drive
+ * level (default the supply) that moves with the supply. Shared by every driver-sizing check.
+ */
+export function forcedBetaWorst(
+  input: { vcc: number; baseResistor: number; driveVolts?: number; betaMin: number },
+  collectorCurrentAt: (supply: number, rPullUp: number) => number,
+  s: MarginSettings,
+): Omit<MarginResult, 'note'> {
   const drive = input.driveVolts ?? input.vcc;
   const points = corners(input.vcc, ['R_pull-up', 'R_B'] as const, s);
   const at = (p: (typeof points)[number]) => {
-    const ic = sinkCurrentAt(p.supply, input.pullUps, s, p.r['R_pull-up']);
+    const ic = collectorCurrentAt(p.supply, p.r['R_pull-up']);
     const ib = Math.max(0, (drive * (p.supply / input.vcc) - s.vbe) / (input.baseResistor * p.r.R_B));
     return ib === 0 ? Infinity : ic / ib;
   };
@@ -65,8 +82,6 @@ export function forcedBeta(
     unit: '',
     status: forcedBetaStatus(w.value, input.betaMin, s),
     corner: describeCorner(w.point, s, input.betaMin),
-    note: `I_C/I_B ≤ ${s.forcedBetaTarget} is hard saturation (common practice); above β_min = ${round(input.betaMin)} the driver leaves saturation`,
-    inputs: { check: 'forced-beta', ...input, pullUps: [...input.pullUps] },
   };
 }
 

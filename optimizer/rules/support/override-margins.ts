@@ -1,8 +1,8 @@
 // Margin checks of one override transistor pulling several lines low through steering diodes:
 // the current it sinks (each line's pull-up and each diode-input receiver, less the diode drop),
 // its forced β, and the lines' diode-steered low level against their receivers' V_IL.
-import { diodeSteeredLowLevel } from '../../margins/bipolar';
-import { corners, describeCorner, round, statusAtMost, worstCorner, type MarginResult, type MarginStatus } from '../../margins/corners';
+import { diodeSteeredLowLevel, forcedBetaWorst } from '../../margins/bipolar';
+import { corners, describeCorner, round, statusAtMost, worstCorner, type MarginResult } from '../../margins/corners';
 import type { MarginSettings } from '../../margins/defaults';
 import type { MapFamily } from '../../logic/family-parts';
 
@@ -40,31 +40,13 @@ export function steeredSinkCurrent(input: { vcc: number; load: SteeredLoad; limi
   };
 }
 
-function betaStatus(forced: number, betaMin: number, s: MarginSettings): MarginStatus {
-  if (forced > betaMin) return 'fail';
-  return forced > s.forcedBetaTarget ? 'warn' : 'pass';
-}
-
 /** Forced β = I_C/I_B of the common override transistor, base fed through `baseResistor`. */
 export function steeredForcedBeta(
   input: { vcc: number; load: SteeredLoad; baseResistor: number; driveVolts?: number; betaMin: number },
   s: MarginSettings,
 ): MarginResult {
-  const drive = input.driveVolts ?? input.vcc;
-  const points = corners(input.vcc, ['R_pull-up', 'R_B'] as const, s);
-  const at = (p: (typeof points)[number]) => {
-    const ic = steeredCurrentAt(p.supply, input.load, s, p.r['R_pull-up']);
-    const ib = Math.max(0, (drive * (p.supply / input.vcc) - s.vbe) / (input.baseResistor * p.r.R_B));
-    return ib === 0 ? Infinity : ic / ib;
-  };
-  const w = worstCorner(points, at, 'high');
   return {
-    name: 'forced β',
-    value: w.value,
-    limit: input.betaMin,
-    unit: '',
-    status: betaStatus(w.value, input.betaMin, s),
-    corner: describeCorner(w.point, s, input.betaMin),
+    ...forcedBetaWorst(input, (supply, rPullUp) => steeredCurrentAt(supply, input.load, s, rPullUp), s),
     note: `I_C/I_B ≤ ${s.forcedBetaTarget} is hard saturation (common practice); above β_min = ${round(input.betaMin)} the override leaves saturation and the lines' low level rises`,
   };
 }
