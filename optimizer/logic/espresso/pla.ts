@@ -3,7 +3,7 @@
 // native code exits on malformed input) by a single pass over its characters, and parsed on return.
 import { InternalError } from '../../errors';
 import { type Cover, cubeFromString } from '../cubes';
-import type { OutputTable } from '../truth-table';
+import { popcount, type OutputTable } from '../truth-table';
 
 /** Largest input count sent to Espresso (2^16 rows of minterms at most). */
 export const MAX_ESPRESSO_INPUTS = 16;
@@ -33,21 +33,10 @@ function writeRows(buf: Uint8Array, at: number, set: Uint32Array, n: number, mar
   return at;
 }
 
-function bitCount(set: Uint32Array): number {
-  let c = 0;
-  for (let w = 0; w < set.length; w++) {
-    let x = set[w];
-    x -= (x >>> 1) & 0x55555555;
-    x = (x & 0x33333333) + ((x >>> 2) & 0x33333333);
-    c += (((x + (x >>> 4)) & 0x0f0f0f0f) * 0x01010101) >>> 24;
-  }
-  return c;
-}
-
 /** Type-fd PLA text of one non-constant output: on-set rows "…1", don't-care rows "…-", lines joined by "\n". */
 export function buildPlaText(out: OutputTable, n: number): string {
   const head = `.i ${n}\n.o 1\n.type fd\n`;
-  const rows = bitCount(out.on) + bitCount(out.dc);
+  const rows = popcount(out.on) + popcount(out.dc);
   const buf = new Uint8Array(head.length + rows * (n + 3) + 2);
   for (let i = 0; i < head.length; i++) buf[i] = head.charCodeAt(i);
   let at = writeRows(buf, head.length, out.on, n, C1);
