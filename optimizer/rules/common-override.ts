@@ -15,7 +15,8 @@ import { betaMinOfDevice } from './support/driver-margins';
 import { steeredForcedBeta, steeredLowLevel, steeredSinkCurrent } from './support/override-margins';
 import { describePlaces } from './support/finding-words';
 import { deviceOwnerCounts } from './support/same-function';
-import { contentionVectors, sneakCheck, sneakMargin } from './support/sneak-check';
+import { RegionSims } from './support/region-sim';
+import { sneakMargin } from './support/sneak-check';
 import { emptyEdit, type Assumption, type Edit, type RuleContext } from './types';
 
 const OptionsSchema = z.object({
@@ -244,19 +245,20 @@ function switchChecks(ctx: RuleContext, ov: Override[], members: number[], chunk
     }
   }
   const split = editSplitter(edit);
+  const sim = new RegionSims(nl, limit);
   const bad: { vector: Record<string, 0 | 1>; nets: string[] }[] = [];
-  const sims: { region: number[]; edit: Edit; inputs: string[]; watch: string[] }[] = [];
+  const runs: { region: number[]; edit: Edit; inputs: string[]; watch: string[] }[] = [];
   for (const g of groups) {
     const region = g.with === members ? all : regionOf(ctx, ov, g.with, drivers);
     const inputs = g.with === members ? allInputs : inputsOf(ctx, ov, g.with, region);
     const part = g.with === members ? edit : split(new Set(region.map((d) => nl.devices[d].name)), new Set(g.with.map(lineOf)));
     const watch = g.watch.map(lineOf);
-    sims.push({ region, edit: part, inputs, watch });
-    bad.push(...contentionVectors(nl, region, part, inputs, watch, limit).filter((b) => evaluate(on, b.vector) === 1));
+    runs.push({ region, edit: part, inputs, watch });
+    bad.push(...sim.contention(region, part, inputs, watch).filter((b) => evaluate(on, b.vector) === 1));
   }
   const { margin: fight, needs } = contention(ctx, bad);
-  const allowed = (v: Record<string, 0 | 1>) => needs.every((a) => holds(a, v));
-  const reports = sims.map((x) => sneakCheck(nl, x.region, x.edit, x.inputs, x.watch, limit, allowed));
+  const allowed = needs.length ? (v: Record<string, 0 | 1>) => needs.every((a) => holds(a, v)) : undefined;
+  const reports = runs.map((x) => sim.sneak(x.region, x.edit, x.inputs, x.watch, allowed));
   const joined = { bad: reports.flatMap((r) => r.bad), vectors: reports.reduce((n, r) => n + r.vectors, 0) };
   return { fight, backFeed: { ...sneakMargin(joined), name: 'back-feed between lines' }, needs };
 }

@@ -11,7 +11,7 @@ import type { Edit } from '../types';
 const railSourceMemo = new WeakMap<object, number[]>();
 
 /** The rails' sources, found once per netlist (a scan cuts many small regions from one design). */
-function railSources(nl: Readonly<FlatNetlist>): number[] {
+export function railSources(nl: Readonly<FlatNetlist>): number[] {
   let r = railSourceMemo.get(nl);
   if (!r) {
     const railNets = new Set(nl.rails.map((x) => x.net));
@@ -56,28 +56,45 @@ export function subNetlist(nl: Readonly<FlatNetlist>, devices: Iterable<number>)
   };
 }
 
-function vectorsFor(inputs: string[], limit: number): Record<string, 0 | 1>[] {
-  const out: Record<string, 0 | 1>[] = [];
-  if (inputs.length <= limit) {
-    for (let m = 0; m < 2 ** inputs.length; m++) out.push(Object.fromEntries(inputs.map((n, i) => [n, ((m >> i) & 1) as 0 | 1])));
+/**
+ * Input bits of each vector by input position: every combination up to `limit` inputs, beyond a
+ * seeded sample of 2^limit (the same sequence for the same input count, whatever the names).
+ */
+export function vectorBits(count: number, limit: number): Uint8Array[] {
+  const out: Uint8Array[] = [];
+  if (count <= limit) {
+    for (let m = 0; m < 2 ** count; m++) {
+      const v = new Uint8Array(count);
+      for (let i = 0; i < count; i++) v[i] = (m >> i) & 1;
+      out.push(v);
+    }
     return out;
   }
   let seed = 0x2545f491;
   for (let k = 0; k < 2 ** limit; k++) {
-    out.push(
-      Object.fromEntries(
-        inputs.map((n) => {
-          seed = (Math.imul(seed, 1103515245) + 12345) >>> 0;
-          return [n, ((seed >>> 16) & 1) as 0 | 1];
-        }),
-      ),
-    );
+    const v = new Uint8Array(count);
+    for (let i = 0; i < count; i++) {
+      seed = (Math.imul(seed, 1103515245) + 12345) >>> 0;
+      v[i] = (seed >>> 16) & 1;
+    }
+    out.push(v);
   }
   return out;
 }
 
+/** A vector's bits under the inputs' names. */
+export function named(inputs: readonly string[], bits: Uint8Array): Record<string, 0 | 1> {
+  const v: Record<string, 0 | 1> = {};
+  inputs.forEach((n, i) => (v[n] = bits[i] as 0 | 1));
+  return v;
+}
+
+export function vectorsFor(inputs: string[], limit: number): Record<string, 0 | 1>[] {
+  return vectorBits(inputs.length, limit).map((b) => named(inputs, b));
+}
+
 /** The region netlist with the edit applied. */
-const editedRegion = (region: FlatNetlist, edit: Edit): FlatNetlist => applyProposals(region, [{ id: 'region', title: 'region', edit, assumptions: [], margins: [] }]);
+export const editedRegion = (region: FlatNetlist, edit: Edit): FlatNetlist => applyProposals(region, [{ id: 'region', title: 'region', edit, assumptions: [], margins: [] }]);
 
 export interface SneakReport {
   /** Input vectors on which some output differs after the edit (or newly contends or floats). */

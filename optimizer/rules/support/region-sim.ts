@@ -1,0 +1,141 @@
+// Switch-level runs of small regions before and after an edit, shared between the checks of one
+// region and between regions of the same structure: a region is keyed by a canonical form of its
+// devices, nets, edit, inputs and watched nets (names replaced by first-appearance numbers), so the
+// identical bit-slice regions of a register are simulated once and each answer read back by name.
+import type { FlatDevice, FlatNetlist } from '../../netlist/ir';
+import { simulate, type Level } from '../../verify/switch-sim';
+import type { Edit } from '../types';
+import { editedRegion, named, railSources, subNetlist, vectorBits, type SneakReport } from './sneak-check';
+
+interface Shape {
+  /** The first region seen with this key: its netlists and names stand for every region like it. */
+  before: FlatNetlist;
+  after: FlatNetlist;
+  inputs: string[];
+  /** Watched nets present after the edit (names of the first region) and their positions. */
+  watch: string[];
+  watchAt: number[];
+  bits: Uint8Array[];
+  afterAll?: Level[][];
+  sneakByMask: Map<string, { bad: { at: number; nets: number[] }[]; vectors: number }>;
+}
+
+const deviceForm = (d: FlatDevice, terminals: string[]): string =>
+  JSON.stringify([d.kind, d.op ?? '', d.value ?? null, d.model?.toLowerCase() ?? '', d.params, d.waveform ?? '', terminals]);
+
+export class RegionSims {
+  private readonly shapes = new Map<string, Shape>();
+  private readonly bitsByCount = new Map<number, Uint8Array[]>();
+
+  constructor(
+    readonly nl: Readonly<FlatNetlist>,
+    readonly limit: number,
+  ) {}
+
+  private bits(count: number): Uint8Array[] {
+    let b = this.bitsByCount.get(count);
+    if (!b) this.bitsByCount.set(count, (b = vectorBits(count, this.limit)));
+    return b;
+  }
+
+  /**
+   * The canonical form of a region: nets numbered as subNetlist numbers them, new nets of the edit
+   * by first appearance, device names by position in the region. Null when a device reads nets by
+   * name (gate expressions), which a renamed copy would not reproduce.
+   */
+  private keyOf(devices: number[], edit: Edit, inputs: string[], watch: string[]): string | null {
+    const nl = this.nl;
+    const keep = [...new Set([...devices, ...railSources(nl)])].sort((a, b) => a - b);
+    const netNo = new Map<number, number>();
+    const no = (id: number) => {
+      let n = netNo.get(id);
+      if (n === undefined) netNo.set(id, (n = netNo.size));
+      return n;
+    };
+    no(0);
+    const parts: string[] = [];
+    const position = new Map<string, number>();
+    for (const i of keep) {
+      const d = nl.devices[i];
+      if (d.kind === 'gate') return null;
+      position.set(d.name, position.size);
+      parts.push(deviceForm(d, d.terminals.map((t) => `${no(t)}${nl.nets[t].kind ? `:${nl.nets[t].kind}` : ''}`)));
+    }
+    for (const r of nl.rails) parts.push(`rail ${no(r.net)} ${r.volts}`);
+    const fresh = new Map<string, number>();
+    const net = (name: string): string => {
+      const id = nl.netByName.get(name);
+      if (id !== undefined && netNo.has(id)) return `${netNo.get(id)}`;
+      let f = fresh.get(name);
+      if (f === undefined) fresh.set(name, (f = fresh.size));
+      // A net outside the region is a new net of the region's copy, numbered like a fresh name.
+      return `n${f}`;
+    };
+    const dev = (name: string) => (position.has(name) ? `${position.get(name)}` : `?${name}`);
+    parts.push(`rm ${edit.removeDevices.map(dev).sort().join(',')}`);
+    for (const r of edit.reconnect) parts.push(`rc ${dev(r.device)} ${r.terminal} ${net(r.net)}`);
+    for (const m of edit.mergeNets) parts.push(`mg ${net(m.keep)} ${net(m.remove)}`);
+    for (const a of edit.addDevices) parts.push(`add ${JSON.stringify([a.kind, a.op ?? '', a.value ?? null, a.model?.toLowerCase() ?? '', a.params ?? {}])} ${a.terminals.map(net).join(',')}`);
+    parts.push(`models ${JSON.stringify(edit.addModels ?? [])}`);
+    parts.push(`in ${inputs.map(net).join(',')}`);
+    parts.push(`watch ${watch.map(net).join(',')}`);
+    return parts.join('\n');
+  }
+
+  private shapeOf(devices: number[], edit: Edit, inputs: string[], watch: string[]): Shape {
+    const key = this.keyOf(devices, edit, inputs, watch);
+    const found = key === null ? undefined : this.shapes.get(key);
+    if (found) return found;
+    const before = subNetlist(this.nl, devices);
+    const after = editedRegion(before, edit);
+    const watchAt = watch.flatMap((o, i) => (after.netByName.has(o) ? [i] : []));
+    const shape: Shape = { before, after, inputs, watch: watchAt.map((i) => watch[i]), watchAt, bits: this.bits(inputs.length), sneakByMask: new Map() };
+    if (key !== null) this.shapes.set(key, shape);
+    return shape;
+  }
+
+  /** Vectors (by this region's names) on which a watched net contends after the edit, before any assumption. */
+  contention(devices: number[], edit: Edit, inputs: string[], watch: string[]): { vector: Record<string, 0 | 1>; nets: string[] }[] {
+    const s = this.shapeOf(devices, edit, inputs, watch);
+    if (!s.afterAll) {
+      const r = simulate(s.after, { kind: 'vectors', vectors: s.bits.map((b) => named(s.inputs, b)) }, { watch: s.watch });
+      s.afterAll = s.watch.map((o) => r.waveforms[o]);
+    }
+    const out: { vector: Record<string, 0 | 1>; nets: string[] }[] = [];
+    s.bits.forEach((b, k) => {
+      const nets = s.watchAt.filter((_, j) => s.afterAll![j][k] === 'X').map((i) => watch[i]);
+      if (nets.length) out.push({ vector: named(inputs, b), nets });
+    });
+    return out;
+  }
+
+  /**
+   * Before against after on the vectors `allowed` keeps (all when absent), as sneakCheck does —
+   * the simulator keeps stored charge from one vector to the next, so the run is keyed by which
+   * vectors it applies, not only by the region.
+   */
+  sneak(devices: number[], edit: Edit, inputs: string[], watch: string[], allowed?: (v: Record<string, 0 | 1>) => boolean): SneakReport {
+    const s = this.shapeOf(devices, edit, inputs, watch);
+    const kept = s.bits.flatMap((b, k) => (!allowed || allowed(named(inputs, b)) ? [k] : []));
+    if (kept.length === 0) return { bad: [], vectors: 0 };
+    const mask = kept.length === s.bits.length ? 'all' : kept.join(',');
+    let run = s.sneakByMask.get(mask);
+    if (!run) {
+      const vectors = kept.map((k) => named(s.inputs, s.bits[k]));
+      const a = simulate(s.before, { kind: 'vectors', vectors }, { watch: s.watch });
+      const b =
+        mask === 'all' && s.afterAll
+          ? null
+          : simulate(s.after, { kind: 'vectors', vectors }, { watch: s.watch });
+      const afterAt = (j: number, x: number) => (b ? b.waveforms[s.watch[j]][x] : s.afterAll![j][x]);
+      const bad: { at: number; nets: number[] }[] = [];
+      kept.forEach((k, x) => {
+        const nets = s.watch.flatMap((o, j) => (a.waveforms[o][x] !== afterAt(j, x) ? [j] : []));
+        if (nets.length) bad.push({ at: k, nets });
+      });
+      run = { bad, vectors: kept.length };
+      s.sneakByMask.set(mask, run);
+    }
+    return { bad: run.bad.map((x) => ({ vector: named(inputs, s.bits[x.at]), nets: x.nets.map((j) => watch[s.watchAt[j]]) })), vectors: run.vectors };
+  }
+}
