@@ -246,11 +246,40 @@ function pullDownNetwork(cx: ExtractContext, bases: BaseResolver, net: number, d
   for (let i = start; diodes && i < end; i++) {
     const dev = cx.nl.devices[termDev[i]];
     if (dev.kind !== 'diode' || termIdx[i] !== 0 || !isSteeringNode(cx, dev.terminals[1])) continue;
-    const rest = pullDownNetwork(cx, bases, dev.terminals[1], depth + 1, used);
+    const rest = steeredPullDown(cx, bases, dev.terminals[1], depth + 1, used);
     if (rest) branches.push(rest);
   }
   if (branches.length === 0) return undefined;
   return branches.length === 1 ? branches[0] : { type: 'parallel', parts: fit(branches) };
+}
+
+// A common override node is reached from every line it steers (thousands when one transistor
+// serves a whole bank): its test and its pull-down are worked out once per extraction, not per line.
+const steeringMemo = new WeakMap<ExtractContext, Map<number, boolean>>();
+const steeredMemo = new WeakMap<ExtractContext, Map<string, { net: SwitchNetwork | undefined; used: number[] }>>();
+
+function steeredPullDown(cx: ExtractContext, bases: BaseResolver, net: number, depth: number, used: number[]): SwitchNetwork | undefined {
+  let memo = steeredMemo.get(cx);
+  if (!memo) steeredMemo.set(cx, (memo = new Map()));
+  const key = `${net}:${depth}`;
+  let hit = memo.get(key);
+  if (!hit) {
+    const mark = used.length;
+    const result = pullDownNetwork(cx, bases, net, depth, used);
+    hit = { net: result, used: used.slice(mark) };
+    memo.set(key, hit);
+    return result;
+  }
+  for (const d of hit.used) used.push(d);
+  return hit.net;
+}
+
+export function isSteeringNode(cx: ExtractContext, net: number): boolean {
+  let memo = steeringMemo.get(cx);
+  if (!memo) steeringMemo.set(cx, (memo = new Map()));
+  let r = memo.get(net);
+  if (r === undefined) memo.set(net, (r = steeringNodeCheck(cx, net)));
+  return r;
 }
 
 /**
@@ -259,6 +288,16 @@ function pullDownNetwork(cx: ExtractContext, bases: BaseResolver, net: number, d
  * common node of an override transistor shared by several lines through steering diodes.
  */
 export function isSteeringNode(cx: ExtractContext, net: number): boolean {
+  const memo = (cx.steering ??= new Uint8Array(cx.nl.nets.length));
+  if (memo[net] === 0) memo[net] = steeringNode(cx, net) ? 1 : 2;
+  return memo[net] === 1;
+}
+
+/**
+ * The test itself: linear in the net's terminals plus the terminals of each diode's anode line.
+ * Asked once per net (memoised above), so k lines on one override node cost O(k) in all, not O(k²).
+ */
+function steeringNode(cx: ExtractContext, net: number): boolean {
   if (isRail(cx, net)) return false;
   let collectors = 0;
   let diodes = 0;
@@ -276,11 +315,19 @@ export function isSteeringNode(cx: ExtractContext, net: number): boolean {
     const dev = cx.nl.devices[termDev[i]];
     if (dev.kind !== 'diode') continue;
     const anode = dev.terminals[0];
-    let lineCollectors = 0;
+    if (anode === net) return false;
+    let lineCollector = false;
+    let pulledUp = false;
     for (let j = offsets[anode], e2 = offsets[anode + 1]; j < e2; j++) {
-      if (isNpn(cx, termDev[j]) && termIdx[j] === C) lineCollectors++;
+      const d = termDev[j];
+      const k = cx.nl.devices[d].kind;
+      if (k === 'npn' && termIdx[j] === C) lineCollector = true;
+      else if (k === 'resistor') {
+        const o = otherEnd(cx, d, termIdx[j]);
+        if (o !== anode && isHighRail(cx, o)) pulledUp = true;
+      }
     }
-    if (anode === net || lineCollectors === 0 || resistorPullUps(cx, anode).length === 0) return false;
+    if (!lineCollector || !pulledUp) return false;
   }
   return true;
 }

@@ -15,6 +15,12 @@ export interface ExtractContext {
   diagnostics: Diagnostic[];
   /** One shared variable node per net, so functions do not allocate a node per reference. */
   vars: (Expr | undefined)[];
+  /**
+   * Per-net answers of the bipolar steering-node test (0 not asked yet, 1 yes, 2 no), made on first
+   * use: every line of a shared override node asks about that node, and the answer depends only on
+   * the netlist, which never changes under a context.
+   */
+  steering?: Uint8Array;
 }
 
 export function makeContext(nl: FlatNetlist): ExtractContext {
