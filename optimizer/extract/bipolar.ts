@@ -246,40 +246,11 @@ function pullDownNetwork(cx: ExtractContext, bases: BaseResolver, net: number, d
   for (let i = start; diodes && i < end; i++) {
     const dev = cx.nl.devices[termDev[i]];
     if (dev.kind !== 'diode' || termIdx[i] !== 0 || !isSteeringNode(cx, dev.terminals[1])) continue;
-    const rest = steeredPullDown(cx, bases, dev.terminals[1], depth + 1, used);
+    const rest = pullDownNetwork(cx, bases, dev.terminals[1], depth + 1, used);
     if (rest) branches.push(rest);
   }
   if (branches.length === 0) return undefined;
   return branches.length === 1 ? branches[0] : { type: 'parallel', parts: fit(branches) };
-}
-
-// A common override node is reached from every line it steers (thousands when one transistor
-// serves a whole bank): its test and its pull-down are worked out once per extraction, not per line.
-const steeringMemo = new WeakMap<ExtractContext, Map<number, boolean>>();
-const steeredMemo = new WeakMap<ExtractContext, Map<string, { net: SwitchNetwork | undefined; used: number[] }>>();
-
-function steeredPullDown(cx: ExtractContext, bases: BaseResolver, net: number, depth: number, used: number[]): SwitchNetwork | undefined {
-  let memo = steeredMemo.get(cx);
-  if (!memo) steeredMemo.set(cx, (memo = new Map()));
-  const key = `${net}:${depth}`;
-  let hit = memo.get(key);
-  if (!hit) {
-    const mark = used.length;
-    const result = pullDownNetwork(cx, bases, net, depth, used);
-    hit = { net: result, used: used.slice(mark) };
-    memo.set(key, hit);
-    return result;
-  }
-  for (const d of hit.used) used.push(d);
-  return hit.net;
-}
-
-export function isSteeringNode(cx: ExtractContext, net: number): boolean {
-  let memo = steeringMemo.get(cx);
-  if (!memo) steeringMemo.set(cx, (memo = new Map()));
-  let r = memo.get(net);
-  if (r === undefined) memo.set(net, (r = steeringNodeCheck(cx, net)));
-  return r;
 }
 
 /**
