@@ -19,9 +19,31 @@ export interface MinimiseOptions {
   timeoutMs?: number;
 }
 
+/** One function's result from a batch, or why that function alone could not be minimised. */
+export type MinimiseOutcome = { ok: true; result: MinimiseResult } | { ok: false; error: Error };
+
 export interface Minimiser {
   readonly name: string;
   minimiseCover(fn: TruthTable, options?: MinimiseOptions): Promise<MinimiseResult>;
+  /**
+   * Many functions at once, one outcome each in order (a minimiser in another process answers
+   * them in one round trip). A failure fails its own function only.
+   */
+  minimiseMany?(fns: readonly TruthTable[], options?: MinimiseOptions): Promise<MinimiseOutcome[]>;
+}
+
+/** Minimises every function, batched where the minimiser can batch, one by one where it cannot. */
+export async function minimiseAll(m: Minimiser, fns: readonly TruthTable[], options?: MinimiseOptions): Promise<MinimiseOutcome[]> {
+  if (m.minimiseMany) return m.minimiseMany(fns, options);
+  const out: MinimiseOutcome[] = [];
+  for (const fn of fns) {
+    try {
+      out.push({ ok: true, result: await m.minimiseCover(fn, options) });
+    } catch (err) {
+      out.push({ ok: false, error: err instanceof Error ? err : new Error(String(err)) });
+    }
+  }
+  return out;
 }
 
 /** Exact Quine–McCluskey minimiser: pure and in-process, for small functions. */

@@ -2,7 +2,7 @@
 // Minterm m assigns input i the bit (m >> (n-1-i)) & 1: inputs[0] is the most significant,
 // as in the textbooks' Σm notation and the column order of a Berkeley PLA.
 import { InputError, InternalError } from '../errors';
-import { evaluateWords, type Expr } from './expr';
+import { evaluateWords, support, type Expr } from './expr';
 
 /** Largest input count a truth table is built for (2^20 minterms = 128 KiB per bitset). */
 export const MAX_TABLE_INPUTS = 20;
@@ -206,4 +206,42 @@ export function fromExprs(inputs: string[], outputs: { name: string; fn: Expr }[
     });
   }
   return { inputs: [...inputs], outputs: outs };
+}
+
+/**
+ * Bit-parallel table of one output computed by a network of small functions evaluated in order:
+ * each step may read the inputs and the steps before it, and the output is the step named
+ * `output`. A deep chain costs one small evaluation per step instead of a recursion through the
+ * composed expression. A step reading a name that is neither an input nor an earlier step is an
+ * error, as an unbound variable is for `fromExprs`.
+ */
+export function fromNetwork(inputs: string[], steps: readonly { name: string; fn: Expr }[], output: string, care?: Expr): TruthTable {
+  checkInputs(inputs);
+  const known = new Set(inputs);
+  for (const s of steps) {
+    for (const x of support(s.fn)) if (!known.has(x)) throw new RangeError(`no value for "${x}"`);
+    known.add(s.name);
+  }
+  if (!known.has(output)) throw new RangeError(`no value for "${output}"`);
+  const n = inputs.length;
+  const nWords = words(n);
+  const valid = fullSet(n);
+  const out: OutputTable = { name: output, on: new Uint32Array(nWords), dc: new Uint32Array(nWords) };
+  const env = new Map<string, number>();
+  for (let w = 0; w < nWords; w++) {
+    inputs.forEach((x, i) => env.set(x, inputWord(n - 1 - i, w)));
+    const careWord = care ? evaluateWords(care, env) & valid[w] : valid[w];
+    for (const s of steps) env.set(s.name, evaluateWords(s.fn, env));
+    out.on[w] = env.get(output)! & careWord;
+    out.dc[w] = ~careWord & valid[w];
+  }
+  return { inputs: [...inputs], outputs: [out] };
+}
+
+/** Word `w` of the input whose minterm bit is `bit`: a fixed pattern below bit 5, else all 0 or all 1. */
+function inputWord(bit: number, w: number): number {
+  if (bit >= 5) return ((w * 32) >> bit) & 1 ? -1 : 0;
+  let x = 0;
+  for (let b = 0; b < 32; b++) if ((b >> bit) & 1) x |= 1 << b;
+  return x | 0;
 }

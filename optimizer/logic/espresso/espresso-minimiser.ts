@@ -1,9 +1,10 @@
-// Minimiser backed by the Espresso process pool: constants answered here (never sent), each PLA
-// validated before sending, and every returned cover checked against the truth table on the care
-// set before it is believed — a wrong cover falls back to the exact minimiser or is an error.
+// Minimiser backed by the Espresso process pool: constants answered here (never sent), each
+// distinct function sent once per batch after its PLA is validated, and every returned cover
+// checked against the truth table on the care set before it is believed (a wrong cover falls back
+// to the exact minimiser or is an error); checked covers are remembered by the table's content.
 import { InternalError } from '../../errors';
 import { type Cover, coverMismatch } from '../cubes';
-import type { MinimiseMethod, MinimiseResult, Minimiser, MinimiseOptions } from '../minimiser';
+import type { MinimiseMethod, MinimiseOutcome, MinimiseResult, Minimiser, MinimiseOptions } from '../minimiser';
 import { MAX_QM_INPUTS, minimiseOutputQm } from '../quine-mccluskey';
 import { constantValue, type OutputTable, type TruthTable } from '../truth-table';
 import { EspressoPool, MinimiserError, type PoolOptions } from './pool';
@@ -14,22 +15,34 @@ export const EXACT_FALLBACK_INPUTS = 10;
 
 export interface EspressoMinimiser extends Minimiser {
   readonly pool: EspressoPool;
+  minimiseMany(fns: readonly TruthTable[], options?: MinimiseOptions): Promise<MinimiseOutcome[]>;
   close(): void;
   /** Forgets remembered covers (benchmarks time fresh calls). */
   clearCache(): void;
 }
 
-/** Covers remembered per function (bit slices repeat the same blocks); re-checked on every use. */
+/** Covers remembered per function (bit slices repeat the same blocks), oldest forgotten first. */
 const CACHE_ENTRIES = 512;
 
-/** FNV-1a over the on-set and don't-care words: the function's key without building its PLA. */
+/**
+ * The function itself as a key: input count, then the on-set and don't-care words as raw bytes.
+ * Equal keys are equal tables, so a remembered cover was already checked against this very table.
+ */
 function tableKey(out: OutputTable, n: number): string {
-  let h = 0x811c9dc5;
-  for (const set of [out.on, out.dc]) {
-    for (let w = 0; w < set.length; w++) h = Math.imul(h ^ set[w], 0x01000193);
-    h = Math.imul(h ^ 0x2c, 0x01000193);
-  }
-  return `${n}:${(h >>> 0).toString(16)}`;
+  const bytes = (set: Uint32Array) => Buffer.from(set.buffer, set.byteOffset, set.byteLength).toString('latin1');
+  return `${n}:${bytes(out.on)}|${bytes(out.dc)}`;
+}
+
+const copyCover = (cover: Cover): Cover => cover.map((c) => ({ care: c.care, value: c.value }));
+
+type Answer = { cover: Cover; method: MinimiseMethod } | { error: Error };
+
+/** A distinct non-constant function to send, and the outputs (function, output) that want it. */
+interface Wanted {
+  out: OutputTable;
+  n: number;
+  users: [number, number][];
+  answer?: Answer;
 }
 
 export function createEspressoMinimiser(options: PoolOptions & { pool?: EspressoPool } = {}): EspressoMinimiser {
@@ -47,52 +60,86 @@ export function createEspressoMinimiser(options: PoolOptions & { pool?: Espresso
     );
   }
 
+  async function minimiseMany(fns: readonly TruthTable[], opts: MinimiseOptions = {}): Promise<MinimiseOutcome[]> {
+    const answers: Answer[][] = fns.map((fn) => new Array<Answer>(fn.outputs.length));
+    const wanted = new Map<string, Wanted>();
+    fns.forEach((fn, f) => {
+      const n = fn.inputs.length;
+      fn.outputs.forEach((out, k) => {
+        const constant = constantValue(out, n);
+        if (constant === 0) answers[f][k] = { cover: [], method: 'constant' };
+        else if (constant === 1) answers[f][k] = { cover: [{ care: 0, value: 0 }], method: 'constant' };
+        else if (n > MAX_ESPRESSO_INPUTS) {
+          answers[f][k] = { error: new MinimiserError('rejected', `functions of more than ${MAX_ESPRESSO_INPUTS} inputs are not sent to the minimiser (got ${n})`) };
+        } else {
+          const key = tableKey(out, n);
+          const hit = cache.get(key);
+          if (hit) answers[f][k] = { cover: copyCover(hit), method: 'espresso' };
+          else {
+            const w = wanted.get(key);
+            if (w) w.users.push([f, k]);
+            else wanted.set(key, { out, n, users: [[f, k]] });
+          }
+        }
+      });
+    });
+    // Each distinct function once, built and validated here, all of them in one batch.
+    const send: { key: string; w: Wanted; text: string }[] = [];
+    for (const [key, w] of wanted) {
+      const text = buildPlaText(w.out, w.n);
+      const problem = plaTextProblem(text);
+      if (problem) w.answer = { error: new InternalError(`built an unsafe PLA for ${w.out.name}: ${problem}`) };
+      else send.push({ key, w, text });
+    }
+    const replies = send.length ? await pool.runEach(send.map((x) => x.text), opts.timeoutMs) : [];
+    send.forEach(({ key, w }, i) => {
+      const reply = replies[i];
+      if (reply instanceof Error) {
+        w.answer = { error: reply };
+        return;
+      }
+      try {
+        const r = accept(w.out, w.n, parseCubes(reply === '' ? [] : reply.split('\n'), w.n));
+        w.answer = r;
+        if (r.method === 'espresso') {
+          if (cache.size >= CACHE_ENTRIES) cache.delete(cache.keys().next().value!);
+          cache.set(key, copyCover(r.cover));
+        }
+      } catch (err) {
+        w.answer = { error: err instanceof Error ? err : new Error(String(err)) };
+      }
+    });
+    for (const w of wanted.values()) {
+      w.users.forEach(([f, k], u) => {
+        const a = w.answer!;
+        answers[f][k] = 'error' in a || u === 0 ? a : { cover: copyCover(a.cover), method: a.method };
+      });
+    }
+    // A function fails with its first failing output, as a single request would.
+    return fns.map((fn, f): MinimiseOutcome => {
+      const failed = answers[f].find((a): a is { error: Error } => 'error' in a);
+      if (failed) return { ok: false, error: failed.error };
+      const done = answers[f] as { cover: Cover; method: MinimiseMethod }[];
+      return {
+        ok: true,
+        result: {
+          cover: { inputs: [...fn.inputs], outputs: fn.outputs.map((o, k) => ({ name: o.name, cover: done[k].cover })) },
+          methods: done.map((a) => a.method),
+        },
+      };
+    });
+  }
+
   return {
     name: 'espresso',
     pool,
     close: () => pool.close(),
     clearCache: () => cache.clear(),
+    minimiseMany,
     async minimiseCover(fn: TruthTable, opts: MinimiseOptions = {}): Promise<MinimiseResult> {
-      const n = fn.inputs.length;
-      const results: { cover: Cover; method: MinimiseMethod }[] = new Array(fn.outputs.length);
-      const pending: { k: number; text?: string; key: string }[] = [];
-      fn.outputs.forEach((out, k) => {
-        const constant = constantValue(out, n);
-        if (constant === 0) results[k] = { cover: [], method: 'constant' };
-        else if (constant === 1) results[k] = { cover: [{ care: 0, value: 0 }], method: 'constant' };
-        else {
-          if (n > MAX_ESPRESSO_INPUTS) {
-            throw new MinimiserError('rejected', `functions of more than ${MAX_ESPRESSO_INPUTS} inputs are not sent to the minimiser (got ${n})`);
-          }
-          const key = tableKey(out, n);
-          const hit = cache.get(key);
-          // A remembered cover is believed only after the same check a fresh one gets.
-          if (hit && !coverMismatch(hit, out, n)) results[k] = { cover: hit, method: 'espresso' };
-          else pending.push({ k, key });
-        }
-      });
-      if (pending.length) {
-        // Built and validated only on a cache miss; every non-constant output in one round trip.
-        const texts = pending.map((p) => {
-          const text = buildPlaText(fn.outputs[p.k], n);
-          const problem = plaTextProblem(text);
-          if (problem) throw new InternalError(`built an unsafe PLA for ${fn.outputs[p.k].name}: ${problem}`);
-          return text;
-        });
-        const answers = await pool.runTexts(texts, opts.timeoutMs);
-        pending.forEach((p, i) => {
-          const r = accept(fn.outputs[p.k], n, parseCubes(answers[i] === '' ? [] : answers[i].split('\n'), n));
-          results[p.k] = r;
-          if (r.method === 'espresso') {
-            if (cache.size >= CACHE_ENTRIES) cache.delete(cache.keys().next().value!);
-            cache.set(p.key, r.cover);
-          }
-        });
-      }
-      return {
-        cover: { inputs: [...fn.inputs], outputs: fn.outputs.map((o, k) => ({ name: o.name, cover: results[k].cover })) },
-        methods: results.map((r) => r.method),
-      };
+      const [outcome] = await minimiseMany([fn], opts);
+      if (!outcome.ok) throw outcome.error;
+      return outcome.result;
     },
   };
 }

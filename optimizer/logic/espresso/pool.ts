@@ -1,7 +1,7 @@
 // A small pool of child processes running the native Espresso minimiser (worker.cjs). The native
 // code is synchronous, may exit() on bad input and cannot share a process between threads, so
-// each request goes to a child of its own: queued, timed out (the child is killed), and a child
-// that dies or errs is replaced before it serves anything else.
+// each batch of PLAs goes to a child of its own: queued, timed out per PLA (the child is killed),
+// and a child that dies or errs is replaced before it serves anything else.
 import { fork, type ChildProcess } from 'node:child_process';
 import path from 'node:path';
 
@@ -20,14 +20,22 @@ export class MinimiserError extends Error {
   }
 }
 
+/** One call's PLAs and their answers; several jobs may serve it (a batch split between children, or retried). */
+interface Request {
+  texts: string[];
+  answers: (string | MinimiserError | undefined)[];
+  left: number;
+  timeoutMs: number;
+  resolve: (answers: (string | MinimiserError)[]) => void;
+}
+
 interface Job {
   id: number;
-  /** PLA texts (lines joined by "\n"). */
-  batch: string[];
-  timeoutMs: number;
-  /** Cube texts, one per PLA. */
-  resolve: (cubes: string[]) => void;
-  reject: (err: Error) => void;
+  req: Request;
+  /** Indices into the request's texts, in the order the child answers them. */
+  items: number[];
+  /** Items answered so far (a prefix of `items`). */
+  got: number;
 }
 
 interface Slot {
@@ -35,7 +43,12 @@ interface Slot {
   job?: Job;
   timer?: NodeJS.Timeout;
   stderr: string;
+  /** The child's processor time (µs) at its last message. */
+  cpu: number;
 }
+
+/** Slack on a batch's timer: the child reports finished answers at least this often (worker.cjs). */
+const FLUSH_SLACK_MS = 100;
 
 export interface PoolOptions {
   /** Children at most (default 2: the machines this runs on are small). */
@@ -56,6 +69,8 @@ export class EspressoPool {
   private closed = false;
   /** Children started over the pool's life (tests read it to see restarts). */
   spawned = 0;
+  /** Processor time (µs) the children have reported using, summed over the pool's life (benchmarks read it). */
+  childCpuMicros = 0;
 
   constructor(options: PoolOptions = {}) {
     this.size = Math.max(1, options.size ?? 2);
@@ -68,7 +83,7 @@ export class EspressoPool {
     return this.runBatch([lines], timeoutMs).then((r) => r[0]);
   }
 
-  /** Several PLAs (as lines) in one round trip to one child (the timeout covers the whole batch). */
+  /** Several PLAs (as lines) in one round trip; rejects with the first PLA's failure. */
   runBatch(batch: string[][], timeoutMs = this.defaultTimeout): Promise<string[][]> {
     return this.runTexts(
       batch.map((lines) => lines.join('\n')),
@@ -76,15 +91,27 @@ export class EspressoPool {
     ).then((texts) => texts.map((t) => (t === '' ? [] : t.split('\n'))));
   }
 
+  /** Several PLA texts (lines joined by "\n", already validated); rejects with the first failure among them. */
+  async runTexts(batch: string[], timeoutMs = this.defaultTimeout): Promise<string[]> {
+    const answers = await this.runEach(batch, timeoutMs);
+    const failed = answers.find((a): a is MinimiserError => a instanceof MinimiserError);
+    if (failed) throw failed;
+    return answers as string[];
+  }
+
   /**
-   * Several PLA texts (lines joined by "\n", already validated by the caller) in one round trip
-   * to one child; resolves with one text of cube lines per PLA. One string per PLA each way keeps
-   * the serialisation cost a small fraction of the minimiser's own time.
+   * Several PLA texts (lines joined by "\n", already validated by the caller), one answer each: the
+   * cube lines as one text, or the failure of that PLA alone. The batch goes to the children in
+   * as few round trips as there are children (one string per PLA each way); `timeoutMs` limits
+   * each PLA's run. When a child hangs or dies mid-batch, the answers it gave are kept and the
+   * unanswered PLAs are retried one by one on fresh children, so only the culprit fails.
    */
-  runTexts(batch: string[], timeoutMs = this.defaultTimeout): Promise<string[]> {
-    if (this.closed) return Promise.reject(new MinimiserError('closed', 'the minimiser pool is closed'));
-    return new Promise((resolve, reject) => {
-      this.queue.push({ id: this.nextId++, batch, timeoutMs, resolve, reject });
+  runEach(batch: string[], timeoutMs = this.defaultTimeout): Promise<(string | MinimiserError)[]> {
+    if (this.closed) return Promise.resolve(batch.map(() => new MinimiserError('closed', 'the minimiser pool is closed')));
+    if (batch.length === 0) return Promise.resolve([]);
+    return new Promise((resolve) => {
+      const req: Request = { texts: batch, answers: new Array(batch.length), left: batch.length, timeoutMs, resolve };
+      for (const items of this.split(batch)) this.queue.push({ id: this.nextId++, req, items, got: 0 });
       this.dispatch();
     });
   }
@@ -92,15 +119,68 @@ export class EspressoPool {
   /** Kills every child and fails queued requests. */
   close(): void {
     this.closed = true;
-    for (const job of this.queue.splice(0)) job.reject(new MinimiserError('closed', 'the minimiser pool is closed'));
-    for (const slot of [...this.slots]) this.retire(slot, new MinimiserError('closed', 'the minimiser pool is closed'));
+    const err = () => new MinimiserError('closed', 'the minimiser pool is closed');
+    for (const job of this.queue.splice(0)) this.failRest(job, err());
+    for (const slot of [...this.slots]) {
+      const job = slot.job;
+      this.retire(slot);
+      if (job) this.failRest(job, err());
+    }
   }
 
   get liveChildren(): number {
     return this.slots.size;
   }
 
+  /** Contiguous shares of a batch, one per child the pool may run, balanced by text length. */
+  private split(batch: string[]): number[][] {
+    const parts = Math.min(this.size, batch.length);
+    const all = batch.map((_, k) => k);
+    if (parts <= 1) return [all];
+    const total = batch.reduce((s, t) => s + t.length, 0);
+    const shares: number[][] = [];
+    let cur: number[] = [];
+    let acc = 0;
+    for (const k of all) {
+      cur.push(k);
+      acc += batch[k].length;
+      if (shares.length < parts - 1 && acc >= (total * (shares.length + 1)) / parts) {
+        shares.push(cur);
+        cur = [];
+      }
+    }
+    if (cur.length) shares.push(cur);
+    return shares;
+  }
+
+  private answer(req: Request, k: number, value: string | MinimiserError): void {
+    if (req.answers[k] !== undefined) return;
+    req.answers[k] = value;
+    if (--req.left === 0) req.resolve(req.answers as (string | MinimiserError)[]);
+  }
+
+  /** Every item of the job not yet answered fails with `err`. */
+  private failRest(job: Job, err: MinimiserError): void {
+    for (let i = job.got; i < job.items.length; i++) this.answer(job.req, job.items[i], err);
+    job.got = job.items.length;
+  }
+
+  /**
+   * A job's child failed without naming the PLA at fault: one unanswered item is the culprit; with
+   * several, each is retried alone (ahead of other work) so the failure lands on the right one.
+   */
+  private failUnknown(job: Job, err: MinimiserError): void {
+    const rest = job.items.slice(job.got);
+    if (rest.length === 1) this.answer(job.req, rest[0], err);
+    else this.queue.unshift(...rest.map((k) => ({ id: this.nextId++, req: job.req, items: [k], got: 0 })));
+    job.got = job.items.length;
+  }
+
   private dispatch(): void {
+    if (this.closed) {
+      for (const job of this.queue.splice(0)) this.failRest(job, new MinimiserError('closed', 'the minimiser pool is closed'));
+      return;
+    }
     while (this.queue.length > 0) {
       let slot = [...this.slots].find((s) => !s.job);
       if (!slot && this.slots.size < this.size) slot = this.spawn();
@@ -114,30 +194,19 @@ export class EspressoPool {
     // execArgv empty: the worker is plain CommonJS and must not inherit a TypeScript loader.
     const proc = fork(this.workerPath, [], { execArgv: [], stdio: ['ignore', 'ignore', 'pipe', 'ipc'], serialization: 'json' });
     this.spawned++;
-    const slot: Slot = { proc, stderr: '' };
+    const slot: Slot = { proc, stderr: '', cpu: 0 };
     this.slots.add(slot);
     proc.stderr?.on('data', (chunk: Buffer) => {
       slot.stderr = (slot.stderr + chunk.toString('utf8')).slice(-2000);
     });
-    proc.on('message', (msg: { id: number; ok: boolean; cubes?: unknown[]; error?: string }) => {
-      const job = slot.job;
-      if (!job || msg.id !== job.id) return;
-      this.finish(slot);
-      if (msg.ok && Array.isArray(msg.cubes) && msg.cubes.length === job.batch.length && msg.cubes.every((c) => typeof c === 'string')) job.resolve(msg.cubes as string[]);
-      else {
-        // An error inside the native code may leave it in a bad state: replace the child.
-        this.retire(slot);
-        job.reject(new MinimiserError('rejected', `the minimiser rejected its input: ${msg.error ?? 'unknown error'}`));
-      }
-      this.dispatch();
-    });
+    proc.on('message', (msg: Reply) => this.onReply(slot, msg));
     const onGone = (code: number | null, signal: NodeJS.Signals | null) => {
       if (!this.slots.has(slot)) return;
       const job = slot.job;
       this.retire(slot);
       if (job) {
         const detail = slot.stderr.trim().split('\n').slice(-3).join(' | ');
-        job.reject(new MinimiserError('crashed', `the minimiser process exited (${signal ?? `code ${code}`})${detail ? `: ${detail}` : ''}`));
+        this.failUnknown(job, new MinimiserError('crashed', `the minimiser process exited (${signal ?? `code ${code}`})${detail ? `: ${detail}` : ''}`));
       }
       this.dispatch();
     };
@@ -147,17 +216,57 @@ export class EspressoPool {
     return slot;
   }
 
+  private onReply(slot: Slot, msg: Reply): void {
+    const job = slot.job;
+    if (!job || !msg || msg.id !== job.id) return;
+    if (typeof msg.cpu === 'number' && msg.cpu >= slot.cpu) {
+      this.childCpuMicros += msg.cpu - slot.cpu;
+      slot.cpu = msg.cpu;
+    }
+    // Answers arrive in order; a reply without `from` answers the whole batch at once.
+    const from = typeof msg.from === 'number' ? msg.from : 0;
+    const cubes = Array.isArray(msg.cubes) ? msg.cubes : [];
+    const wellFormed = from === job.got && from + cubes.length <= job.items.length && cubes.every((c) => typeof c === 'string');
+    if (wellFormed) {
+      cubes.forEach((c, i) => this.answer(job.req, job.items[from + i], c as string));
+      job.got = from + cubes.length;
+    }
+    if (msg.ok && wellFormed) {
+      if (job.got === job.items.length) this.finish(slot);
+      else this.arm(slot, job); // progress: the next PLA gets its full time
+      if (!slot.job) this.dispatch();
+      return;
+    }
+    // An error inside the native code may leave it in a bad state: replace the child.
+    this.retire(slot);
+    const err = new MinimiserError('rejected', `the minimiser rejected its input: ${(msg.ok ? 'a malformed answer' : msg.error) ?? 'unknown error'}`);
+    if (!msg.ok && wellFormed && msg.at === job.got && job.got < job.items.length) {
+      // The child named the PLA at fault: it alone fails, the rest go on as a batch.
+      this.answer(job.req, job.items[job.got], err);
+      const rest = job.items.slice(job.got + 1);
+      job.got = job.items.length;
+      if (rest.length) this.queue.unshift({ id: this.nextId++, req: job.req, items: rest, got: 0 });
+    } else this.failUnknown(job, err);
+    this.dispatch();
+  }
+
+  private arm(slot: Slot, job: Job): void {
+    if (slot.timer) clearTimeout(slot.timer);
+    const limit = job.req.timeoutMs + (job.items.length > 1 ? FLUSH_SLACK_MS : 0);
+    slot.timer = setTimeout(() => {
+      this.retire(slot);
+      this.failUnknown(job, new MinimiserError('timeout', `the minimiser took longer than ${job.req.timeoutMs} ms and was stopped`));
+      this.dispatch();
+    }, limit);
+  }
+
   private start(slot: Slot, job: Job): void {
     slot.job = job;
     slot.stderr = '';
     slot.proc.ref();
     (slot.proc.channel as { ref?: () => void } | undefined)?.ref?.();
-    slot.timer = setTimeout(() => {
-      this.retire(slot);
-      job.reject(new MinimiserError('timeout', `the minimiser took longer than ${job.timeoutMs} ms and was stopped`));
-      this.dispatch();
-    }, job.timeoutMs);
-    slot.proc.send({ id: job.id, batch: job.batch });
+    this.arm(slot, job);
+    slot.proc.send({ id: job.id, batch: job.items.map((k) => job.req.texts[k]) });
   }
 
   private finish(slot: Slot): void {
@@ -173,13 +282,23 @@ export class EspressoPool {
     (slot.proc.channel as { unref?: () => void } | undefined)?.unref?.();
   }
 
-  private retire(slot: Slot, failPending?: Error): void {
+  private retire(slot: Slot): void {
     if (!this.slots.delete(slot)) return;
     if (slot.timer) clearTimeout(slot.timer);
-    const job = slot.job;
     slot.job = undefined;
     slot.proc.removeAllListeners('message');
     if (slot.proc.exitCode === null && slot.proc.signalCode === null) slot.proc.kill('SIGKILL');
-    if (job && failPending) job.reject(failPending);
   }
+}
+
+/** A message from the child (worker.cjs); older children answer a whole batch in one `cubes`. */
+interface Reply {
+  id: number;
+  ok: boolean;
+  from?: number;
+  cubes?: unknown[];
+  done?: boolean;
+  at?: number;
+  error?: string;
+  cpu?: number;
 }

@@ -4,15 +4,37 @@
 'use strict';
 const espresso = require('kuzzle-espresso-logic-minimizer');
 
+/** Answers already computed are sent at least this often, so the parent's per-function timer can restart. */
+const FLUSH_MS = 50;
+
+const cpuMicros = () => {
+  const u = process.cpuUsage();
+  return u.user + u.system;
+};
+
 // One message carries a batch of PLAs, each as one text (lines joined by "\n": one string to
-// serialise instead of thousands); the answer is one text of cube lines per PLA.
+// serialise instead of thousands). Answers (one text of cube lines per PLA) go back in order, in
+// as few messages as the flush interval allows: { from, cubes } covers PLAs from..from+len-1.
+// Every message also carries this process's processor time so far (benchmarks read it).
 process.on('message', (msg) => {
   if (!msg || typeof msg.id !== 'number' || !Array.isArray(msg.batch)) return;
-  try {
-    const cubes = msg.batch.map((text) => espresso.minimize(String(text).split('\n')).join('\n'));
-    process.send({ id: msg.id, ok: true, cubes });
-  } catch (err) {
-    process.send({ id: msg.id, ok: false, error: String((err && err.message) || err) });
+  let from = 0;
+  let cubes = [];
+  let last = Date.now();
+  for (let k = 0; k < msg.batch.length; k++) {
+    try {
+      cubes.push(espresso.minimize(String(msg.batch[k]).split('\n')).join('\n'));
+    } catch (err) {
+      process.send({ id: msg.id, ok: false, from, cubes, at: k, error: String((err && err.message) || err), cpu: cpuMicros() });
+      return;
+    }
+    const now = Date.now();
+    if (k === msg.batch.length - 1 || now - last >= FLUSH_MS) {
+      process.send({ id: msg.id, ok: true, from, cubes, done: k === msg.batch.length - 1, cpu: cpuMicros() });
+      from = k + 1;
+      cubes = [];
+      last = now;
+    }
   }
 });
 process.on('disconnect', () => process.exit(0));

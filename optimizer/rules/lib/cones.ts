@@ -6,95 +6,133 @@ import { substitute, support, v, type Expr } from '../../logic/expr';
 
 export interface Cone {
   root: LogicNode;
-  /** Nodes of the cone, root first. */
+  /** Nodes of the cone, root first (pre-order: every node before the nodes feeding it). */
   nodes: LogicNode[];
   /** Names of the nets the cone reads from outside (primary inputs, other roots, state bits). */
   leaves: string[];
-  /** The root's function over the leaves. */
-  fn: Expr;
+  /** The root's function over the leaves (composed on first read: a long chain is never composed unless asked for). */
+  readonly fn: Expr;
   /** Devices of the cone's nodes (indices into the netlist). */
   devices: number[];
 }
 
 const combinational = (n: LogicNode) => n.kind === 'static';
 
-/** Readers of each driven net by name (node indices). */
+/** Readers of each driven net by name (node indices; a node reading a net twice is listed twice). */
 export function readersOf(view: LogicView): Map<string, number[]> {
   const readers = new Map<string, number[]>();
   view.nodes.forEach((n, i) => {
-    for (const x of n.inputs) readers.set(x, [...(readers.get(x) ?? []), i]);
+    for (const x of n.inputs) {
+      const r = readers.get(x);
+      if (r) r.push(i);
+      else readers.set(x, [i]);
+    }
   });
   return readers;
 }
 
 /**
  * Every cone with at most `maxLeaves` leaves whose nodes own their devices alone. `protectedNets`
- * (ports, nets with readers outside the logic view) are always roots.
+ * (ports, nets with readers outside the logic view) are always roots. Linear in the view: a node
+ * that is not a root has exactly one reader, so it is walked inside exactly one cone.
  */
-export function fanoutFreeCones(view: LogicView, maxLeaves: number, protectedNets: ReadonlySet<string> = new Set()): Cone[] {
-  const byName = new Map(view.nodes.map((n) => [n.name, n]));
-  const readers = readersOf(view);
+export function fanoutFreeCones(
+  view: LogicView,
+  maxLeaves: number,
+  protectedNets: ReadonlySet<string> = new Set(),
+  readers: ReadonlyMap<string, readonly number[]> = readersOf(view),
+): Cone[] {
+  const nodes = view.nodes;
+  // Last node of a name wins, as a name → node map built in view order would have it.
+  const byName = new Map<string, number>();
+  nodes.forEach((n, i) => byName.set(n.name, i));
   const state = new Set(view.stateBits);
-  const isRoot = (n: LogicNode) => {
-    if (!combinational(n) || state.has(n.name) || protectedNets.has(n.name)) return true;
-    const r = readers.get(n.name) ?? [];
-    return r.length !== 1 || !combinational(view.nodes[r[0]]);
-  };
+  const root = new Uint8Array(nodes.length);
+  nodes.forEach((n, i) => {
+    if (!combinational(n) || state.has(n.name) || protectedNets.has(n.name)) root[i] = 1;
+    else {
+      const r = readers.get(n.name) ?? [];
+      root[i] = r.length !== 1 || !combinational(nodes[r[0]]) ? 1 : 0;
+    }
+  });
+  // How many times each device is listed by any node (a device two nodes list is shared).
   const deviceOwners = new Map<number, number>();
-  for (const n of view.nodes) for (const d of n.devices) deviceOwners.set(d, (deviceOwners.get(d) ?? 0) + 1);
+  for (const n of nodes) for (const d of n.devices) deviceOwners.set(d, (deviceOwners.get(d) ?? 0) + 1);
 
   const cones: Cone[] = [];
-  for (const root of view.nodes) {
-    if (!combinational(root) || !isRoot(root)) continue;
-    const cone = coneFrom(root, byName, isRoot, maxLeaves);
-    if (!cone) continue;
-    const { nodes, leaves, fn } = cone;
-    const devices = [...new Set(nodes.flatMap((n) => n.devices))];
-    // A device shared with a node outside the cone cannot be removed with it.
-    const own = devices.every((d) => deviceOwners.get(d) === nodes.filter((n) => n.devices.includes(d)).length);
-    if (!own) continue;
-    cones.push({ root, nodes, leaves: [...leaves].sort(), fn, devices });
-  }
+  nodes.forEach((top, i) => {
+    if (!combinational(top) || !root[i]) return;
+    const walked = coneFrom(i, nodes, byName, root, maxLeaves);
+    if (!walked) return;
+    // A device is the cone's to remove only if every node listing it is inside the cone.
+    const inCone = new Map<number, number>();
+    for (const n of walked.nodes) {
+      for (const d of n.devices.length > 1 ? new Set(n.devices) : n.devices) inCone.set(d, (inCone.get(d) ?? 0) + 1);
+    }
+    for (const [d, k] of inCone) if (deviceOwners.get(d) !== k) return;
+    cones.push(makeCone(top, walked.nodes, [...walked.leaves].sort(), [...inCone.keys()]));
+  });
   return cones;
 }
 
+/** A cone whose function is composed the first time it is read, then kept. */
+function makeCone(root: LogicNode, nodes: LogicNode[], leaves: string[], devices: number[]): Cone {
+  let fn: Expr | undefined;
+  return {
+    root,
+    nodes,
+    leaves,
+    devices,
+    get fn() {
+      fn ??= composeCone(root, nodes);
+      return fn;
+    },
+  };
+}
+
 /**
- * The cone under `root` (pre-order nodes, leaves, function over the leaves), walked with an
- * explicit stack so a long single-reader chain costs heap rather than call depth; gives up as soon
- * as the leaves pass `maxLeaves`.
+ * The root's function over the leaves, composed node by node from the end of the pre-order (each
+ * node after the nodes feeding it), so no recursion follows the chain. A net read before its value
+ * is known (an uncut loop through the root) stays a variable where it is read.
+ */
+export function composeCone(root: LogicNode, nodes: readonly LogicNode[]): Expr {
+  const memo = new Map<string, Expr>();
+  for (let k = nodes.length - 1; k >= 0; k--) {
+    const node = nodes[k];
+    memo.set(node.name, substitute(node.fn, (x) => memo.get(x) ?? v(x)));
+  }
+  return memo.get(root.name) ?? v(root.name);
+}
+
+/**
+ * The cone under the root at `start` (pre-order nodes, leaves), walked with an explicit stack so a
+ * long single-reader chain costs heap rather than call depth; gives up as soon as the leaves pass
+ * `maxLeaves`.
  */
 function coneFrom(
-  root: LogicNode,
-  byName: ReadonlyMap<string, LogicNode>,
-  isRoot: (n: LogicNode) => boolean,
+  start: number,
+  nodes: readonly LogicNode[],
+  byName: ReadonlyMap<string, number>,
+  root: Uint8Array,
   maxLeaves: number,
-): { nodes: LogicNode[]; leaves: Set<string>; fn: Expr } | undefined {
-  const nodes: LogicNode[] = [];
+): { nodes: LogicNode[]; leaves: Set<string> } | undefined {
+  const inside: LogicNode[] = [];
   const leaves = new Set<string>();
-  const memo = new Map<string, Expr>();
-  const open = new Set<string>();
-  const stack: { name: string; expanded: boolean }[] = [{ name: root.name, expanded: false }];
+  const seen = new Set<string>();
+  const stack: string[] = [nodes[start].name];
   while (stack.length) {
-    const { name, expanded } = stack.pop()!;
-    if (memo.has(name)) continue;
-    const node = byName.get(name);
-    if (!node || (node !== root && isRoot(node))) {
+    const name = stack.pop()!;
+    if (seen.has(name)) continue; // a leaf read twice, or an uncut loop back to the root
+    seen.add(name);
+    const i = byName.get(name);
+    if (i === undefined || (i !== start && root[i])) {
       leaves.add(name);
       if (leaves.size > maxLeaves) return undefined;
-      memo.set(name, v(name));
       continue;
     }
-    if (expanded) {
-      open.delete(name);
-      memo.set(name, substitute(node.fn, (x) => memo.get(x) ?? v(x)));
-      continue;
-    }
-    if (open.has(name)) continue; // an uncut loop: the net stays a variable where it is read
-    open.add(name);
-    nodes.push(node);
-    stack.push({ name, expanded: true });
-    const deps = [...support(node.fn)].reverse();
-    for (const dep of deps) if (!memo.has(dep)) stack.push({ name: dep, expanded: false });
+    inside.push(nodes[i]);
+    const deps = [...support(nodes[i].fn)];
+    for (let k = deps.length - 1; k >= 0; k--) if (!seen.has(deps[k])) stack.push(deps[k]);
   }
-  return { nodes, leaves, fn: memo.get(root.name)! };
+  return { nodes: inside, leaves };
 }
