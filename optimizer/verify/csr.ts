@@ -37,3 +37,20 @@ export function grow(a: Int32Array) {
   return b;
 }
 
+
+/** The same lists under new keys: list k becomes list newKey[k] (newKey a permutation). */
+export function permute(c: Csr, newKey: Int32Array): Csr {
+  const n = newKey.length;
+  const oldKey = new Int32Array(n);
+  for (let k = 0; k < n; k++) oldKey[newKey[k]] = k;
+  const off = new Int32Array(n + 1);
+  const list = new Int32Array(c.list.length);
+  let at = 0;
+  for (let j = 0; j < n; j++) {
+    const k = oldKey[j];
+    off[j] = at;
+    for (let i = c.off[k], end = c.off[k + 1]; i < end; i++) list[at++] = c.list[i];
+  }
+  off[n] = at;
+  return { off, list };
+}

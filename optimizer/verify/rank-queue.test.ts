@@ -1,7 +1,7 @@
-// The simulator's worklist pops groups in rank order and never holds a group twice.
+// The simulator's worklists pop groups in rank order and never hold a group twice.
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { RankQueue } from './rank-queue';
+import { LowestFirstQueue, RankQueue } from './rank-queue';
 
 describe('RankQueue', () => {
   it('pops in non-decreasing rank order, each queued group once', () => {
@@ -17,5 +17,38 @@ describe('RankQueue', () => {
         for (let i = 1; i < out.length; i++) expect(ranks[out[i - 1]]).toBeLessThanOrEqual(ranks[out[i]]);
       }),
     );
+  });
+});
+
+describe('LowestFirstQueue', () => {
+  it('pops queued ids lowest first, each once, also when lower ids are pushed between pops', () => {
+    fc.assert(
+      fc.property(fc.integer({ min: 1, max: 5000 }), fc.array(fc.tuple(fc.boolean(), fc.nat()), { maxLength: 400 }), (n, ops) => {
+        const q = new LowestFirstQueue(n);
+        const model = new Set<number>();
+        for (const [isPush, x] of ops) {
+          if (isPush || model.size === 0) {
+            q.push(x % n);
+            model.add(x % n);
+          } else {
+            const lowest = Math.min(...model);
+            expect(q.pop()).toBe(lowest);
+            model.delete(lowest);
+          }
+          expect(q.size).toBe(model.size);
+        }
+        const rest: number[] = [];
+        while (q.size) rest.push(q.pop());
+        expect(rest).toEqual([...model].sort((a, b) => a - b));
+      }),
+    );
+  });
+
+  it('handles ids on word boundaries (31, 32, 1023, 1024)', () => {
+    const q = new LowestFirstQueue(2048);
+    for (const g of [1024, 31, 1023, 32, 2047, 0]) q.push(g);
+    const out: number[] = [];
+    while (q.size) out.push(q.pop());
+    expect(out).toEqual([0, 31, 32, 1023, 1024, 2047]);
   });
 });

@@ -7,7 +7,7 @@ import type { Expr } from '../logic/expr';
 import { makeContext, isRail } from '../extract/context';
 import { BaseResolver } from '../extract/bipolar';
 import { loadTransistor } from '../extract/mos';
-import { grow, Pairs, type Csr } from './csr';
+import { grow, Pairs, permute, type Csr } from './csr';
 
 export type { Csr } from './csr';
 
@@ -57,7 +57,10 @@ export interface SwitchModel {
   /** Per edge with CTL_EXPR: start of its base-drive program in `code`. */
   programAt: Int32Array;
   code: Int32Array;
-  /** Group per net (-1 for rails and inputs, which are sources). */
+  /**
+   * Group per net (-1 for rails and inputs, which are sources). Group ids are the evaluation
+   * order: a group fed only by lower ids comes later (feedback loops broken).
+   */
   groupOf: Int32Array;
   groupCount: number;
   groupNets: Csr;
@@ -67,8 +70,6 @@ export interface SwitchModel {
   edgesAt: Csr;
   /** Groups that must be re-evaluated when this net changes (controls and source adjacency). */
   readers: Csr;
-  /** Evaluation order: groups fed only by earlier ranks come later (feedback loops broken). */
-  rank: Int32Array;
   /** Gate-level devices reading a net. */
   gateReaders: Csr;
   /** Gate-level devices (indices into nl.devices). */
@@ -270,8 +271,14 @@ export function buildSwitchModel(nl: FlatNetlist, inputNames: string[]): SwitchM
       if (g >= 0) addReader(n, g);
     }
   }
-  const groupNets = netPairs.toCsr(groupCount);
-  const readers = readerPairs.toCsr(nNets);
+  // Groups are renumbered in evaluation order, so the simulator's worklist is a bitmap over group
+  // ids and a wave of evaluations walks the group tables front to back.
+  const oldNets = netPairs.toCsr(groupCount);
+  const oldReaders = readerPairs.toCsr(nNets);
+  const order = rankGroups(groupCount, oldNets, oldReaders);
+  for (let n = 0; n < nNets; n++) if (groupOf[n] >= 0) groupOf[n] = order[groupOf[n]];
+  const readers = oldReaders;
+  for (let i = 0; i < readers.list.length; i++) readers.list[i] = order[readers.list[i]];
   return {
     nl,
     edgeCount: nEdges,
@@ -286,12 +293,11 @@ export function buildSwitchModel(nl: FlatNetlist, inputNames: string[]): SwitchM
     code: code.slice(0, codeLen),
     groupOf,
     groupCount,
-    groupNets,
-    groupEdges: edgePairs.toCsr(groupCount),
-    groupGates: gatePairs.toCsr(groupCount),
+    groupNets: permute(oldNets, order),
+    groupEdges: permute(edgePairs.toCsr(groupCount), order),
+    groupGates: permute(gatePairs.toCsr(groupCount), order),
     edgesAt: atPairs.toCsr(nNets),
     readers,
-    rank: rankGroups(groupCount, groupNets, readers),
     gateReaders: gateReaderPairs.toCsr(nNets),
     gates,
     railValue,

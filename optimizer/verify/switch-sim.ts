@@ -8,25 +8,13 @@ import type { FlatNetlist } from '../netlist/ir';
 import type { Expr } from '../logic/expr';
 import { gateFunction } from '../extract/gates';
 import { ternaryExpr, type Mask } from './ternary';
-import { RankQueue } from './rank-queue';
-import {
-  buildSwitchModel,
-  BLEED,
-  CHARGE,
-  CTL_EXPR,
-  CTL_NMOS,
-  CTL_PMOS,
-  DRIVEN,
-  OP_AND,
-  OP_CONST,
-  OP_END,
-  OP_NET,
-  OP_NOT,
-  OP_OR,
-  RAIL,
-  WEAK,
-  type SwitchModel,
-} from './switch-model';
+import { LowestFirstQueue } from './rank-queue';
+import * as M from './switch-model';
+import type { SwitchModel } from './switch-model';
+
+// Copied into module constants once: a transpiled named import is read through a getter on every
+// use, and these are read in the innermost loops.
+const { buildSwitchModel, BLEED, CHARGE, CTL_EXPR, CTL_NMOS, CTL_PMOS, DRIVEN, OP_AND, OP_CONST, OP_END, OP_NET, OP_NOT, OP_OR, RAIL, WEAK } = M;
 
 const PASSES = [DRIVEN, WEAK, BLEED, CHARGE] as const;
 
@@ -200,7 +188,7 @@ export class SwitchSimulator {
   private nChanged = 0;
   private stack!: Int32Array;
   private top = 0;
-  private queue?: RankQueue;
+  private queue?: LowestFirstQueue;
   private curLevel = 0;
   private tracking = false;
 
@@ -395,7 +383,7 @@ export class SwitchSimulator {
     const m = this.model;
     this.step++;
     const first = this.step === 0;
-    const queue = (this.queue ??= new RankQueue(m.rank));
+    const queue = (this.queue ??= new LowestFirstQueue(m.groupCount));
     // edge-triggered flip-flops sample d on the rising clock before anything else moves
     const dffUpdates: [number, Mask][] = [];
     for (const [name, value] of Object.entries(vector)) {
@@ -421,7 +409,7 @@ export class SwitchSimulator {
       if (g >= 0) queue.push(g);
     }
     if (first) for (let g = 0; g < m.groupCount; g++) queue.push(g);
-    // Rank-ordered worklist (a binary heap on the topological rank): each group of acyclic logic
+    // Rank-ordered worklist (group ids are topological ranks; lowest first): each group of acyclic logic
     // settles in one evaluation; loops iterate up to the bound. Counts are per step (evalStep
     // says which step a group's count belongs to); a stuck group's count stays above the bound.
     const { evalCount, evalStep, changed } = this;
