@@ -11,6 +11,7 @@ import { flatten } from '../netlist/flatten';
 import { applyProposals } from '../rewrite/apply';
 import { runRules } from './run-rules';
 import { createEspressoMinimiser } from '../logic/espresso/espresso-minimiser';
+import { exactMinimiser, type Minimiser } from '../logic/minimiser';
 import { NetlistBuilder } from '../netlist/build';
 import type { FlatNetlist } from '../netlist/ir';
 import { scan } from './scan';
@@ -164,6 +165,61 @@ describe('two-level-minimise: invalid (findings)', () => {
     const r = await scan(deck(0), { rules: { [rule.id]: rule }, minimiser: m });
     expect(r.findings[0].proposals[0].savings.transistors).toBe(8);
     expect(r.findings[0].proposals[0].verdict).toBe('ready');
+  });
+});
+
+/** Three copies of the gate-level block (bit slices S0..S2), each with its own nets. */
+function gateSlices(): FlatNetlist {
+  const b = new NetlistBuilder('Wren-8 flag logic, three slices');
+  for (const s of ['S0', 'S1', 'S2']) {
+    const n = (x: string) => `${s}_${x}`;
+    b.gate(n('U1'), 'not', [n('BN'), n('B')]);
+    b.gate(n('U2'), 'and', [n('T1'), n('A'), n('B')]);
+    b.gate(n('U3'), 'and', [n('T2'), n('A'), n('BN')]);
+    b.gate(n('U4'), 'and', [n('T3'), n('C'), n('D')]);
+    b.gate(n('U5'), 'or', [n('Y'), n('T1'), n('T2'), n('T3')]);
+  }
+  return b.build();
+}
+
+describe('two-level-minimise: repeated blocks and batches', () => {
+  it('minimises the same block of every slice once, in one batch', async () => {
+    const m = createEspressoMinimiser({ size: 1 });
+    try {
+      const calls: number[] = [];
+      const counting: Minimiser = { name: 'counting', minimiseCover: (fn, o) => m.minimiseCover(fn, o), minimiseMany: (fns, o) => (calls.push(fns.length), m.minimiseMany(fns, o)) };
+      const r = await runRules(gateSlices(), extractLogic(gateSlices()), { rules: { [rule.id]: rule }, minimiser: counting });
+      expect(r.ruleErrors).toEqual([]);
+      expect(r.findings.map((f) => f.data.net)).toEqual(['S0_Y', 'S1_Y', 'S2_Y']);
+      expect(new Set(r.findings.map((f) => String(f.data.sop).replace(/S\d_/g, ''))).size).toBe(1);
+      expect(calls).toEqual([3]);
+      // Function and complement of the one distinct block: two PLAs sent for three slices.
+      expect(m.pool.sent).toBe(2);
+    } finally {
+      m.close();
+    }
+  });
+
+  it('records a minimiser failure against its block alone and reports the others', async () => {
+    const failing: Minimiser = {
+      name: 'failing-on-S1',
+      minimiseCover: (fn, o) => exactMinimiser.minimiseCover(fn, o),
+      minimiseMany: async (fns, o) =>
+        Promise.all(fns.map(async (fn) => (fn.outputs[0].name === 'S1_Y' ? { ok: false as const, error: new Error('stopped after 10 ms') } : { ok: true as const, result: await exactMinimiser.minimiseCover(fn, o) }))),
+    };
+    const r = await runRules(gateSlices(), extractLogic(gateSlices()), { rules: { [rule.id]: rule }, minimiser: failing });
+    expect(r.findings.map((f) => f.data.net)).toEqual(['S0_Y', 'S2_Y']);
+    expect(r.ruleErrors).toHaveLength(1);
+    expect(r.ruleErrors[0]).toMatchObject({ ruleId: rule.id, element: 'S1_Y' });
+    expect(r.ruleErrors[0].message).toMatch(/could not minimise the block driving S1_Y: stopped after 10 ms/);
+  });
+
+  it('gives the same findings with a minimiser that takes one function at a time', async () => {
+    const single: Minimiser = { name: 'one-by-one', minimiseCover: (fn, o) => exactMinimiser.minimiseCover(fn, o) };
+    const a = await runRules(gateSlices(), extractLogic(gateSlices()), { rules: { [rule.id]: rule }, minimiser: single });
+    const b = await runRules(gateSlices(), extractLogic(gateSlices()), { rules: { [rule.id]: rule } });
+    expect(a.findings.map((f) => [f.id, f.data])).toEqual(b.findings.map((f) => [f.id, f.data]));
+    expect(a.findings).toHaveLength(3);
   });
 });
 

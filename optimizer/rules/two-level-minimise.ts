@@ -4,11 +4,12 @@
 import { z } from 'zod';
 import { GROUND } from '../netlist/ir';
 import { editSavings } from '../cost/cost';
-import { and, support } from '../logic/expr';
+import { and, support, type Expr } from '../logic/expr';
 import type { MapFamily } from '../logic/family-parts';
 import { mapCover } from '../logic/map-family';
 import { coverToText } from '../logic/cubes';
-import { complementTable, fromExprs } from '../logic/truth-table';
+import { complementTable, fromNetwork, type TruthTable } from '../logic/truth-table';
+import { minimiseAll, type MinimiseOutcome, type MinimiseResult } from '../logic/minimiser';
 import { fanOut } from '../margins/line';
 import { worstOf } from '../margins/corners';
 import { emitNetwork, type EmitContext } from '../rewrite/emit-gates';
@@ -56,17 +57,35 @@ function emitContext(ctx: RuleContext, cone: Cone): EmitContext | undefined {
   };
 }
 
-/** Minimise and map one cone under a set of assumptions; undefined when it maps to a wire or constant. */
-async function resynthesise(ctx: RuleContext, cone: Cone, family: MapFamily, assumptions: Assumption[], timeoutMs: number) {
-  const table = fromExprs(cone.leaves, [{ name: cone.root.name, fn: cone.fn }], assumptions.length ? and(...assumptions.map((a) => a.expr)) : undefined);
-  // The function and its complement in one request (one round trip to the minimiser).
-  const both = { inputs: table.inputs, outputs: [table.outputs[0], { ...complementTable(table).outputs[0], name: `${cone.root.name}'` }] };
-  const r = await ctx.minimiser.minimiseCover(both, { timeoutMs });
-  const on = { cover: { inputs: r.cover.inputs, outputs: [r.cover.outputs[0]] } };
-  const off = { cover: { inputs: r.cover.inputs, outputs: [{ ...r.cover.outputs[1], name: cone.root.name }] } };
-  const network = mapCover(on.cover, family, { complement: off.cover });
+/** A block worth minimising, with the indices of its tables in the batch sent to the minimiser. */
+interface Candidate {
+  cone: Cone;
+  family: MapFamily;
+  cx: EmitContext;
+  usable: Assumption[];
+  plain: number;
+  assumed?: number;
+}
+
+/** Truth-table words the tables of one batch may hold (bounds memory on large designs). */
+const BATCH_WORDS = 1 << 20;
+
+/**
+ * The block's function and its complement as one two-output table (both minimised together),
+ * with the assumptions as don't-cares; evaluated gate by gate, so a deep chain never recurses.
+ */
+function coneTables(cone: Cone, steps: readonly { name: string; fn: Expr }[], assumptions: Assumption[]): TruthTable {
+  const table = fromNetwork(cone.leaves, steps, cone.root.name, assumptions.length ? and(...assumptions.map((a) => a.expr)) : undefined);
+  return { inputs: table.inputs, outputs: [table.outputs[0], { ...complementTable(table).outputs[0], name: `${cone.root.name}'` }] };
+}
+
+/** The family network of a minimised block; undefined when it maps to a wire or constant. */
+function mapped(root: string, r: MinimiseResult, family: MapFamily) {
+  const on = { inputs: r.cover.inputs, outputs: [r.cover.outputs[0]] };
+  const off = { inputs: r.cover.inputs, outputs: [{ ...r.cover.outputs[1], name: root }] };
+  const network = mapCover(on, family, { complement: off });
   if (network.outputs.some((o) => o.form === 'wire' || o.form === 'constant')) return undefined;
-  return { network, cover: on.cover };
+  return { network, cover: on };
 }
 
 export const twoLevelMinimise = defineRule({
@@ -86,7 +105,22 @@ export const twoLevelMinimise = defineRule({
     const view = ctx.view;
     const ports = new Set(nl.ports.map((p) => nl.nets[p].name));
     const readers = readersOf(view);
-    for (const cone of fanoutFreeCones(view, options.maxInputs, ports)) {
+    const failed = (cone: Cone, err: unknown) =>
+      ctx.reportError(cone.root.name, `could not minimise the block driving ${cone.root.name}: ${err instanceof Error ? err.message : String(err)}`);
+
+    // Blocks are gathered, then minimised in batches (one round trip to the minimiser per batch,
+    // each distinct function once), then mapped and reported in the order they were found.
+    let batch: Candidate[] = [];
+    let tables: TruthTable[] = [];
+    let words = 0;
+    const flush = async () => {
+      const outcomes = await minimiseAll(ctx.minimiser, tables, { timeoutMs: options.timeoutMs });
+      for (const c of batch) report(c, outcomes[c.plain], c.assumed === undefined ? undefined : outcomes[c.assumed]);
+      batch = [];
+      tables = [];
+      words = 0;
+    };
+    for (const cone of fanoutFreeCones(view, options.maxInputs, ports, readers)) {
       if (cone.leaves.length < 2) continue;
       const family = cone.root.family;
       if (!FAMILIES.includes(family) || cone.nodes.some((n) => n.family !== family)) continue;
@@ -94,38 +128,60 @@ export const twoLevelMinimise = defineRule({
       if (!cx) continue;
       const leafSet = new Set(cone.leaves);
       const usable = ctx.assumptions.filter((a) => [...support(a.expr)].every((x) => leafSet.has(x)));
+      let plain: TruthTable;
+      let assumed: TruthTable | undefined;
+      try {
+        const steps = [...cone.nodes].reverse();
+        plain = coneTables(cone, steps, []);
+        assumed = usable.length ? coneTables(cone, steps, usable) : undefined;
+      } catch (err) {
+        failed(cone, err);
+        continue;
+      }
+      batch.push({ cone, family, cx, usable, plain: tables.push(plain) - 1, ...(assumed ? { assumed: tables.push(assumed) - 1 } : {}) });
+      words += (assumed ? 8 : 4) * plain.outputs[0].on.length;
+      if (words >= BATCH_WORDS) await flush();
+    }
+    if (batch.length) await flush();
+
+    function report({ cone, family, cx, usable }: Candidate, plainOutcome: MinimiseOutcome, assumedOutcome: MinimiseOutcome | undefined): void {
       let plain;
       let assumed;
       try {
-        plain = await resynthesise(ctx, cone, family, [], options.timeoutMs);
-        assumed = usable.length ? await resynthesise(ctx, cone, family, usable, options.timeoutMs) : undefined;
-      } catch (err) {
         // A minimiser timeout or failure skips this block only; the scan records it.
-        ctx.reportError(cone.root.name, `could not minimise the block driving ${cone.root.name}: ${err instanceof Error ? err.message : String(err)}`);
-        continue;
+        if (!plainOutcome.ok) throw plainOutcome.error;
+        if (assumedOutcome && !assumedOutcome.ok) throw assumedOutcome.error;
+        plain = mapped(cone.root.name, plainOutcome.result, family);
+        assumed = assumedOutcome?.ok ? mapped(cone.root.name, assumedOutcome.result, family) : undefined;
+      } catch (err) {
+        failed(cone, err);
+        return;
       }
       // Rely on assumptions only when they buy something over the plain minimum.
       const pick = assumed && (!plain || assumed.network.parts.transistors + assumed.network.parts.resistors + assumed.network.parts.diodes <
         plain.network.parts.transistors + plain.network.parts.resistors + plain.network.parts.diodes) ? { ...assumed, relies: usable } : plain && { ...plain, relies: [] as Assumption[] };
-      if (!pick) continue;
+      if (!pick) return;
       let added;
       try {
         added = emitNetwork(pick.network, family, cx);
       } catch {
-        continue; // a family model the block lacks (e.g. no diode model): nothing to build with
+        return; // a family model the block lacks (e.g. no diode model): nothing to build with
       }
       const edit = { removeDevices: cone.devices.map((d) => nl.devices[d].name), addDevices: added, reconnect: [], mergeNets: [] };
       const savings = editSavings(nl, edit, family === 'gate' ? ctx.targetFamily : family);
       const discrete = savings.transistors + savings.resistors + savings.diodes;
-      if (discrete < 0 || (discrete === 0 && savings.gates <= 0)) continue;
+      if (discrete < 0 || (discrete === 0 && savings.gates <= 0)) return;
       const before = cone.devices.length;
       const after = added.length;
       // Fan-out of each leaf whose load count the rewrite raises (an overload it does not worsen is
       // not this rewrite's doing): readers outside the block plus the new gates that read it.
-      const coneNames = new Set(cone.nodes.map((n) => n.name));
+      // Readers inside are counted from the block's own nodes, so a leaf read by thousands of
+      // other blocks (a shared control line) costs nothing extra here.
+      const readsInside = new Map<string, number>();
+      for (const n of cone.nodes) for (const x of n.inputs) readsInside.set(x, (readsInside.get(x) ?? 0) + 1);
       const margins = cone.leaves.flatMap((leaf) => {
         const all = readers.get(leaf) ?? [];
-        const outside = all.filter((i) => !coneNames.has(view.nodes[i].name)).length;
+        const outside = all.length - (readsInside.get(leaf) ?? 0);
         const inside = pick.network.gates.filter((g) => g.inputs.includes(leaf)).length;
         return outside + inside > all.length ? [fanOut({ loads: outside + inside, family }, ctx.margins)] : [];
       });

@@ -168,3 +168,70 @@ describe('isolation of the native minimiser', () => {
     }
   });
 });
+
+describe('batches of functions', () => {
+  it('fails only the PLA that hangs, exits or errs, and answers the rest of the batch', async () => {
+    const pool = new EspressoPool({ size: 1, workerPath: fixture('picky-worker.cjs') });
+    try {
+      // The timeout also covers starting a fresh child, slow on a busy machine: keep it generous.
+      const answers = await pool.runEach(['a', 'b HANG', 'c', 'd EXIT', 'e', 'f THROW', 'g', 'h'], 1500);
+      expect(answers.slice(0, 1)).toEqual(['a']);
+      expect(answers[1]).toMatchObject({ reason: 'timeout' });
+      expect(answers[2]).toBe('c');
+      expect(answers[3]).toMatchObject({ reason: 'crashed' });
+      expect(answers[4]).toBe('e');
+      expect(answers[5]).toMatchObject({ reason: 'rejected' });
+      expect(String((answers[5] as Error).message)).toMatch(/bad row/);
+      expect(answers.slice(6)).toEqual(['g', 'h']);
+      // The runTexts form of the same batch fails as a whole, with the first failure.
+      await expect(pool.runTexts(['a', 'b THROW'], 1500)).rejects.toMatchObject({ reason: 'rejected' });
+      expect(pool.childCpuMicros).toBeGreaterThan(0);
+    } finally {
+      pool.close();
+    }
+  });
+
+  it('splits a batch between children and keeps the answers in order', async () => {
+    const pool = new EspressoPool({ size: 3, workerPath: fixture('picky-worker.cjs') });
+    try {
+      const texts = Array.from({ length: 20 }, (_, k) => `pla ${k}`);
+      expect(await pool.runEach(texts, 5000)).toEqual(texts);
+      expect(pool.spawned).toBe(3);
+      expect(await pool.runEach([], 5000)).toEqual([]);
+    } finally {
+      pool.close();
+    }
+    await expect(pool.runTexts(['a'])).rejects.toMatchObject({ reason: 'closed' });
+  });
+
+  it('sends each distinct function once, answers the others from it and fails bad functions alone', async () => {
+    const m = createEspressoMinimiser({ size: 1 });
+    try {
+      const f = fromMinterms(['a', 'b', 'c'], [{ name: 'F', on: [1, 3, 5, 7], dc: [6] }]);
+      const g = fromMinterms(['x', 'y', 'z'], [{ name: 'G', on: [1, 3, 5, 7], dc: [6] }, { name: 'H', on: [0, 1] }]);
+      const wide = { inputs: Array.from({ length: 17 }, (_, i) => `i${i}`), outputs: [{ name: 'W', on: new Uint32Array(4096).fill(1), dc: new Uint32Array(4096) }] };
+      const out = await m.minimiseMany([f, wide, g, f]);
+      expect(out.map((o) => o.ok)).toEqual([true, false, true, true]);
+      expect(out[1]).toMatchObject({ ok: false, error: { reason: 'rejected' } });
+      const covers = out.flatMap((o) => (o.ok ? [o.result] : []));
+      // F = c (the don't-care at 6 unused): Mano-style map reading, by hand.
+      expect(coverToText(covers[0].cover.outputs[0].cover, ['a', 'b', 'c'])).toBe('c');
+      expect(coverToText(covers[1].cover.outputs[0].cover, ['x', 'y', 'z'])).toBe('z');
+      expect(coverToText(covers[1].cover.outputs[1].cover, ['x', 'y', 'z'])).toBe("x'y'");
+      expect(covers[1].cover.inputs).toEqual(['x', 'y', 'z']);
+      expect(covers[1].cover.outputs.map((o) => o.name)).toEqual(['G', 'H']);
+      // F, G and the second F are one function: two PLAs in all (F and H), one round trip.
+      expect(m.pool.sent).toBe(2);
+      // Remembered by content: asking again sends nothing, and a caller changing a cover changes no later answer.
+      covers[0].cover.outputs[0].cover.push({ care: 0, value: 0 });
+      const again = await m.minimiseCover(g);
+      expect(coverToText(again.cover.outputs[0].cover, ['x', 'y', 'z'])).toBe('z');
+      expect(m.pool.sent).toBe(2);
+      m.clearCache();
+      await m.minimiseCover(g);
+      expect(m.pool.sent).toBe(4);
+    } finally {
+      m.close();
+    }
+  });
+});

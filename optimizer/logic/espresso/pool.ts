@@ -69,6 +69,8 @@ export class EspressoPool {
   private closed = false;
   /** Children started over the pool's life (tests read it to see restarts). */
   spawned = 0;
+  /** PLAs handed to children over the pool's life, retries included (tests read it to see de-duplication). */
+  sent = 0;
   /** Processor time (µs) the children have reported using, summed over the pool's life (benchmarks read it). */
   childCpuMicros = 0;
 
@@ -266,6 +268,7 @@ export class EspressoPool {
     slot.proc.ref();
     (slot.proc.channel as { ref?: () => void } | undefined)?.ref?.();
     this.arm(slot, job);
+    this.sent += job.items.length;
     slot.proc.send({ id: job.id, batch: job.items.map((k) => job.req.texts[k]) });
   }
 
