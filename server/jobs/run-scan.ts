@@ -1,21 +1,21 @@
-// Runs one scan: claims the row (queued, or running with a dead heartbeat), then parse → flatten →
-// extract → each rule (with its proofs, margins and savings) → store, writing stage and percent
-// as it goes and checking the cancel flag between stages. A heartbeat timer keeps the row fresh
-// while the worker lives; the sweeper (sweeper.ts) recovers scans whose worker died.
+// Runs one scan: claims the row (queued, or running with a dead heartbeat), then hands parse →
+// flatten → extract → each rule (with its proofs, margins and savings) to an engine thread
+// (engine-host.ts), and stores what it found. The main thread stays free while the engine works:
+// it writes each stage and percent the thread reports, keeps the heartbeat, and polls the cancel
+// flag, stopping the thread at once on cancel. The sweeper (sweeper.ts) recovers scans whose
+// worker died; a thread that crashes or runs out of memory fails its scan, not the worker.
 import { QueryTypes } from 'sequelize';
-import { flatten, InputError, readDesign } from '@/optimizer';
-import { extractLogic } from '@/optimizer/extract';
-import { parseExpr } from '@/optimizer/logic/expr-parse';
+import { InputError } from '@/optimizer/errors';
+import type { MapFamily } from '@/optimizer/logic/family-parts';
 import type { Minimiser } from '@/optimizer/logic/minimiser';
 import { RULES } from '@/optimizer/rules';
-import { overlapGraph, type RuleErrorRecord } from '@/optimizer/rules/run-rules';
-import { scan as scanRules, type ScannedFinding } from '@/optimizer/rules/scan';
-import type { Assumption as EngineAssumption } from '@/optimizer/rules/types';
 import type { Db } from '@/server/db';
 import type { Scan } from '@/server/db/models';
 import type { Mailer } from '@/server/mail/mailer';
 import { recordAudit } from '@/server/features/audit/service';
 import { notifyReviewers } from '@/server/features/review/mail';
+import { EnginePool, type EngineRun } from '@/server/jobs/engine-host';
+import type { EngineJob } from '@/server/jobs/engine-protocol';
 import { storeResults } from '@/server/jobs/store-results';
 
 export type RunScanDeps = {
@@ -28,6 +28,10 @@ export type RunScanDeps = {
   heartbeatMs?: number;
   heartbeatTimeoutS: number;
   maxAttempts: number;
+  /** How often the cancel flag is read while the engine runs (default 1000 ms). */
+  cancelPollMs?: number;
+  /** The worker's engine threads; without it the scan gets a thread of its own (4096 MB heap limit). */
+  engines?: EnginePool;
   log?: (msg: string, err: unknown) => void;
 };
 
@@ -35,8 +39,16 @@ export type RunOutcome = 'skipped' | 'done' | 'failed' | 'cancelled' | 'lost';
 
 class Cancelled extends Error {}
 class Lost extends Error {}
-
-const sleep = (ms: number) => new Promise((r) => setTimeout(r, ms));
+/** The engine thread failed; `quiet` for bad input, which is the design's fault, not the worker's. */
+class EngineFailed extends Error {
+  constructor(
+    message: string,
+    readonly quiet: boolean,
+    readonly detail?: unknown,
+  ) {
+    super(message);
+  }
+}
 
 async function claim(db: Db, scanId: string, workerId: string, timeoutS: number): Promise<Scan | null> {
   const rows = await db.sequelize.query<{ id: string }>(
@@ -60,28 +72,56 @@ export async function runScan(deps: RunScanDeps, scanId: string): Promise<RunOut
     return 'failed';
   }
   const mine = { id: scan.id, worker: workerId };
+  let timings: Record<string, number> = {};
+
+  // While the engine thread runs, every answer about the row can stop it: cancel requested, or the
+  // row no longer this worker's (swept and taken over). Once its outcome is in, the row's later
+  // changes (this worker's own store) are no reason to stop anything.
+  let engine: EngineRun | undefined;
+  let ownPool: EnginePool | undefined;
+  let stopReason: 'cancelled' | 'lost' | undefined;
+  const judge = (rows: { cancel_requested: boolean }[]) => {
+    if (!engine) return;
+    const why = !rows.length ? 'lost' : rows[0]!.cancel_requested ? 'cancelled' : undefined;
+    if (why && !stopReason) {
+      stopReason = why;
+      engine.stop();
+    }
+  };
+  const watch = (sql: string) => {
+    let busy = false;
+    return () => {
+      if (busy || !engine) return;
+      busy = true;
+      db.sequelize
+        .query<{ cancel_requested: boolean }>(sql, { replacements: mine, type: QueryTypes.SELECT })
+        .then(judge, (err: unknown) => log('scan row check failed', err))
+        .finally(() => (busy = false));
+    };
+  };
   const beat = setInterval(() => {
     db.sequelize
       .query(`UPDATE scans SET heartbeat_at = now() WHERE id = :id AND worker = :worker AND status = 'running'`, { replacements: mine })
       .catch((err: unknown) => log('heartbeat failed', err));
   }, deps.heartbeatMs ?? 5_000);
-  const timings: Record<string, number> = {};
+  const poll = setInterval(
+    watch(`SELECT cancel_requested FROM scans WHERE id = :id AND worker = :worker AND status = 'running'`),
+    deps.cancelPollMs ?? 1_000,
+  );
 
-  /** Writes stage and percent, checks cancel and ownership, then runs the step and times it. */
-  async function stage<T>(name: string, progress: number, step: () => T | Promise<T>): Promise<T> {
-    const rows = await db.sequelize.query<{ cancel_requested: boolean }>(
+  /** Writes stage and percent; the answer says whether the scan was cancelled or taken over. */
+  const stageRow = (name: string, progress: number) =>
+    db.sequelize.query<{ cancel_requested: boolean }>(
       `UPDATE scans SET stage = :stage, progress = :progress, heartbeat_at = now(), updated_at = now()
        WHERE id = :id AND worker = :worker AND status = 'running' RETURNING cancel_requested`,
       { replacements: { ...mine, stage: name, progress }, type: QueryTypes.SELECT },
     );
-    if (!rows.length) throw new Lost();
-    if (rows[0]!.cancel_requested) throw new Cancelled();
-    if (deps.stageDelayMs) await sleep(deps.stageDelayMs);
-    const t0 = performance.now();
-    const out = await step();
-    timings[name] = Math.round(performance.now() - t0);
-    return out;
-  }
+  // Stage writes go one after another so the percent shown never steps back.
+  let stageWrites: Promise<void> = Promise.resolve();
+  const onStage = (name: string, progress: number, done: Record<string, number>) => {
+    timings = done;
+    stageWrites = stageWrites.then(() => stageRow(name, progress).then(judge, (err: unknown) => log('stage update failed', err)));
+  };
 
   try {
     const design = await db.models.Design.findByPk(scan.designId);
@@ -91,37 +131,45 @@ export async function runScan(deps: RunScanDeps, scanId: string): Promise<RunOut
     const unknown = rules.filter((r) => !Object.prototype.hasOwnProperty.call(RULES, r));
     if (unknown.length) throw InputError.at('rules.unknown', `unknown rule id(s): ${unknown.join(', ')}`);
     const assumptionRows = await db.models.Assumption.findAll({ where: { designId: design.id, status: 'active' } });
-    const assumptions: EngineAssumption[] = assumptionRows.map((a) => ({ id: a.id, text: a.expression, expr: parseExpr(a.expression, `assumption ${a.id}`) }));
+    const job: EngineJob = {
+      source: rev.source,
+      fileName: rev.fileName,
+      format: rev.format,
+      rules,
+      assumptions: assumptionRows.map((a) => ({ id: a.id, text: a.expression })),
+      targetFamily: design.family as MapFamily,
+      clockPeriod: design.clockPeriodNs ? design.clockPeriodNs * 1e-9 : undefined,
+      minimiser: null,
+      stageDelayMs: deps.stageDelayMs ?? 0,
+    };
+    const engines = deps.engines ?? (ownPool = new EnginePool({ keep: 0, memoryMb: 4_096, minimiser: deps.minimiser }));
+    engine = engines.run(job, onStage);
+    const outcome = await engine.outcome;
+    await stageWrites;
+    if (stopReason === 'cancelled') throw new Cancelled();
+    if (stopReason === 'lost' || outcome.kind === 'stopped') throw new Lost();
+    if (outcome.kind === 'crashed') throw new EngineFailed(`The scan failed: ${outcome.message}.`, false, outcome.cause);
+    if (outcome.kind === 'error') timings = outcome.timings;
+    if (outcome.kind === 'error') throw new EngineFailed(outcome.error.message, outcome.error.input, outcome.error.stack ?? outcome.error.message);
+    const { result } = outcome;
+    timings = result.timings;
+    engine = undefined;
 
-    const parsed = await stage('parse', 5, () => readDesign(rev.source, { file: rev.fileName, format: rev.format }).design);
-    const flat = await stage('flatten', 10, () => flatten(parsed));
-    const view = await stage('extract', 20, () => extractLogic(flat));
-    const findings: ScannedFinding[] = [];
-    const ruleErrors: RuleErrorRecord[] = [];
-    for (const [k, ruleId] of rules.entries()) {
-      const r = await stage(`rule ${ruleId}`, 20 + Math.round((70 * k) / rules.length), () =>
-        scanRules(flat, {
-          view,
-          enabled: [ruleId],
-          assumptions,
-          minimiser: deps.minimiser,
-          targetFamily: design.family,
-          clockPeriod: design.clockPeriodNs ? design.clockPeriodNs * 1e-9 : undefined,
-        }),
-      );
-      findings.push(...r.findings);
-      ruleErrors.push(...r.ruleErrors);
-    }
-    const overlaps = overlapGraph(findings.map((f) => ({ ...f.finding, proposals: f.proposals.map((p) => p.proposal) })));
-    const stored = await stage('store', 95, () => storeResults(db, { scan, workerId, flat, findings, overlaps, ruleErrors, timings }));
-    if (stored === null) throw new Lost();
+    const rows = await stageRow('store', 95);
+    if (!rows.length) throw new Lost();
+    if (rows[0]!.cancel_requested) throw new Cancelled();
+    const t0 = performance.now();
+    const stored = await storeResults(db, { scan, workerId, flat: { devices: result.devices }, findings: result.findings, overlaps: result.overlaps, ruleErrors: result.ruleErrors, timings });
+    // A cancel that came in after the check above makes the store refuse; it is still a cancel.
+    if (stored === null) throw (await cancelRequested(db, scan.id)) ? new Cancelled() : new Lost();
+    timings.store = Math.round(performance.now() - t0);
     await db.sequelize.query('UPDATE scans SET timings = :timings WHERE id = :id', { replacements: { id: scan.id, timings: JSON.stringify(timings) } });
     await recordAudit(db, {
       teamId: design.teamId,
       actor: null,
       action: 'scan-finished',
       target: design.name,
-      details: { scanId: scan.id, revision: scan.revisionNumber, proposals: stored, ruleErrors: ruleErrors.length },
+      details: { scanId: scan.id, revision: scan.revisionNumber, proposals: stored, ruleErrors: result.ruleErrors.length },
     }).catch((err: unknown) => log('audit failed', err));
     if (stored > 0 && deps.mailer && deps.publicUrl) {
       await notifyReviewers(db, deps.mailer, { teamId: design.teamId, designId: design.id, designName: design.name, revision: scan.revisionNumber, count: stored, startedBy: scan.startedBy, publicUrl: deps.publicUrl }, log);
@@ -137,7 +185,9 @@ export async function runScan(deps: RunScanDeps, scanId: string): Promise<RunOut
       return 'cancelled';
     }
     // Engine errors are deterministic: running again would fail the same way, so the scan fails now.
-    if (!(err instanceof InputError)) log(`scan ${scan.id} failed`, err);
+    if (err instanceof EngineFailed) {
+      if (!err.quiet) log(`scan ${scan.id} failed`, err.detail ?? err);
+    } else if (!(err instanceof InputError)) log(`scan ${scan.id} failed`, err);
     const message = err instanceof Error ? err.message : String(err);
     await db.sequelize.query(
       `UPDATE scans SET status = 'failed', stage = 'failed', finished_at = now(), error = :error, timings = :timings, updated_at = now() WHERE id = :id AND worker = :worker AND status = 'running'`,
@@ -146,5 +196,13 @@ export async function runScan(deps: RunScanDeps, scanId: string): Promise<RunOut
     return 'failed';
   } finally {
     clearInterval(beat);
+    clearInterval(poll);
+    engine?.stop();
+    ownPool?.close();
   }
+}
+
+async function cancelRequested(db: Db, id: string): Promise<boolean> {
+  const rows = await db.sequelize.query<{ cancel_requested: boolean }>(`SELECT cancel_requested FROM scans WHERE id = :id`, { replacements: { id }, type: QueryTypes.SELECT });
+  return rows[0]?.cancel_requested ?? false;
 }

@@ -18,7 +18,8 @@ const VERDICT = { proved: 'proved', refuted: 'refuted', unproved: 'unverified' }
 export type StoreInput = {
   scan: Scan;
   workerId: string;
-  flat: FlatNetlist;
+  /** The scanned design's devices; only their names and paths are read (to file proposals onto boards). */
+  flat: { devices: readonly Pick<FlatNetlist['devices'][number], 'name' | 'path'>[] };
   findings: ScannedFinding[];
   overlaps: OverlapGraph;
   ruleErrors: RuleErrorRecord[];

@@ -1,7 +1,7 @@
 // The scan worker: a separate process (`tsx server/jobs/worker.ts`, started by scripts/start.sh;
 // several may run, on any machine that reaches DATABASE_URL). It takes scan jobs from pg-boss, runs
-// the engine with its own Espresso process pool, sweeps scans whose worker died, and shuts down
-// cleanly on SIGTERM/SIGINT. startWorker() runs the same loop in-process for tests and the seed.
+// each scan's engine work in a worker thread of its own (run-scan.ts) with minimise calls served by
+// this process's Espresso pool, sweeps scans whose worker died, and shuts down cleanly on SIGTERM/SIGINT. startWorker() runs the same loop in-process for tests and the seed.
 import os from 'node:os';
 import crypto from 'node:crypto';
 import type PgBoss from 'pg-boss';
@@ -11,6 +11,7 @@ import { loadEnv, EnvError } from '@/server/env';
 import { exitOnSignals } from '@/server/shutdown';
 import { createSmtpMailer, type Mailer } from '@/server/mail/mailer';
 import { ensureScanQueue, newBoss, scanQueueName, sendScan } from '@/server/jobs/queue';
+import { EnginePool } from '@/server/jobs/engine-host';
 import { runScan, type RunOutcome } from '@/server/jobs/run-scan';
 import { loadScanSettings, type ScanSettings } from '@/server/jobs/settings';
 import { sweepStaleScans } from '@/server/jobs/sweeper';
@@ -21,6 +22,8 @@ export type WorkerOptions = {
   mailFrom?: string;
   publicUrl?: string;
   settings?: Partial<ScanSettings>;
+  /** Another engine thread entry (tests only: one that misbehaves on purpose). */
+  engineEntry?: string;
   /** Called after every job (tests wait on it). */
   onOutcome?: (scanId: string, outcome: RunOutcome) => void;
   log?: (msg: string, err: unknown) => void;
@@ -35,6 +38,7 @@ export async function startWorker(opts: WorkerOptions): Promise<RunningWorker> {
   const db = createDb(opts.databaseUrl);
   const boss: PgBoss = newBoss({ databaseUrl: opts.databaseUrl, max: 2 + settings.concurrency, supervise: true, log });
   const minimiser: EspressoMinimiser = createEspressoMinimiser({ size: 1 });
+  const engines = new EnginePool({ keep: settings.concurrency, memoryMb: settings.threadMemoryMb, minimiser, entry: opts.engineEntry });
   const mailer: Mailer | undefined = opts.smtpUrl ? createSmtpMailer(opts.smtpUrl, opts.mailFrom ?? 'Trimwire <no-reply@trimwire.test>') : undefined;
   await boss.start();
   await ensureScanQueue(boss);
@@ -48,7 +52,8 @@ export async function startWorker(opts: WorkerOptions): Promise<RunningWorker> {
       const scanId = job.data?.scanId;
       if (typeof scanId !== 'string') return;
       const outcome = await runScan(
-        { db, workerId: id, minimiser, mailer, publicUrl: opts.publicUrl, stageDelayMs: settings.stageDelayMs, heartbeatMs: settings.heartbeatMs, heartbeatTimeoutS: settings.heartbeatTimeoutS, maxAttempts: settings.maxAttempts, log },
+        { db, workerId: id, minimiser, mailer, publicUrl: opts.publicUrl, stageDelayMs: settings.stageDelayMs, heartbeatMs: settings.heartbeatMs, heartbeatTimeoutS: settings.heartbeatTimeoutS, maxAttempts: settings.maxAttempts,
+          cancelPollMs: settings.cancelPollMs, engines, log },
         scanId,
       );
       opts.onOutcome?.(scanId, outcome);
@@ -66,6 +71,7 @@ export async function startWorker(opts: WorkerOptions): Promise<RunningWorker> {
       (stopping ??= (async () => {
         clearInterval(sweeper);
         await boss.stop({ graceful: true, wait: true, timeout: 10_000 }).catch((err: unknown) => log('queue stop failed', err));
+        engines.close();
         minimiser.close();
         mailer?.close();
         await db.close();
