@@ -56,21 +56,36 @@ export function fanoutFreeCones(
     }
   });
   // How many times each device is listed by any node (a device two nodes list is shared).
-  const deviceOwners = new Map<number, number>();
-  for (const n of nodes) for (const d of n.devices) deviceOwners.set(d, (deviceOwners.get(d) ?? 0) + 1);
+  let maxDevice = -1;
+  for (const n of nodes) for (const d of n.devices) if (d > maxDevice) maxDevice = d;
+  const owners = new Int32Array(maxDevice + 1);
+  for (const n of nodes) for (const d of n.devices) owners[d]++;
+  // Per cone: how many of its nodes list each device (`stamp` marks a node's devices counted once).
+  const inCone = new Int32Array(maxDevice + 1);
+  const stamp = new Int32Array(maxDevice + 1).fill(-1);
 
   const cones: Cone[] = [];
+  let mark = 0;
   nodes.forEach((top, i) => {
     if (!combinational(top) || !root[i]) return;
     const walked = coneFrom(i, nodes, byName, root, maxLeaves);
     if (!walked) return;
-    // A device is the cone's to remove only if every node listing it is inside the cone.
-    const inCone = new Map<number, number>();
+    const devices: number[] = [];
     for (const n of walked.nodes) {
-      for (const d of n.devices.length > 1 ? new Set(n.devices) : n.devices) inCone.set(d, (inCone.get(d) ?? 0) + 1);
+      mark++;
+      for (const d of n.devices) {
+        if (stamp[d] === mark) continue;
+        stamp[d] = mark;
+        if (inCone[d]++ === 0) devices.push(d);
+      }
     }
-    for (const [d, k] of inCone) if (deviceOwners.get(d) !== k) return;
-    cones.push(makeCone(top, walked.nodes, [...walked.leaves].sort(), [...inCone.keys()]));
+    // A device is the cone's to remove only if every node listing it is inside the cone.
+    let own = true;
+    for (const d of devices) {
+      if (inCone[d] !== owners[d]) own = false;
+      inCone[d] = 0;
+    }
+    if (own) cones.push(makeCone(top, walked.nodes, [...walked.leaves].sort(), devices));
   });
   return cones;
 }
