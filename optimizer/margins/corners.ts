@@ -54,8 +54,19 @@ export interface CornerPoint<R extends string> {
   supplySign: Sign;
 }
 
-/** Every corner for a nominal supply and resistor roles. */
+/**
+ * Corner tables by content (supply, tolerances, roles): every check asks for the same few tables
+ * over and over while a scan sizes shared drivers, so each is built once. Frozen, since callers
+ * share them; bounded so a long-running server cannot grow it without end.
+ */
+const cornerTables = new Map<string, readonly CornerPoint<string>[]>();
+const CORNER_TABLES_MAX = 4096;
+
+/** Every corner for a nominal supply and resistor roles (a shared, frozen table). */
 export function corners<R extends string>(vcc: number, roles: readonly R[], s: MarginSettings): CornerPoint<R>[] {
+  const key = `${vcc}|${s.supplyTolerance}|${s.resistorTolerance}|${roles.join('|')}`;
+  const hit = cornerTables.get(key);
+  if (hit) return hit as CornerPoint<R>[];
   const out: CornerPoint<R>[] = [];
   for (const supplySign of [-1, 0, 1] as Sign[]) {
     for (let mask = 0; mask < 2 ** roles.length; mask++) {
@@ -66,9 +77,11 @@ export function corners<R extends string>(vcc: number, roles: readonly R[], s: M
         signs[role] = sign;
         r[role] = 1 + sign * s.resistorTolerance;
       });
-      out.push({ supply: vcc * (1 + supplySign * s.supplyTolerance), r, signs, supplySign });
+      out.push(Object.freeze({ supply: vcc * (1 + supplySign * s.supplyTolerance), r: Object.freeze(r), signs: Object.freeze(signs), supplySign }));
     }
   }
+  if (cornerTables.size >= CORNER_TABLES_MAX) cornerTables.clear();
+  cornerTables.set(key, Object.freeze(out) as readonly CornerPoint<string>[]);
   return out;
 }
 
@@ -94,7 +107,8 @@ export function worstCorner<R extends string>(
 ): { point: CornerPoint<R>; value: number } {
   let best = points[0];
   let bestValue = value(best);
-  for (const p of points.slice(1)) {
+  for (let i = 1; i < points.length; i++) {
+    const p = points[i];
     const v = value(p);
     if (worse === 'high' ? v > bestValue : v < bestValue) {
       best = p;

@@ -2,7 +2,7 @@
 // statuses follow the stated limits.
 import { describe, expect, it } from 'vitest';
 import { diodeSteeredLowLevel, forcedBeta, loadBaseCurrent, loadedHighLevel, loadedHighLevelAt, sinkCurrent, stackedLowLevel } from './bipolar';
-import { formatCorner, worstOf } from './corners';
+import { corners, formatCorner, worstOf } from './corners';
 import { betaMinOf, DEFAULT_MARGIN_SETTINGS as S, marginSettings } from './defaults';
 import { fanOut, riseTime, staticPower } from './line';
 
@@ -110,5 +110,21 @@ describe('settings and helpers', () => {
     const worst = worstOf([fanOut({ loads: 2, family: 'rtl' }, s), fanOut({ loads: 4, family: 'rtl' }, s)]);
     expect(worst?.status).toBe('fail');
     expect(formatCorner({ supply: 4.75, resistors: 'R_C +5 %', beta: 50 })).toBe('V_CC 4.75 V, R_C +5 %, β 50');
+  });
+});
+
+describe('corner tables', () => {
+  it('lists supply −/0/+ tolerance by every resistor sign, built once per content and read-only', () => {
+    const t = corners(5, ['R_C', 'R_B'] as const, S);
+    expect(t).toHaveLength(12);
+    expect(t.map((p) => p.supply)).toEqual([4.75, 4.75, 4.75, 4.75, 5, 5, 5, 5, 5.25, 5.25, 5.25, 5.25].map((x) => expect.closeTo(x, 12)));
+    expect(t[1]).toMatchObject({ r: { R_C: 1.05, R_B: 0.95 }, signs: { R_C: 1, R_B: -1 }, supplySign: -1 });
+    expect(corners(5, ['R_C', 'R_B'] as const, S)).toBe(t);
+    expect(Object.isFrozen(t) && Object.isFrozen(t[0].r)).toBe(true);
+    // other content, other table
+    const wide = corners(5, ['R_C', 'R_B'] as const, marginSettings({ resistorTolerance: 0.1 }));
+    expect(wide).not.toBe(t);
+    expect(wide[1].r).toEqual({ R_C: 1.1, R_B: 0.9 });
+    expect(corners(3.6, ['R_C', 'R_B'] as const, S)[0].supply).toBeCloseTo(3.42, 12);
   });
 });

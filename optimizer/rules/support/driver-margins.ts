@@ -60,6 +60,30 @@ export function sharedDriverMargins(nl: FlatNetlist, driver: LogicNode, loads: D
   return out;
 }
 
+/**
+ * Everything sharedDriverMargins reads of one driver and its loads, as text: two members with the
+ * same signature give the same margins in the same place of a shared driver's load list, so a
+ * part's margins can be keyed on its members' signatures (and identical members found).
+ */
+export function driverSignature(nl: FlatNetlist, driver: LogicNode, loads: DriverLoads, s: MarginSettings): string {
+  const drive = baseDriveOf(nl, driver, s);
+  return JSON.stringify(
+    [
+      driver.family,
+      driver.pullUp?.kind,
+      driver.pullUp?.ohms,
+      driver.pullUp?.railVolts,
+      drive ? [drive.ohms, drive.volts, betaMinOfDevice(nl, drive.transistor, s)] : undefined,
+      loads.total,
+      loads.direct,
+      loads.resistorBases.map((l) => [l.ohms, l.collectorPullUp, betaMinOfDevice(nl, l.transistor, s)]),
+      loads.diodeInputs.map((d) => d.pullUpOhms),
+    ],
+    // Numbers as their own text (NaN and Infinity stay distinct), absent values marked as such.
+    (_k, v: unknown) => (typeof v === 'number' ? String(v) : v === undefined ? '-' : v),
+  );
+}
+
 /** One load on a line: a base resistor (RTL) with what that base must saturate, or a plain input. */
 export interface LineLoad {
   device: number;

@@ -38,6 +38,9 @@ export interface Load {
   owner: number;
 }
 
+/** Indexes of frozen designs, so every rule of one scan shares one (a frozen design cannot change). */
+const shared = new WeakMap<object, WeakMap<object, NetIndex>>();
+
 export class NetIndex {
   /** First node owning each device (−1: none). */
   readonly ownerOf: Int32Array;
@@ -46,8 +49,26 @@ export class NetIndex {
   private readonly offsets: Int32Array;
   private readonly termDev: Int32Array;
   private readonly termIdx: Int8Array;
+  /** First bipolar transistor (in terminal order) whose base is on each net (−1: none). */
+  private readonly baseOn: Int32Array;
+  /** Resistor pull-up ohms found on a net (null: none), asked per collector or diode node. */
+  private readonly pullUpOhms = new Map<number, number | null>();
+  private readonly cx: ExtractContext;
   readonly ports: Set<number>;
   readonly railNets: Set<number>;
+
+  /**
+   * The index of a design, shared by every caller while the netlist and view are frozen (as a
+   * scan freezes them); a fresh one otherwise, since an unfrozen design may still change.
+   */
+  static of(nl: Readonly<FlatNetlist>, view: Readonly<LogicView>): NetIndex {
+    if (!Object.isFrozen(nl) || !Object.isFrozen(view) || !Object.isFrozen(nl.devices) || !Object.isFrozen(view.nodes)) return new NetIndex(nl, view);
+    let byView = shared.get(nl);
+    if (!byView) shared.set(nl, (byView = new WeakMap()));
+    let idx = byView.get(view);
+    if (!idx) byView.set(view, (idx = new NetIndex(nl, view)));
+    return idx;
+  }
 
   constructor(
     readonly nl: Readonly<FlatNetlist>,
@@ -62,21 +83,23 @@ export class NetIndex {
         if (this.ownerCount[d] < 255) this.ownerCount[d]++;
       }
     });
+    // The extraction context's terminal index is the same per-net layout (devices in order, then
+    // terminals in order), so it is built once and shared.
+    this.cx = makeContext(nl as FlatNetlist);
+    this.offsets = this.cx.offsets;
+    this.termDev = this.cx.termDev;
+    this.termIdx = this.cx.termIdx;
     const nNets = nl.nets.length;
-    const counts = new Int32Array(nNets + 1);
-    for (const d of nl.devices) for (const t of d.terminals) counts[t + 1]++;
-    for (let i = 0; i < nNets; i++) counts[i + 1] += counts[i];
-    this.offsets = counts.slice();
-    const fill = counts.slice(0, nNets);
-    this.termDev = new Int32Array(this.offsets[nNets]);
-    this.termIdx = new Int8Array(this.offsets[nNets]);
-    nl.devices.forEach((d, di) =>
-      d.terminals.forEach((t, ti) => {
-        const at = fill[t]++;
-        this.termDev[at] = di;
-        this.termIdx[at] = ti;
-      }),
-    );
+    this.baseOn = new Int32Array(nNets).fill(-1);
+    for (let net = 0; net < nNets; net++) {
+      for (let i = this.offsets[net]; i < this.offsets[net + 1]; i++) {
+        const k = nl.devices[this.termDev[i]].kind;
+        if ((k === 'npn' || k === 'pnp') && this.termIdx[i] === 1) {
+          this.baseOn[net] = this.termDev[i];
+          break;
+        }
+      }
+    }
     this.ports = new Set(nl.ports);
     this.railNets = new Set(nl.rails.map((r) => r.net));
   }
@@ -88,6 +111,19 @@ export class NetIndex {
   nodeOfNet(net: number): LogicNode | undefined {
     const i = this.view.nodeByNet.get(net);
     return i === undefined ? undefined : this.view.nodes[i];
+  }
+
+  /** Terminals on a net: entries from .. to − 1 of termDevice / termIndex (no allocation). */
+  termRange(net: number): { from: number; to: number } {
+    return { from: this.offsets[net], to: this.offsets[net + 1] };
+  }
+
+  termDevice(at: number): number {
+    return this.termDev[at];
+  }
+
+  termIndex(at: number): number {
+    return this.termIdx[at];
   }
 
   terminals(net: number): { device: number; terminal: number }[] {
@@ -132,28 +168,28 @@ export class NetIndex {
     return node.devices.every((d) => this.ownerCount[d] === 1);
   }
 
-  private cxCache?: ExtractContext;
-  private get cx(): ExtractContext {
-    return (this.cxCache ??= makeContext(this.nl as FlatNetlist));
+  private baseTransistor(net: number): number {
+    return this.baseOn[net];
   }
 
-  private baseTransistor(net: number): number {
-    for (const { device, terminal } of this.terminals(net)) {
-      const k = this.nl.devices[device].kind;
-      if ((k === 'npn' || k === 'pnp') && terminal === 1) return device;
-    }
-    return -1;
+  /** Ohms of the first resistor pull-up on a net, looked up once per net. */
+  private firstPullUpOhms(net: number): number | undefined {
+    let ohms = this.pullUpOhms.get(net);
+    if (ohms === undefined) this.pullUpOhms.set(net, (ohms = resistorPullUps(this.cx, net)[0]?.ohms ?? null));
+    return ohms ?? undefined;
   }
 
   private collectorPullUp(transistor: number): number | undefined {
     const col = this.nl.devices[transistor].terminals[0];
-    return this.nodeOfNet(col)?.pullUp?.ohms ?? resistorPullUps(this.cx, col)[0]?.ohms;
+    return this.nodeOfNet(col)?.pullUp?.ohms ?? this.firstPullUpOhms(col);
   }
 
   /** Every terminal on the net by load kind, for a shared driver's margins. */
   driverLoads(net: number): DriverLoads {
     const out: DriverLoads = { resistorBases: [], diodeInputs: [], direct: 0, total: 0 };
-    for (const { device: d, terminal: t } of this.terminals(net)) {
+    for (let i = this.offsets[net], end = this.offsets[net + 1]; i < end; i++) {
+      const d = this.termDev[i];
+      const t = this.termIdx[i];
       const dev = this.nl.devices[d];
       if (dev.kind === 'resistor') {
         const far = otherEnd(this.cx, d, t);
@@ -164,8 +200,8 @@ export class NetIndex {
           out.resistorBases.push({ resistor: d, ohms: dev.value, transistor: q, ...(pull !== undefined ? { collectorPullUp: pull } : {}) });
         }
       } else if (dev.kind === 'diode' && t === 1) {
-        const pulls = resistorPullUps(this.cx, dev.terminals[0]);
-        if (pulls.length && pulls[0].ohms !== undefined) out.diodeInputs.push({ diode: d, pullUpOhms: pulls[0].ohms });
+        const ohms = this.firstPullUpOhms(dev.terminals[0]);
+        if (ohms !== undefined) out.diodeInputs.push({ diode: d, pullUpOhms: ohms });
       } else if ((dev.kind === 'npn' || dev.kind === 'pnp' || dev.kind === 'nmos' || dev.kind === 'pmos') && t === 1) out.direct++;
       else if (dev.kind === 'gate' && t >= 1 && dev.op !== 'pullup' && dev.op !== 'pulldown') out.direct++;
     }
