@@ -30,7 +30,7 @@ export type RunScanDeps = {
   maxAttempts: number;
   /** How often the cancel flag is read while the engine runs (default 1000 ms). */
   cancelPollMs?: number;
-  /** The worker's engine threads; without it the scan gets a thread of its own (4096 MB heap limit). */
+  /** The worker's engine threads; without it, scans share one kept thread per minimiser (the seed's case). */
   engines?: EnginePool;
   log?: (msg: string, err: unknown) => void;
 };
@@ -48,6 +48,20 @@ class EngineFailed extends Error {
   ) {
     super(message);
   }
+}
+
+/**
+ * Engine threads for callers without a worker's pool (the demo seed runs its scans one after the
+ * other): one kept thread per minimiser, so the engine loads once rather than once per scan. The
+ * idle thread does not keep the process alive.
+ */
+const sharedEngines = new WeakMap<Minimiser | typeof NO_MINIMISER, EnginePool>();
+const NO_MINIMISER = {};
+function defaultEngines(minimiser: Minimiser | undefined): EnginePool {
+  const key = minimiser ?? NO_MINIMISER;
+  let pool = sharedEngines.get(key);
+  if (!pool) sharedEngines.set(key, (pool = new EnginePool({ keep: 1, memoryMb: 4_096, minimiser })));
+  return pool;
 }
 
 async function claim(db: Db, scanId: string, workerId: string, timeoutS: number): Promise<Scan | null> {
@@ -78,7 +92,6 @@ export async function runScan(deps: RunScanDeps, scanId: string): Promise<RunOut
   // row no longer this worker's (swept and taken over). Once its outcome is in, the row's later
   // changes (this worker's own store) are no reason to stop anything.
   let engine: EngineRun | undefined;
-  let ownPool: EnginePool | undefined;
   let stopReason: 'cancelled' | 'lost' | undefined;
   const judge = (rows: { cancel_requested: boolean }[]) => {
     if (!engine) return;
@@ -142,7 +155,7 @@ export async function runScan(deps: RunScanDeps, scanId: string): Promise<RunOut
       minimiser: null,
       stageDelayMs: deps.stageDelayMs ?? 0,
     };
-    const engines = deps.engines ?? (ownPool = new EnginePool({ keep: 0, memoryMb: 4_096, minimiser: deps.minimiser }));
+    const engines = deps.engines ?? defaultEngines(deps.minimiser);
     engine = engines.run(job, onStage);
     const outcome = await engine.outcome;
     await stageWrites;
@@ -198,7 +211,6 @@ export async function runScan(deps: RunScanDeps, scanId: string): Promise<RunOut
     clearInterval(beat);
     clearInterval(poll);
     engine?.stop();
-    ownPool?.close();
   }
 }
 
