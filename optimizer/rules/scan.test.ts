@@ -8,7 +8,8 @@ import { parseExpr } from '../logic/expr-parse';
 import { fanOut } from '../margins/line';
 import { NetlistBuilder } from '../netlist/build';
 import { defineRule } from './define-rule';
-import { scan } from './scan';
+import { checkEquivalence } from '../verify/equivalence';
+import { scan, verifyProposal, type Verifier } from './scan';
 import { scanOne } from './support/rule-test-kit';
 import { sliceInverters } from './test-helpers';
 import { tristateSlim } from './tristate-slim';
@@ -155,6 +156,86 @@ describe('scan', () => {
       const v = s.findings[0].proposals[0].verification;
       expect(v.status).toBe('refuted');
       expect([v.counterexample!.EN0, v.counterexample!.EN1]).toEqual([1, 1]);
+    });
+  });
+
+  describe('proofs are shared between slices whose regions are the same circuit', () => {
+    /** Test double: one proposal per slice, either a like-for-like base resistor or a wrong input. */
+    const perSlice = defineRule({
+      id: 'test-per-slice',
+      meta: {
+        description: 'one edit in every slice',
+        messages: { m: 'slice {path}' },
+        optionsSchema: z.object({ wrongInput: z.boolean() }),
+        defaultOptions: { wrongInput: false },
+      },
+      find(ctx, options) {
+        for (const q of ctx.netlist.devices.filter((d) => d.kind === 'npn')) {
+          const p = q.path.join('.');
+          const edit = emptyEdit();
+          if (options.wrongInput) edit.reconnect.push({ device: `${p}.RB`, terminal: 0, net: 'CLR' });
+          else {
+            edit.removeDevices.push(`${p}.RB`);
+            edit.addDevices.push({ name: `${p}.RB2`, kind: 'resistor', terminals: ['LOAD', `${p}.B`], value: 4700, path: q.path });
+          }
+          ctx.report({ messageId: 'm', data: { path: p }, location: { devices: [q.name] }, proposals: [{ title: 'edit', edit }] });
+        }
+      },
+    });
+    const counting = () => {
+      const calls = { n: 0 };
+      const verifier: Verifier = (before, after, assumptions) => {
+        calls.n++;
+        return checkEquivalence(before, after, { assumptions: assumptions.map((a) => ({ name: a.id, expr: a.expr })) });
+      };
+      return { calls, verifier };
+    };
+
+    it('proves the first slice and reuses the verdict, each in its own slice\'s names', async () => {
+      const nl = sliceInverters(6);
+      const { calls, verifier } = counting();
+      const r = await scan(nl, { rules: { [perSlice.id]: perSlice }, verifier });
+      expect(r.findings).toHaveLength(6);
+      expect(calls.n).toBe(1);
+      r.findings.forEach((f, k) => {
+        const v = f.proposals[0].verification;
+        expect(v.status).toBe('proved');
+        expect(v.compared).toContain(`XS${k}.LDN`);
+        // the same verdict a proof of its own gives (uncached)
+        expect(v).toEqual(verifyProposal({ nl, view: r.view }, f.proposals[0].proposal, [], verifier));
+      });
+      expect(calls.n).toBe(7);
+    });
+
+    it('maps a cached counterexample to each slice and re-simulates it there', async () => {
+      const nl = sliceInverters(5);
+      const { calls, verifier } = counting();
+      const r = await scan(nl, { rules: { [perSlice.id]: perSlice }, ruleOptions: { [perSlice.id]: { wrongInput: true } }, verifier });
+      expect(calls.n).toBe(1);
+      r.findings.forEach((f, k) => {
+        const v = f.proposals[0].verification;
+        expect(v.status).toBe('refuted');
+        expect(v.differing?.map((d) => d.name)).toEqual([`XS${k}.LDN`]);
+        expect(v.counterexample!.LOAD).not.toBe(v.counterexample!.CLR);
+        expect(v).toEqual(verifyProposal({ nl, view: r.view }, f.proposals[0].proposal, [], verifier));
+      });
+    });
+
+    it('proves again where one slice differs (a different collector resistor)', async () => {
+      const b = new NetlistBuilder('Wren-8 load strobe inverters, one slice rebuilt');
+      b.rail('VCC', 5);
+      b.model('QN', 'npn', { IS: 1e-14, BF: 100 });
+      for (let k = 0; k < 4; k++) {
+        b.within([`XS${k}`], () => {
+          b.resistor('RC', 'VCC', 'LDN', k === 2 ? 2200 : 1000);
+          b.resistor('RB', '/LOAD', 'B', 4700);
+          b.npn('Q1', 'LDN', 'B', '0', { model: 'QN' });
+        });
+      }
+      const { calls, verifier } = counting();
+      const r = await scan(b.build(), { rules: { [perSlice.id]: perSlice }, verifier });
+      expect(r.findings.map((f) => f.proposals[0].verification.status)).toEqual(['proved', 'proved', 'proved', 'proved']);
+      expect(calls.n).toBe(2);
     });
   });
 });

@@ -3,12 +3,13 @@
 // savings, and give a verdict: ready, failing-margins, refuted (or unproved when no proof ran).
 import { extractLogic } from '../extract';
 import type { LogicView } from '../extract/types';
-import { combinationalModel, ENABLE_SUFFIX } from '../extract/compose';
-import { and, v, type Expr } from '../logic/expr';
+import { combinationalModel, ENABLE_SUFFIX, NEXT_SUFFIX } from '../extract/compose';
+import { and, evaluate, v, type Expr } from '../logic/expr';
 import { editSavings, type Savings } from '../cost/cost';
 import { DEFAULT_PARTS_TABLE, type PartsTable } from '../cost/parts-table';
 import type { MarginResult } from '../margins/corners';
 import type { FlatNetlist } from '../netlist/ir';
+import { positions, proofKey, type ProofKey } from '../region/proof-key';
 import { applyProposals } from '../rewrite/apply';
 import { checkEquivalence, type EquivResult } from '../verify/equivalence';
 import { indexOf, regionOf } from './region';
@@ -108,25 +109,26 @@ function changedNets(nl: FlatNetlist, view: LogicView, p: Proposal): string[] {
   return [...names].filter((n) => !rails.has(n)).sort();
 }
 
-/**
- * Equivalence of the changed nets, each as a function of the primary inputs and state bits.
- * A net the rewrite leaves undriven and unread (an internal node of removed parts) is skipped;
- * one that stays read but loses its driver is compared as a free variable, which refutes.
- */
-export function verifyProposal(
-  before: { nl: FlatNetlist; view: LogicView },
-  p: Proposal,
-  assumptions: Assumption[],
-  verifier: Verifier = defaultVerifier,
-  simulateUpTo = 20_000,
-): Verification {
-  const changed = changedNets(before.nl, before.view, p);
-  // Work on the changed nets' fan-in cut out of the design, so a proof costs the region's size.
-  const seeds = changed.filter((n) => before.view.nodeByNet.has(before.nl.netByName.get(n) ?? -1));
-  const nl = regionOf(before.nl, before.view, seeds, p.edit);
-  const view = nl === before.nl ? before.view : extractLogic(nl);
-  before = { nl, view };
-  const after = applyProposals(nl, [p]);
+const NOTHING_DRIVEN = 'the rewrite changes no driven net the extractor can see';
+
+/** A proof already run in this scan, reusable by any proposal whose region has the same key. */
+interface CachedProof {
+  key: ProofKey;
+  at?: Map<string, number>;
+  verification: Verification;
+  /** Positions, in the proposal's assumption list, of the assumptions the verdict names. */
+  assumptionAt: number[];
+}
+
+/** Proofs of one scan by canonical region key (see region/proof-key): slices repeat regions. */
+export type ProofCache = Map<string, CachedProof>;
+
+/** The functions a proof compares, or the verdict when there is nothing to compare. */
+type Problem =
+  | { done: Verification }
+  | { done?: undefined; compared: string[]; beforeFns: Record<string, Expr>; afterFns: Record<string, Expr>; inputs: string[] };
+
+function problemOf(nl: FlatNetlist, view: LogicView, after: FlatNetlist, changed: string[], used: Assumption[]): Problem {
   const afterView = extractLogic(after);
   const driven = (view: LogicView, nl: FlatNetlist, name: string) => {
     const id = nl.netByName.get(name);
@@ -134,20 +136,19 @@ export function verifyProposal(
   };
   const readAfter = new Set(afterView.nodes.flatMap((n) => n.inputs));
   const compared = changed.filter(
-    (n) => driven(before.view, before.nl, n) && (driven(afterView, after, n) || readAfter.has(after.nets[after.netByName.get(n) ?? 0]?.name)),
+    (n) => driven(view, nl, n) && (driven(afterView, after, n) || readAfter.has(after.nets[after.netByName.get(n) ?? 0]?.name)),
   );
-  const used = assumptions.filter((a) => p.assumptions.includes(a.id));
   if (compared.length === 0) {
-    return { status: 'unproved', method: 'none', assumptions: used.map((a) => a.id), compared, simulatedVectors: 0, note: 'the rewrite changes no driven net the extractor can see' };
+    return { done: { status: 'unproved', method: 'none', assumptions: used.map((a) => a.id), compared, simulatedVectors: 0, note: NOTHING_DRIVEN } };
   }
-  const bModel = combinationalModel(before.view, compared.map((n) => before.nl.nets[before.nl.netByName.get(n)!].name));
+  const bModel = combinationalModel(view, compared.map((n) => nl.nets[nl.netByName.get(n)!].name));
   const afterNames = compared.map((n) => after.nets[after.netByName.get(n)!].name);
   const drivenAfter = afterNames.filter((n) => afterView.nodeByNet.has(after.netByName.get(n)!));
   const aModel = combinationalModel(afterView, drivenAfter);
   const beforeFns: Record<string, Expr> = {};
   const afterFns: Record<string, Expr> = {};
   compared.forEach((name, k) => {
-    const bName = before.nl.nets[before.nl.netByName.get(name)!].name;
+    const bName = nl.nets[nl.netByName.get(name)!].name;
     const b = bModel.outputs[bName];
     const a = aModel.outputs[afterNames[k]] ?? v(afterNames[k]);
     const enBefore = bModel.outputs[bName + ENABLE_SUFFIX];
@@ -166,6 +167,94 @@ export function verifyProposal(
       afterFns[name + ENABLE_SUFFIX] = and(enBefore, enAfter);
     }
   });
+  return { compared, beforeFns, afterFns, inputs: bModel.inputs };
+}
+
+/** Can this verdict be told to another region? Only when every name in it maps by position. */
+function cacheable(r: Verification): boolean {
+  if (r.status === 'proved') return true;
+  if (r.status === 'unproved') return r.note === NOTHING_DRIVEN;
+  return r.method !== 'switch-level'; // a switch-level refutation names devices: it is redone
+}
+
+/**
+ * A cached verdict in this region's names. A refutation's counterexample is re-simulated here:
+ * both sides evaluated on it, under the assumptions, must differ exactly where the cached one did.
+ */
+function reuse(hit: CachedProof, key: ProofKey, used: Assumption[], problem: () => Problem): Verification | undefined {
+  const at = (hit.at ??= positions(hit.key));
+  const name = (n: string): string | undefined => {
+    const k = at.get(n);
+    if (k !== undefined) return key.names[k];
+    for (const s of [ENABLE_SUFFIX, NEXT_SUFFIX]) {
+      const j = n.endsWith(s) ? at.get(n.slice(0, -s.length)) : undefined;
+      if (j !== undefined) return key.names[j] + s;
+    }
+    return undefined;
+  };
+  const names = (list: string[]) => list.map(name);
+  const r = hit.verification;
+  const compared = names(r.compared);
+  if (compared.some((n) => n === undefined)) return undefined;
+  const assumptions = hit.assumptionAt.map((k) => used[k].id);
+  if (r.status !== 'refuted') return { ...r, assumptions, compared: compared as string[] };
+  const cexNames = names(Object.keys(r.counterexample ?? {}));
+  const differing = (r.differing ?? []).map((d) => ({ ...d, name: name(d.name) }));
+  if (cexNames.some((n) => n === undefined) || differing.some((d) => d.name === undefined)) return undefined;
+  const values = Object.values(r.counterexample ?? {});
+  const pairs = cexNames.map((n, i) => [n as string, values[i]] as const).sort((x, y) => (x[0] < y[0] ? -1 : x[0] > y[0] ? 1 : 0));
+  const counterexample = Object.fromEntries(pairs) as Record<string, 0 | 1>;
+  const p = problem();
+  if (p.done) return undefined;
+  if (evaluate(and(...used.map((a) => a.expr)), counterexample) !== 1) return undefined;
+  const seen = Object.keys(p.beforeFns)
+    .sort()
+    .map((n) => ({ name: n, before: evaluate(p.beforeFns[n], counterexample), after: evaluate(p.afterFns[n], counterexample) }))
+    .filter((o) => o.before !== o.after);
+  if (JSON.stringify(seen) !== JSON.stringify(differing)) return undefined;
+  return { ...r, assumptions, counterexample, differing: seen, compared: p.compared };
+}
+
+/**
+ * Equivalence of the changed nets, each as a function of the primary inputs and state bits.
+ * A net the rewrite leaves undriven and unread (an internal node of removed parts) is skipped;
+ * one that stays read but loses its driver is compared as a free variable, which refutes.
+ * With a cache, a region whose canonical key was proved before in this scan reuses that verdict.
+ */
+export function verifyProposal(
+  before: { nl: FlatNetlist; view: LogicView },
+  p: Proposal,
+  assumptions: Assumption[],
+  verifier: Verifier = defaultVerifier,
+  simulateUpTo = 20_000,
+  cache?: ProofCache,
+): Verification {
+  const changed = changedNets(before.nl, before.view, p);
+  // Work on the changed nets' fan-in cut out of the design, so a proof costs the region's size.
+  const seeds = changed.filter((n) => before.view.nodeByNet.has(before.nl.netByName.get(n) ?? -1));
+  const nl = regionOf(before.nl, before.view, seeds, p.edit);
+  const after = applyProposals(nl, [p]);
+  const used = assumptions.filter((a) => p.assumptions.includes(a.id));
+  let problem: Problem | undefined;
+  const problemNow = () => (problem ??= problemOf(nl, nl === before.nl ? before.view : extractLogic(nl), after, changed, used));
+  const key = cache ? proofKey(nl, after, changed, used, `simulate:${nl.devices.length <= simulateUpTo}`) : undefined;
+  const hit = key && cache!.get(key.key);
+  if (hit) {
+    const reused = reuse(hit, key, used, problemNow);
+    if (reused) return reused;
+  }
+  const r = prove(nl, after, problemNow(), used, verifier, simulateUpTo);
+  if (key && !hit && cacheable(r)) {
+    const ids = used.map((a) => a.id);
+    const assumptionAt = r.assumptions.map((id) => ids.indexOf(id));
+    if (!assumptionAt.includes(-1)) cache!.set(key.key, { key, verification: r, assumptionAt });
+  }
+  return r;
+}
+
+function prove(nl: FlatNetlist, after: FlatNetlist, problem: Problem, used: Assumption[], verifier: Verifier, simulateUpTo: number): Verification {
+  if (problem.done) return problem.done;
+  const { compared, beforeFns, afterFns } = problem;
   let r: EquivResult;
   try {
     r = verifier(beforeFns, afterFns, used);
@@ -175,11 +264,11 @@ export function verifyProposal(
   if (r.verdict === 'refuted') {
     return { status: 'refuted', method: r.method, assumptions: used.map((a) => a.id), counterexample: r.counterexample, differing: r.outputs, compared, simulatedVectors: 0 };
   }
-  if (before.nl.devices.length > simulateUpTo) {
+  if (nl.devices.length > simulateUpTo) {
     return { status: 'proved', method: r.method, assumptions: r.assumptionsUsed, compared, simulatedVectors: 0, note: 'design too large for the switch-level check' };
   }
   // The logic is proved; now look for contention and floating nodes the rewrite introduces.
-  const sim = simulationCheck(before.nl, after, bModel.inputs, used);
+  const sim = simulationCheck(nl, after, problem.inputs, used);
   if (sim.problem) {
     return {
       status: 'refuted',
@@ -205,10 +294,11 @@ export async function scan(netlist: FlatNetlist, options: ScanOptions = {}): Pro
   const run = await runRules(netlist, view, options);
   const assumptions = options.assumptions ?? [];
   const family = options.targetFamily ?? 'cmos';
+  const proofs: ProofCache = new Map();
   const findings = run.findings.map((finding) => ({
     finding,
     proposals: finding.proposals.map((proposal) => {
-      const verification = verifyProposal({ nl: netlist, view }, proposal, assumptions, options.verifier, options.simulateUpTo);
+      const verification = verifyProposal({ nl: netlist, view }, proposal, assumptions, options.verifier, options.simulateUpTo, proofs);
       return {
         proposal,
         verification,
