@@ -97,7 +97,7 @@ describe('scan worker crash and cancel', () => {
     await s.update({ status: 'failed' });
   });
 
-  it('cancels a running scan at the next stage boundary; a queued one at once', async () => {
+  it('cancels a running scan (its worker polls the flag); a queued one at once', async () => {
     await worker?.stop();
     worker = await inProcessWorker({ stageDelayMs: 700 });
     const started = await designer.agent.post(`/api/designs/${designId}/scans`).set('X-CSRF-Token', designer.csrf).send({}).expect(202);

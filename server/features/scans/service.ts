@@ -1,6 +1,6 @@
 // Scans: start (a queued row plus a pg-boss job; the heavy work happens in a worker process),
 // read (a scan whose worker stopped answering is swept on read too), and cancel (a flag the worker
-// checks between stages; a queued scan is cancelled at once).
+// polls while the scan runs, stopping its engine thread; a queued scan is cancelled at once).
 import type { Db } from '@/server/db';
 import type { Design, Scan as ScanRow, User } from '@/server/db/models';
 import { BadRequest, Conflict, HttpError, NotFound } from '@/server/http/errors';
@@ -64,7 +64,7 @@ export async function cancelScan(db: Db, s: ScanRow, user: User): Promise<Scan> 
   if (s.status === 'done' || s.status === 'failed' || s.status === 'cancelled') {
     throw new Conflict(`The scan has already ${s.status === 'done' ? 'finished' : s.status === 'failed' ? 'failed' : 'been cancelled'}.`, 'scan-finished');
   }
-  // A queued scan stops here; a running one stops at its worker's next stage boundary.
+  // A queued scan stops here; a running one stops when its worker next polls the flag.
   await db.sequelize.query(
     `UPDATE scans SET cancel_requested = true, updated_at = now(),
        status = CASE WHEN status = 'queued' THEN 'cancelled' ELSE status END,
