@@ -4,27 +4,45 @@ function frozenMapError(): never {
   throw new TypeError('the design given to rules is read-only');
 }
 
-export function deepFreeze<T>(value: T, seen = new WeakSet<object>()): T {
-  if (value === null || typeof value !== 'object' || seen.has(value as object) || Object.isFrozen(value)) return value;
-  seen.add(value as object);
-  if (value instanceof Map) {
-    for (const [k, v] of value) {
-      deepFreeze(k, seen);
-      deepFreeze(v, seen);
+const LOCKED_MAP = { set: { value: frozenMapError }, delete: { value: frozenMapError }, clear: { value: frozenMapError } };
+const LOCKED_SET = { add: { value: frozenMapError }, delete: { value: frozenMapError }, clear: { value: frozenMapError } };
+
+/**
+ * Freezes each object before its contents (pre-order), so an object met again — shared logic in a
+ * view is a DAG, and a cycle would loop — is already frozen and skipped: no visited set to keep,
+ * which on a large design is millions of entries the collector must trace. A value that was
+ * frozen before the call is taken as already deep-frozen.
+ */
+export function deepFreeze<T>(value: T): T {
+  if (value === null || typeof value !== 'object' || Object.isFrozen(value)) return value;
+  const stack: object[] = [value as object];
+  const push = (x: unknown) => {
+    if (x !== null && typeof x === 'object' && !Object.isFrozen(x)) stack.push(x);
+  };
+  while (stack.length) {
+    const o = stack.pop()!;
+    if (Object.isFrozen(o)) continue;
+    if (ArrayBuffer.isView(o)) continue; // typed arrays cannot be frozen; the engine never hands them to rules mutable
+    if (o instanceof Map) {
+      // Object.freeze does not stop Map methods; shadow them on the instance.
+      Object.defineProperties(o, LOCKED_MAP);
+      Object.freeze(o);
+      for (const [k, v] of o) {
+        push(k);
+        push(v);
+      }
+    } else if (o instanceof Set) {
+      Object.defineProperties(o, LOCKED_SET);
+      Object.freeze(o);
+      for (const v of o) push(v);
+    } else if (Array.isArray(o)) {
+      Object.freeze(o);
+      for (let i = 0; i < o.length; i++) push(o[i]);
+    } else {
+      Object.freeze(o);
+      const rec = o as Record<string, unknown>;
+      for (const key in rec) if (Object.prototype.hasOwnProperty.call(rec, key)) push(rec[key]);
     }
-    // Object.freeze does not stop Map methods; shadow them on the instance.
-    Object.defineProperties(value, {
-      set: { value: frozenMapError },
-      delete: { value: frozenMapError },
-      clear: { value: frozenMapError },
-    });
-  } else if (value instanceof Set) {
-    for (const v of value) deepFreeze(v, seen);
-    Object.defineProperties(value, { add: { value: frozenMapError }, delete: { value: frozenMapError }, clear: { value: frozenMapError } });
-  } else if (ArrayBuffer.isView(value)) {
-    return value; // typed arrays cannot be frozen; the engine never hands them to rules mutable
-  } else {
-    for (const key of Object.keys(value as object)) deepFreeze((value as Record<string, unknown>)[key], seen);
   }
-  return Object.freeze(value);
+  return value;
 }

@@ -1,7 +1,7 @@
 // Classes of driven nets that compute the same function of the same nets (one enable inverter per
 // bit slice, duplicated decode gates): keyed by family, sorted inputs and truth table, so operand
 // order and expression shape do not matter. Linear in the view; shared by rules that share drivers.
-import { evaluate, type Expr } from '../../logic/expr';
+import { evaluateWords, type Expr } from '../../logic/expr';
 import type { Family, LogicNode, LogicView, NodeKind } from '../../extract/types';
 
 export interface FunctionClass {
@@ -27,21 +27,34 @@ export interface SameFunctionOptions {
   accept?: (node: LogicNode, index: number) => boolean;
 }
 
-/** Truth table of `fn` over `inputs` (first input = most significant bit) as a hex string. */
+/** Lane patterns of the five lowest row bits across a 32-row word (lane j holds row 32w + j). */
+const LANES = [0xaaaaaaaa, 0xcccccccc, 0xf0f0f0f0, 0xff00ff00, 0xffff0000].map((x) => x | 0);
+
+/**
+ * Truth table of `fn` over `inputs` (first input = most significant bit) as a hex string: one
+ * digit per four rows, the first row its high bit. Evaluated 32 rows a pass, bit-parallel.
+ */
 export function truthKey(fn: Expr, inputs: string[]): string {
-  const rows = 2 ** inputs.length;
-  const env: Record<string, 0 | 1> = {};
-  const bits: number[] = [];
-  let word = 0;
-  for (let m = 0; m < rows; m++) {
-    inputs.forEach((n, i) => (env[n] = ((m >> (inputs.length - 1 - i)) & 1) as 0 | 1));
-    word = (word << 1) | evaluate(fn, env);
-    if ((m & 3) === 3 || m === rows - 1) {
-      bits.push(word);
-      word = 0;
+  const n = inputs.length;
+  const rows = 2 ** n;
+  const words = new Map<string, number>();
+  let out = '';
+  for (let w = 0; w * 32 < rows; w++) {
+    inputs.forEach((name, i) => {
+      const shift = n - 1 - i;
+      words.set(name, shift < 5 ? LANES[shift] : ((w * 32) >> shift) & 1 ? -1 : 0);
+    });
+    const r = evaluateWords(fn, words);
+    const lanes = Math.min(32, rows - w * 32);
+    for (let j = 0; j < lanes; j += 4) {
+      // rows j … j+3 of this word, the first the most significant (fewer when the table is shorter)
+      const width = Math.min(4, lanes - j);
+      let digit = 0;
+      for (let t = 0; t < width; t++) digit = (digit << 1) | ((r >>> (j + t)) & 1);
+      out += digit.toString(16);
     }
   }
-  return bits.map((b) => b.toString(16)).join('');
+  return out;
 }
 
 export function sameFunctionClasses(view: LogicView, options: SameFunctionOptions): FunctionClass[] {
