@@ -1,5 +1,6 @@
 // Proves the Espresso bridge gives covers that equal the function on its care set, reaches the
 // worked examples' minimal counts, never beats the exact minimiser, and survives a misbehaving child.
+import { createRequire } from 'node:module';
 import path from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
 import fc from 'fast-check';
@@ -8,7 +9,7 @@ import { exactMinimiser } from '../minimiser';
 import { fromMinterms } from '../truth-table';
 import { WORKED_EXAMPLES, parityTable } from '../worked-examples';
 import { createEspressoMinimiser } from './espresso-minimiser';
-import { buildPla, buildPlaText, plaProblem, plaTextProblem } from './pla';
+import { buildPla, buildPlaText, plaProblem, plaTextProblem, tablePayload, type TablePayload } from './pla';
 import { EspressoPool, MinimiserError } from './pool';
 
 const fixture = (name: string) => path.join(__dirname, 'fixtures', name);
@@ -230,6 +231,60 @@ describe('batches of functions', () => {
       m.clearCache();
       await m.minimiseCover(g);
       expect(m.pool.sent).toBe(4);
+    } finally {
+      m.close();
+    }
+  });
+});
+
+describe('table payloads (the child writes the PLA rows)', () => {
+  const requireCjs = createRequire(__filename);
+  const { tableLines } = requireCjs('./pla-rows.cjs') as { tableLines(p: unknown): string[] };
+
+  it('gives exactly the lines of the PLA text for any table', () => {
+    fc.assert(
+      fc.property(
+        fc.integer({ min: 1, max: 9 }).chain((n) => fc.tuple(fc.constant(n), fc.array(fc.constantFrom(0, 1, 2), { minLength: 2 ** n, maxLength: 2 ** n }))),
+        ([n, cells]) => {
+          const on = cells.flatMap((c, m) => (c === 1 ? [m] : []));
+          const dc = cells.flatMap((c, m) => (c === 2 ? [m] : []));
+          const t = fromMinterms(Array.from({ length: n }, (_, i) => `i${i}`), [{ name: 'F', on, dc }]);
+          const p = tablePayload(t.outputs[0], n);
+          if (on.length === 0) {
+            expect(p).toMatch(/no on-set rows/);
+            return;
+          }
+          expect(typeof p).toBe('object');
+          expect(tableLines(p)).toEqual(buildPla(t.outputs[0], n));
+          expect(plaProblem(tableLines(p))).toBeUndefined();
+        },
+      ),
+      { numRuns: 200 },
+    );
+  });
+
+  it('refuses tables that are not well formed, on both sides of the process boundary', () => {
+    const ok = fromMinterms(['a', 'b', 'c'], [{ name: 'F', on: [1], dc: [2] }]).outputs[0];
+    expect(tablePayload({ ...ok, dc: Uint32Array.of(2) }, 3)).toMatch(/both on and don't-care/);
+    expect(tablePayload({ ...ok, on: Uint32Array.of(1 << 9) }, 3)).toMatch(/past 7/);
+    expect(tablePayload(ok, 17)).toMatch(/outside/);
+    expect(tablePayload(ok, 6)).toMatch(/words, expected/);
+    expect(() => tableLines({ n: 3, on: 'AgAAAA==', dc: 'AgAAAA==' })).toThrow(/both on/);
+    expect(() => tableLines({ n: 3, on: 'AAAAAA==', dc: 'AAAAAA==' })).toThrow(/no on-set rows/);
+    expect(() => tableLines({ n: 3, on: 'AA==', dc: 'AAAAAA==' })).toThrow(/bytes, expected 4/);
+    expect(() => tableLines({ n: 0, on: '', dc: '' })).toThrow(/outside/);
+    expect(() => tableLines({ n: 3, on: 'AAEAAA==', dc: 'AAAAAA==' })).toThrow(/outside 0..7/);
+    expect(() => tableLines('x')).toThrow(/object/);
+  });
+
+  it('a payload the child refuses fails alone, without the native code seeing it', async () => {
+    const m = createEspressoMinimiser({ size: 1 });
+    try {
+      const good = tablePayload(fromMinterms(['a', 'b'], [{ name: 'F', on: [3] }]).outputs[0], 2);
+      const answers = await m.pool.runEach([good as TablePayload, { n: 2, on: 'AAAAAA==', dc: 'AAAAAA==' }, good as TablePayload], 5000);
+      expect(answers[0]).toBe('11 1');
+      expect(answers[1]).toMatchObject({ reason: 'rejected' });
+      expect(answers[2]).toBe('11 1');
     } finally {
       m.close();
     }

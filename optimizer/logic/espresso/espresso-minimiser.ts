@@ -1,5 +1,5 @@
 // Minimiser backed by the Espresso process pool: constants answered here (never sent), each
-// distinct function sent once per batch after its PLA is validated, and every returned cover
+// distinct function sent once per batch after its table is checked, and every returned cover
 // checked against the truth table on the care set before it is believed (a wrong cover falls back
 // to the exact minimiser or is an error); checked covers are remembered by the table's content.
 import { InternalError } from '../../errors';
@@ -8,7 +8,7 @@ import type { MinimiseMethod, MinimiseOutcome, MinimiseResult, Minimiser, Minimi
 import { MAX_QM_INPUTS, minimiseOutputQm } from '../quine-mccluskey';
 import { constantValue, type OutputTable, type TruthTable } from '../truth-table';
 import { EspressoPool, MinimiserError, type PoolOptions } from './pool';
-import { buildPlaText, MAX_ESPRESSO_INPUTS, parseCubes, plaTextProblem } from './pla';
+import { MAX_ESPRESSO_INPUTS, parseCubes, tablePayload, type TablePayload } from './pla';
 
 /** Inputs up to which a cover Espresso got wrong is recomputed exactly instead of failing. */
 export const EXACT_FALLBACK_INPUTS = 10;
@@ -84,14 +84,14 @@ export function createEspressoMinimiser(options: PoolOptions & { pool?: Espresso
       });
     });
     // Each distinct function once, built and validated here, all of them in one batch.
-    const send: { key: string; w: Wanted; text: string }[] = [];
+    // The child writes each PLA's rows from the checked table words: a few bytes each way.
+    const send: { key: string; w: Wanted; item: TablePayload }[] = [];
     for (const [key, w] of wanted) {
-      const text = buildPlaText(w.out, w.n);
-      const problem = plaTextProblem(text);
-      if (problem) w.answer = { error: new InternalError(`built an unsafe PLA for ${w.out.name}: ${problem}`) };
-      else send.push({ key, w, text });
+      const item = tablePayload(w.out, w.n);
+      if (typeof item === 'string') w.answer = { error: new InternalError(`built an unsafe PLA for ${w.out.name}: ${item}`) };
+      else send.push({ key, w, item });
     }
-    const replies = send.length ? await pool.runEach(send.map((x) => x.text), opts.timeoutMs) : [];
+    const replies = send.length ? await pool.runEach(send.map((x) => x.item), opts.timeoutMs) : [];
     send.forEach(({ key, w }, i) => {
       const reply = replies[i];
       if (reply instanceof Error) {

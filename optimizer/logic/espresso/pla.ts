@@ -1,9 +1,9 @@
-// Berkeley PLA text exchanged with the Espresso process: built from one output of a truth table
-// as one string (one message to the child, no per-line objects), validated before it is sent (the
-// native code exits on malformed input) by a single pass over its characters, and parsed on return.
+// Berkeley PLA exchanged with the Espresso process: as text built from one output of a truth table
+// (validated by a single pass over its characters: the native code exits on malformed input), or
+// as the output's checked table words from which the child writes the same rows; parsed on return.
 import { InternalError } from '../../errors';
 import { type Cover, cubeFromString } from '../cubes';
-import { popcount, type OutputTable } from '../truth-table';
+import { popcount, words, type OutputTable } from '../truth-table';
 
 /** Largest input count sent to Espresso (2^16 rows of minterms at most). */
 export const MAX_ESPRESSO_INPUTS = 16;
@@ -119,4 +119,39 @@ export function parseCubes(lines: string[], n: number): Cover {
     if (!m) throw new InternalError(`unexpected line from the minimiser: "${line.slice(0, 60)}"`);
     return cubeFromString(m[1], n);
   });
+}
+
+/** One output as the child takes it: input count and the on-set and don't-care words (base64, little-endian). */
+export interface TablePayload {
+  n: number;
+  on: string;
+  dc: string;
+}
+
+const wordsBase64 = (set: Uint32Array): string => {
+  const buf = Buffer.allocUnsafe(set.length * 4);
+  for (let w = 0; w < set.length; w++) buf.writeUInt32LE(set[w], w * 4);
+  return buf.toString('base64');
+};
+
+/**
+ * The table of one non-constant output, checked before it is sent: the child writes the PLA rows
+ * from it (pla-rows.cjs gives buildPla's lines), so these checks stand for the text's — input
+ * count in range, the right number of words, no minterm past 2^n, none both on and don't-care, and
+ * at least one on-set minterm. Returns the payload or why it must not be sent.
+ */
+export function tablePayload(out: OutputTable, n: number): TablePayload | string {
+  if (!Number.isInteger(n) || n < 1 || n > MAX_ESPRESSO_INPUTS) return `.i ${n} is outside 1..${MAX_ESPRESSO_INPUTS}`;
+  const count = words(n);
+  if (out.on.length !== count || out.dc.length !== count) return `the table of ${out.name} has ${out.on.length} words, expected ${count}`;
+  const valid = n >= 5 ? 0xffffffff : 2 ** 2 ** n - 1;
+  let any = 0;
+  for (let w = 0; w < count; w++) {
+    if (((out.on[w] | out.dc[w]) & ~valid) !== 0) return `the table of ${out.name} sets minterms past ${2 ** n - 1}`;
+    if ((out.on[w] & out.dc[w]) !== 0) return `a minterm of ${out.name} is both on and don't-care`;
+    any |= out.on[w];
+  }
+  // A PLA with no product rows corrupts the next call inside the native code.
+  if (any === 0) return 'a PLA with no on-set rows is never sent (the function is constant)';
+  return { n, on: wordsBase64(out.on), dc: wordsBase64(out.dc) };
 }

@@ -4,8 +4,15 @@
 // and a child that dies or errs is replaced before it serves anything else.
 import { fork, type ChildProcess } from 'node:child_process';
 import path from 'node:path';
+import type { TablePayload } from './pla';
 
 export const WORKER_PATH = path.join(__dirname, 'worker.cjs');
+
+/** What the child minimises: PLA text (lines joined by "\n") or a checked table it writes the rows of. */
+export type PlaItem = string | TablePayload;
+
+/** Rough work of one item, for sharing a batch between children. */
+const weight = (item: PlaItem) => (typeof item === 'string' ? item.length : (item.n + 3) * 2 ** item.n);
 
 export type MinimiserFailure = 'timeout' | 'crashed' | 'rejected' | 'mismatch' | 'closed';
 
@@ -22,7 +29,7 @@ export class MinimiserError extends Error {
 
 /** One call's PLAs and their answers; several jobs may serve it (a batch split between children, or retried). */
 interface Request {
-  texts: string[];
+  texts: PlaItem[];
   answers: (string | MinimiserError | undefined)[];
   left: number;
   timeoutMs: number;
@@ -102,13 +109,13 @@ export class EspressoPool {
   }
 
   /**
-   * Several PLA texts (lines joined by "\n", already validated by the caller), one answer each: the
+   * Several PLAs (texts or table payloads, already validated by the caller), one answer each: the
    * cube lines as one text, or the failure of that PLA alone. The batch goes to the children in
    * as few round trips as there are children (one string per PLA each way); `timeoutMs` limits
    * each PLA's run. When a child hangs or dies mid-batch, the answers it gave are kept and the
    * unanswered PLAs are retried one by one on fresh children, so only the culprit fails.
    */
-  runEach(batch: string[], timeoutMs = this.defaultTimeout): Promise<(string | MinimiserError)[]> {
+  runEach(batch: PlaItem[], timeoutMs = this.defaultTimeout): Promise<(string | MinimiserError)[]> {
     if (this.closed) return Promise.resolve(batch.map(() => new MinimiserError('closed', 'the minimiser pool is closed')));
     if (batch.length === 0) return Promise.resolve([]);
     return new Promise((resolve) => {
@@ -134,18 +141,18 @@ export class EspressoPool {
     return this.slots.size;
   }
 
-  /** Contiguous shares of a batch, one per child the pool may run, balanced by text length. */
-  private split(batch: string[]): number[][] {
+  /** Contiguous shares of a batch, one per child the pool may run, balanced by their rough work. */
+  private split(batch: PlaItem[]): number[][] {
     const parts = Math.min(this.size, batch.length);
     const all = batch.map((_, k) => k);
     if (parts <= 1) return [all];
-    const total = batch.reduce((s, t) => s + t.length, 0);
+    const total = batch.reduce((s, t) => s + weight(t), 0);
     const shares: number[][] = [];
     let cur: number[] = [];
     let acc = 0;
     for (const k of all) {
       cur.push(k);
-      acc += batch[k].length;
+      acc += weight(batch[k]);
       if (shares.length < parts - 1 && acc >= (total * (shares.length + 1)) / parts) {
         shares.push(cur);
         cur = [];
