@@ -57,12 +57,14 @@ export function validateDesign(design: Design, opts: ValidateOptions = {}): Diag
 function checkNames(cell: Cell, out: Diagnostic[]): void {
   const seen = new Set<string>();
   // Exact comparison: deck readers have already upper-cased names, and Verilog names are case-sensitive.
+  // One set operation per name (a repeat leaves the size unchanged): large flat cells have
+  // millions of names, and each hash probe of a big table is a cache miss.
   const check = (x: { name: string; loc?: Diagnostic['loc'] }) => {
-    const key = x.name;
-    if (seen.has(key)) {
+    const before = seen.size;
+    seen.add(x.name);
+    if (seen.size === before) {
       out.push({ severity: 'error', code: 'netlist.duplicate-name', message: `duplicate name ${x.name} in ${cell.name}`, loc: x.loc });
     }
-    seen.add(key);
   };
   for (const d of cell.devices) check(d);
   for (const i of cell.instances) check(i);
@@ -74,13 +76,30 @@ function checkNames(cell: Cell, out: Diagnostic[]): void {
 }
 
 function singleTerminalNets(cell: Cell, globals: Set<string>, isTop: boolean, out: Diagnostic[]): void {
-  const count = new Map<string, number>();
-  const touch = (net: string) => count.set(net, (count.get(net) ?? 0) + 1);
+  // Each net numbered on first sight and counted in a typed array: one map probe per terminal.
+  const index = new Map<string, number>();
+  let counts = new Int32Array(1024);
+  const touch = (net: string) => {
+    let i = index.get(net);
+    if (i === undefined) {
+      i = index.size;
+      index.set(net, i);
+      if (i === counts.length) {
+        const grown = new Int32Array(counts.length * 2);
+        grown.set(counts);
+        counts = grown;
+      }
+    }
+    counts[i]++;
+  };
   for (const p of cell.ports) touch(p);
-  for (const d of cell.devices) for (const t of d.terminals) touch(t);
+  for (const d of cell.devices) {
+    const ts = d.terminals;
+    for (let k = 0; k < ts.length; k++) touch(ts[k]);
+  }
   for (const i of cell.instances) for (const t of i.connections) touch(t);
   const lonely = new Set<string>();
-  for (const [net, n] of count) if (n === 1 && !globals.has(net)) lonely.add(net);
+  for (const [net, i] of index) if (counts[i] === 1 && !globals.has(net)) lonely.add(net);
   if (lonely.size === 0) return;
   const ports = new Set(cell.ports);
   // A second walk finds where each lonely net is used; lonely nets are few, so this stays cheap.

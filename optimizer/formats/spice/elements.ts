@@ -3,13 +3,39 @@
 import type { Diagnostic } from '../../errors';
 import type { Cell, Device, DeviceKind, Model, ParamValue, SourceLoc } from '../../netlist/ir';
 import type { Card, Token } from './lines';
-import { netName, numericValue, valueOrText } from './values';
+import { netName, numericValue, upper, valueOrText } from './values';
 
 export interface ElementContext {
   models: Record<string, Model>;
   params: Record<string, number>;
   report: (severity: Diagnostic['severity'], code: string, message: string, loc?: SourceLoc) => void;
   at: (t: { line: number; col: number }) => SourceLoc;
+  /**
+   * Net names met so far, each kept once: a large deck names the same nets on millions of cards,
+   * and one shared string per net keeps the design small (and lets the rest die young).
+   */
+  nets: Map<string, string>;
+  /** The last model token looked up and its model: consecutive cards mostly name the same one. */
+  lastModel?: { text: string; model: Model | undefined };
+}
+
+/** The model a token names (case-insensitive), undefined when there is none. */
+function modelOf(t: Token | undefined, ctx: ElementContext): Model | undefined {
+  if (t === undefined) return undefined;
+  const last = ctx.lastModel;
+  if (last !== undefined && last.text === t.text) return last.model;
+  const model = ctx.models[upper(t.text)];
+  ctx.lastModel = { text: t.text, model };
+  return model;
+}
+
+/** The net a node token names (netName's rules), as the one shared string for that net. */
+function net(t: Token, ctx: ElementContext): string {
+  const n = netName(t.text);
+  const seen = ctx.nets.get(n);
+  if (seen !== undefined) return seen;
+  ctx.nets.set(n, n);
+  return n;
 }
 
 const WAVEFORMS = new Set(['PULSE', 'PWL', 'SIN', 'EXP', 'SFFM', 'AM', 'TRNOISE', 'TRRANDOM']);
@@ -84,7 +110,7 @@ function value(t: Token, ctx: ElementContext, what: string): number | undefined 
 
 export function readElement(card: Card, cell: Cell, ctx: ElementContext): void {
   const first = card.tokens[0];
-  const name = first.text.toUpperCase();
+  const name = upper(first.text);
   const letter = name[0];
   const loc = ctx.at(first);
   switch (letter) {
@@ -137,7 +163,7 @@ function passive(card: Card, cell: Cell, ctx: ElementContext, name: string, kind
     ctx.report('error', 'spice.missing-value', `${name} needs a value`, loc);
     return;
   }
-  cell.devices.push({ name, kind, terminals: [netName(p[0].text), netName(p[1].text)], value: v, params, loc });
+  cell.devices.push({ name, kind, terminals: [net(p[0], ctx), net(p[1], ctx)], value: v, params, loc });
 }
 
 const SEMI = {
@@ -151,9 +177,8 @@ function semiconductor(card: Card, cell: Cell, ctx: ElementContext, name: string
   if (!args.ok) return;
   const spec = SEMI[letter];
   const p = args.positional;
-  const isModel = (t: Token | undefined) => t !== undefined && ctx.models[t.text.toUpperCase()] !== undefined;
   let nodes = -1;
-  for (const n of spec.nodes) if (isModel(p[n])) nodes = n;
+  for (const n of spec.nodes) if (modelOf(p[n], ctx) !== undefined) nodes = n;
   const counts = spec.nodes.join(' or ');
   if (nodes < 0) {
     const min = spec.nodes[0];
@@ -170,7 +195,7 @@ function semiconductor(card: Card, cell: Cell, ctx: ElementContext, name: string
     return;
   }
   const modelTok = p[nodes];
-  const model = ctx.models[modelTok.text.toUpperCase()];
+  const model = modelOf(modelTok, ctx)!;
   if (!(spec.types as readonly string[]).includes(model.type)) {
     ctx.report('error', 'spice.model-type', `${name} needs ${spec.what}; ${model.name} is a ${model.type} model`, ctx.at(modelTok));
     return;
@@ -187,7 +212,8 @@ function semiconductor(card: Card, cell: Cell, ctx: ElementContext, name: string
     }
   }
   const kind: DeviceKind = letter === 'D' ? 'diode' : (model.type as DeviceKind);
-  const terminals = p.slice(0, nodes).map((t) => netName(t.text));
+  const terminals = new Array<string>(nodes);
+  for (let i = 0; i < nodes; i++) terminals[i] = net(p[i], ctx);
   const device: Device = { name, kind, terminals, model: model.name, params, loc };
   cell.devices.push(device);
 }
@@ -198,7 +224,7 @@ function source(card: Card, cell: Cell, ctx: ElementContext, name: string, kind:
     ctx.report('error', 'spice.node-count', `${name} needs 2 nodes, found ${Math.max(0, Math.min(t.length, 3) - 1)}`, loc);
     return;
   }
-  const terminals = [netName(t[1].text), netName(t[2].text)];
+  const terminals = [net(t[1], ctx), net(t[2], ctx)];
   const params: Record<string, ParamValue> = {};
   let dc: number | undefined;
   let waveform: string | undefined;
@@ -271,5 +297,5 @@ function instance(card: Card, cell: Cell, ctx: ElementContext, name: string, loc
     return;
   }
   const sub = p[p.length - 1].text.toUpperCase();
-  cell.instances.push({ name, cell: sub, connections: p.slice(0, -1).map((t) => netName(t.text)), params: {}, loc });
+  cell.instances.push({ name, cell: sub, connections: p.slice(0, -1).map((t) => net(t, ctx)), params: {}, loc });
 }

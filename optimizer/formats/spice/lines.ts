@@ -28,6 +28,7 @@ const COMMA = 44;
 const CR = 13;
 const FF = 12;
 const VT = 11;
+const SEMICOLON = 59;
 
 function isSeparator(c: number): boolean {
   return c === SPACE || c === TAB || c === COMMA || c === CR || c === FF || c === VT;
@@ -35,9 +36,16 @@ function isSeparator(c: number): boolean {
 
 /** Tokenizes one physical line (after comment removal) starting at column offset `from`. */
 export function tokenizeLine(text: string, lineNo: number, from: number, out: Token[], problems: TokenizeProblem[]): void {
-  const n = text.length;
-  let i = from;
-  while (i < n) {
+  tokenizeRange(text, 0, from, text.length, lineNo, out, problems);
+}
+
+/**
+ * Tokenizes text[lineStart + from, end) of a line that starts at lineStart in a larger text, so a
+ * deck is read in place: only the tokens become strings, never the lines they sit on.
+ */
+function tokenizeRange(text: string, lineStart: number, from: number, end: number, lineNo: number, out: Token[], problems: TokenizeProblem[]): void {
+  let i = lineStart + from;
+  while (i < end) {
     const c = text.charCodeAt(i);
     if (isSeparator(c)) {
       i++;
@@ -45,44 +53,47 @@ export function tokenizeLine(text: string, lineNo: number, from: number, out: To
     }
     if (c === 40 || c === 41 || c === 61) {
       // ( ) =
-      out.push({ text: text[i], line: lineNo, col: i + 1 });
+      out.push({ text: text[i], line: lineNo, col: i - lineStart + 1 });
       i++;
       continue;
     }
     if (c === 123 || c === 39) {
       // { … } or ' … '
-      const close = c === 123 ? '}' : "'";
-      const end = text.indexOf(close, i + 1);
-      if (end < 0) {
-        problems.push({ message: `unterminated ${c === 123 ? '{' : "'"} expression`, line: lineNo, col: i + 1 });
+      const close = c === 123 ? 125 : 39;
+      let stop = i + 1;
+      while (stop < end && text.charCodeAt(stop) !== close) stop++;
+      if (stop >= end) {
+        problems.push({ message: `unterminated ${c === 123 ? '{' : "'"} expression`, line: lineNo, col: i - lineStart + 1 });
         return;
       }
-      out.push({ text: text.slice(i, end + 1), line: lineNo, col: i + 1 });
-      i = end + 1;
+      out.push({ text: text.slice(i, stop + 1), line: lineNo, col: i - lineStart + 1 });
+      i = stop + 1;
       continue;
     }
     const start = i;
-    while (i < n) {
+    while (i < end) {
       const d = text.charCodeAt(i);
       if (isSeparator(d) || d === 40 || d === 41 || d === 61 || d === 123) break;
       i++;
     }
-    out.push({ text: text.slice(start, i), line: lineNo, col: start + 1 });
+    out.push({ text: text.slice(start, i), line: lineNo, col: start - lineStart + 1 });
   }
 }
 
-/** Index of the first non-blank character, or -1 for a blank line. */
-function firstNonBlank(s: string): number {
-  for (let i = 0; i < s.length; i++) {
-    const c = s.charCodeAt(i);
+/** Offset of the first non-blank character of text[from, end), or -1 for a blank line. */
+function firstNonBlank(text: string, from: number, end: number): number {
+  for (let i = from; i < end; i++) {
+    const c = text.charCodeAt(i);
     if (c !== SPACE && c !== TAB && c !== CR && c !== FF && c !== VT) return i;
   }
   return -1;
 }
 
-function stripInlineComment(s: string): string {
-  const k = s.indexOf(';');
-  return k < 0 ? s : s.slice(0, k);
+/** End of a line's content before an inline `;` comment. */
+function commentStart(text: string, from: number, end: number): number {
+  // scanned by hand: indexOf would search the rest of the deck when the line has no comment
+  for (let i = from; i < end; i++) if (text.charCodeAt(i) === SEMICOLON) return i;
+  return end;
 }
 
 export interface CardVisitor {
@@ -91,12 +102,17 @@ export interface CardVisitor {
   controlBlock(raw: string, line: number, terminated: boolean): void;
 }
 
+const PLUS = 43;
+const STAR = 42;
+const DOT = 46;
+
 /**
- * Walks the deck's cards (line 1, the title, is skipped). `only` filters by the first character of
+ * Walks the deck's cards (line 1, the title, is skipped), reading the text in place line by line
+ * (no array of lines: a large flat deck has millions). `only` filters by the first character of
  * a card so a cheap first pass can look at dot cards alone without tokenizing every element.
  */
 export function forEachCard(
-  lines: string[],
+  text: string,
   visit: CardVisitor,
   problems: TokenizeProblem[],
   only?: (firstChar: string) => boolean,
@@ -108,48 +124,71 @@ export function forEachCard(
     current = null;
     if (c && c.tokens.length > 0) visit.card(c);
   };
-  for (let li = 1; li < lines.length; li++) {
-    const text = lines[li];
-    const at = firstNonBlank(text);
+  const n = text.length;
+  let lineNo = 1;
+  let pos = text.indexOf('\n');
+  if (pos < 0) return;
+  pos++;
+  // The lines split('\n') would give: the last one may be empty (text ending in a newline).
+  while (pos <= n) {
+    lineNo++;
+    let end = text.indexOf('\n', pos);
+    if (end < 0) end = n;
+    const lineStart = pos;
+    pos = end + 1;
+    const at = firstNonBlank(text, lineStart, end);
     if (at < 0) continue;
-    const c0 = text[at];
-    if (c0 === '*') continue;
-    if (c0 === '+') {
+    const c0 = text.charCodeAt(at);
+    if (c0 === STAR) continue;
+    if (c0 === PLUS) {
       if (!keep) continue;
       if (!current) {
-        problems.push({ message: 'continuation line (+) with no card before it', line: li + 1, col: at + 1 });
+        problems.push({ message: 'continuation line (+) with no card before it', line: lineNo, col: at - lineStart + 1 });
         continue;
       }
       const cur: Card = current;
-      tokenizeLine(stripInlineComment(text), li + 1, at + 1, cur.tokens, problems);
-      cur.raw += '\n' + text;
+      tokenizeRange(text, lineStart, at - lineStart + 1, commentStart(text, lineStart, end), lineNo, cur.tokens, problems);
+      cur.raw += '\n' + text.slice(lineStart, end);
       continue;
     }
     flush();
-    keep = only ? only(c0) : true;
+    keep = only ? only(text[at]) : true;
     if (!keep) continue;
-    if (c0 === '.' && /^\.control\b/i.test(text.slice(at))) {
-      li = captureControl(lines, li, visit);
+    if (c0 === DOT && /^\.control\b/i.test(text.slice(at, end))) {
+      const after = captureControl(text, lineStart, pos, lineNo, visit);
+      pos = after.pos;
+      lineNo += after.lines;
       continue;
     }
-    const card: Card = { tokens: [], line: li + 1, col: at + 1, raw: text };
-    tokenizeLine(stripInlineComment(text), li + 1, at, card.tokens, problems);
+    const card: Card = { tokens: [], line: lineNo, col: at - lineStart + 1, raw: text.slice(lineStart, end) };
+    tokenizeRange(text, lineStart, at - lineStart, commentStart(text, lineStart, end), lineNo, card.tokens, problems);
     current = card;
   }
   flush();
 }
 
-/** Collects raw lines from the `.control` line through `.endc`; returns the index of the last line consumed. */
-function captureControl(lines: string[], from: number, visit: CardVisitor): number {
-  let li = from + 1;
+/**
+ * Collects raw lines from the `.control` line (at `start`) through `.endc`; returns the offset just
+ * past the last line consumed and how many lines after the `.control` line it consumed.
+ */
+function captureControl(text: string, start: number, next: number, lineNo: number, visit: CardVisitor): { pos: number; lines: number } {
+  const n = text.length;
+  let pos = next;
+  let lines = 0;
   let terminated = false;
-  for (; li < lines.length; li++) {
-    if (/^\s*\.endc\b/i.test(lines[li])) {
+  let last = Math.min(next - 1, n); // end of the .control line itself
+  while (pos <= n) {
+    let end = text.indexOf('\n', pos);
+    if (end < 0) end = n;
+    last = end;
+    lines++;
+    const isEnd = /^\s*\.endc\b/i.test(text.slice(pos, end));
+    pos = end + 1;
+    if (isEnd) {
       terminated = true;
       break;
     }
   }
-  const last = Math.min(li, lines.length - 1);
-  visit.controlBlock(lines.slice(from, last + 1).join('\n'), from + 1, terminated);
-  return last;
+  visit.controlBlock(text.slice(start, last), lineNo, terminated);
+  return { pos, lines };
 }

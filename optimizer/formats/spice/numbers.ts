@@ -16,6 +16,7 @@ const SUFFIX: Record<string, number> = {
 
 /** The value of a SPICE number, or undefined when the text is not one. */
 export function parseSpiceNumber(text: string): number | undefined {
+  if (text.length > 0 && text.length < 16 && allDigits(text)) return Number(text);
   const m = NUMBER.exec(text);
   if (!m) return undefined;
   const base = Number(m[1]);
@@ -27,6 +28,15 @@ export function parseSpiceNumber(text: string): number | undefined {
   else if (letters.length > 0 && SUFFIX[letters[0]] !== undefined) scale = SUFFIX[letters[0]];
   const v = base * scale;
   return Number.isFinite(v) ? v : undefined;
+}
+
+/** Plain unsigned integers (most values in a deck) need no pattern match: 15 digits are exact. */
+function allDigits(text: string): boolean {
+  for (let i = 0; i < text.length; i++) {
+    const c = text.charCodeAt(i);
+    if (c < 48 || c > 57) return false;
+  }
+  return true;
 }
 
 /** Shortest text that reads back to exactly the same number. */

@@ -59,8 +59,8 @@ function sortDiagnostics(d: Diagnostic[]): Diagnostic[] {
 type Report = (severity: Diagnostic['severity'], code: string, message: string, loc?: SourceLoc) => void;
 
 function read(text: string, file: string, report: Report, at: (t: { line: number; col: number }) => SourceLoc): Design {
-  const lines = text.split('\n');
-  const title = (lines[0] ?? '').replace(/\r$/, '').trim();
+  const firstBreak = text.indexOf('\n');
+  const title = (firstBreak < 0 ? text : text.slice(0, firstBreak)).replace(/\r$/, '').trim();
   if (text.trim() === '') report('error', 'spice.empty', 'the deck is empty (its first line is the title)', { file, line: 1, col: 1 });
   const problems: TokenizeProblem[] = [];
   const flushProblems = () => {
@@ -74,7 +74,7 @@ function read(text: string, file: string, report: Report, at: (t: { line: number
   const paramLoc = new Map<string, SourceLoc>();
   let ended = false;
   forEachCard(
-    lines,
+    text,
     {
       card(card) {
         if (ended) return;
@@ -97,9 +97,9 @@ function read(text: string, file: string, report: Report, at: (t: { line: number
   let current = top;
   let ended2 = false;
   let endLine = 0;
-  const ctx: ElementContext = { models, params, report, at };
+  const ctx: ElementContext = { models, params, report, at, nets: new Map() };
   forEachCard(
-    lines,
+    text,
     {
       card(card) {
         if (ended2) {

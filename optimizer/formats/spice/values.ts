@@ -3,9 +3,21 @@
 import { GROUND } from '../../netlist/ir';
 import { parseSpiceNumber } from './numbers';
 
+/**
+ * Upper case, without the library call when there is nothing to change (names in large decks are
+ * mostly written in capitals already, and the call costs more than the scan).
+ */
+export function upper(text: string): string {
+  for (let i = 0; i < text.length; i++) {
+    const c = text.charCodeAt(i);
+    if ((c >= 97 && c <= 122) || c > 127) return text.toUpperCase();
+  }
+  return text;
+}
+
 /** Net names are case-insensitive; ground is "0" and GND is its alias. */
 export function netName(text: string): string {
-  const u = text.toUpperCase();
+  const u = upper(text);
   return u === 'GND' ? GROUND : u;
 }
 
@@ -13,8 +25,13 @@ export function netName(text: string): string {
 export function numericValue(text: string, params: Record<string, number>): number | undefined {
   let s = text;
   if ((s.startsWith('{') && s.endsWith('}')) || (s.length > 1 && s.startsWith("'") && s.endsWith("'"))) s = s.slice(1, -1).trim();
-  const p = params[s.toUpperCase()];
-  if (p !== undefined) return p;
+  // .param names start with a letter or _ (read.ts checks), so a number never names one
+  const c0 = s.charCodeAt(0);
+  const numberLike = (c0 >= 48 && c0 <= 57) || c0 === 46 || c0 === 43 || c0 === 45;
+  if (!numberLike) {
+    const p = params[upper(s)];
+    if (p !== undefined) return p;
+  }
   return parseSpiceNumber(s);
 }
 
