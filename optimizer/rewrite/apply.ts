@@ -26,7 +26,15 @@ export function assertNoOverlap(proposals: Proposal[]): void {
   }
 }
 
-export function applyProposals(nl: FlatNetlist, proposals: Proposal[]): FlatNetlist {
+export interface ApplyOptions {
+  /**
+   * Let the result share unchanged devices' parameter and path objects with the input (a proof's
+   * throw-away copy of a frozen design); by default everything is copied so the result is free.
+   */
+  share?: boolean;
+}
+
+export function applyProposals(nl: FlatNetlist, proposals: Proposal[], options: ApplyOptions = {}): FlatNetlist {
   assertNoOverlap(proposals);
   for (const p of proposals) {
     const problems = editProblems(nl, p.edit);
@@ -74,11 +82,13 @@ export function applyProposals(nl: FlatNetlist, proposals: Proposal[]): FlatNetl
   for (const p of proposals) for (const r of p.edit.reconnect) reconnect.set(r.device, [...(reconnect.get(r.device) ?? []), r]);
 
   const devices: FlatDevice[] = [];
+  const share = options.share === true;
   for (const d of nl.devices) {
     if (removed.has(d.name)) continue;
     const terminals = d.terminals.map(mapOld);
-    for (const r of reconnect.get(d.name) ?? []) terminals[r.terminal] = netOf(r.net);
-    devices.push({ ...d, terminals, params: { ...d.params }, path: [...d.path] });
+    const moved = reconnect.get(d.name);
+    if (moved) for (const r of moved) terminals[r.terminal] = netOf(r.net);
+    devices.push(share ? { ...d, terminals } : { ...d, terminals, params: { ...d.params }, path: [...d.path] });
   }
   for (const p of proposals) {
     for (const a of p.edit.addDevices) {

@@ -233,7 +233,7 @@ export function verifyProposal(
   // Work on the changed nets' fan-in cut out of the design, so a proof costs the region's size.
   const seeds = changed.filter((n) => before.view.nodeByNet.has(before.nl.netByName.get(n) ?? -1));
   const nl = regionOf(before.nl, before.view, seeds, p.edit);
-  const after = applyProposals(nl, [p]);
+  const after = applyProposals(nl, [p], { share: true });
   const used = assumptions.filter((a) => p.assumptions.includes(a.id));
   let problem: Problem | undefined;
   const problemNow = () => (problem ??= problemOf(nl, nl === before.nl ? before.view : extractLogic(nl), after, changed, used));
