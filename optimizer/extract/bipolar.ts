@@ -246,11 +246,32 @@ function pullDownNetwork(cx: ExtractContext, bases: BaseResolver, net: number, d
   for (let i = start; diodes && i < end; i++) {
     const dev = cx.nl.devices[termDev[i]];
     if (dev.kind !== 'diode' || termIdx[i] !== 0 || !isSteeringNode(cx, dev.terminals[1])) continue;
-    const rest = pullDownNetwork(cx, bases, dev.terminals[1], depth + 1, used);
+    const rest = steeredPullDown(cx, bases, dev.terminals[1], depth + 1, used);
     if (rest) branches.push(rest);
   }
   if (branches.length === 0) return undefined;
   return branches.length === 1 ? branches[0] : { type: 'parallel', parts: fit(branches) };
+}
+
+const steeredMemo = new WeakMap<ExtractContext, Map<string, { net: SwitchNetwork | undefined; used: number[] }>>();
+
+/**
+ * The pull-down of a common override node, worked out once per extraction: every line it steers
+ * asks for it, and walking the node's own terminals each time costs O(lines²) on a wide bank.
+ */
+function steeredPullDown(cx: ExtractContext, bases: BaseResolver, net: number, depth: number, used: number[]): SwitchNetwork | undefined {
+  let memo = steeredMemo.get(cx);
+  if (!memo) steeredMemo.set(cx, (memo = new Map()));
+  const key = `${net}:${depth}`;
+  const hit = memo.get(key);
+  if (hit) {
+    for (const d of hit.used) used.push(d);
+    return hit.net;
+  }
+  const mark = used.length;
+  const result = pullDownNetwork(cx, bases, net, depth, used);
+  memo.set(key, { net: result, used: used.slice(mark) });
+  return result;
 }
 
 /**
