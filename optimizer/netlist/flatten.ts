@@ -3,7 +3,7 @@
 // sources. Limits are checked on the memoised hierarchy before any device is copied.
 import { own } from './own';
 import { InputError } from '../errors';
-import { GROUND, type Cell, type Design, type FlatDevice, type FlatNet, type FlatNetlist, type Rail } from './ir';
+import { GROUND, type Cell, type Design, type Device, type FlatDevice, type FlatNet, type FlatNetlist, type Rail } from './ir';
 import { hierarchyStats } from './hierarchy';
 import { withDefaults, type Limits } from './limits';
 import { solveRails, type RailSource } from './rails';
@@ -86,27 +86,23 @@ export function flatten(design: Design, limits: Partial<Limits> = {}): FlatNetli
   while (frames.length > 0) {
     const f = frames.pop()!;
     const { cell, c, ids } = f;
+    const { devTermIds, devTermStart } = c;
     for (let k = 0; k < cell.devices.length; k++) {
       const d = cell.devices[k];
-      const local = c.devTerms[k];
-      const terminals = new Array<number>(local.length);
-      for (let i = 0; i < local.length; i++) terminals[i] = ids[local[i]];
-      const fd: FlatDevice = { name: f.prefix + d.name, kind: d.kind, terminals, params: d.params, path: f.path, cell: cell.name };
-      if (d.op !== undefined) fd.op = d.op;
-      if (d.value !== undefined) fd.value = d.value;
-      if (d.model !== undefined) fd.model = d.model;
-      if (d.waveform !== undefined) fd.waveform = d.waveform;
-      if (d.loc !== undefined) fd.loc = d.loc;
-      devices[nDev++] = fd;
+      const from = devTermStart[k];
+      const n = devTermStart[k + 1] - from;
+      const terminals = new Array<number>(n);
+      for (let i = 0; i < n; i++) terminals[i] = ids[devTermIds[from + i]];
+      devices[nDev++] = flatDevice(d, f.prefix + d.name, terminals, f.path, cell.name);
     }
     // Children pushed in reverse so devices come out in file order.
     for (let k = cell.instances.length - 1; k >= 0; k--) {
       const inst = cell.instances[k];
       const child = design.cells[inst.cell];
       const cc = compiledOf(child);
-      const conn = c.instConns[k];
-      const portIds = new Int32Array(conn.length);
-      for (let i = 0; i < conn.length; i++) portIds[i] = ids[conn[i]];
+      const from = c.instConnStart[k];
+      const portIds = new Int32Array(c.instConnStart[k + 1] - from);
+      for (let i = 0; i < portIds.length; i++) portIds[i] = ids[c.instConnIds[from + i]];
       const prefix = f.prefix + inst.name + '.';
       frames.push({ cell: child, c: cc, prefix, path: [...f.path, inst.name], ids: bind(cc, prefix, portIds) });
     }
@@ -123,8 +119,42 @@ interface CompiledCell {
   kinds: FlatNet['kind'][];
   /** Flat id of a local net that is global (ground, .global), else -1. */
   globalOf: Int32Array;
-  devTerms: Int32Array[];
-  instConns: Int32Array[];
+  /** Local net of every device terminal, packed: device k's are devTermIds[devTermStart[k] ..< devTermStart[k+1]]. */
+  devTermIds: Int32Array;
+  devTermStart: Int32Array;
+  /** The same for instance connections. */
+  instConnIds: Int32Array;
+  instConnStart: Int32Array;
+}
+
+/**
+ * A flat device with every field of its source device. The common shapes are written as whole
+ * literals (same key order as adding the optional fields one by one) so a million devices carry
+ * no separate property store each.
+ */
+function flatDevice(d: Device, name: string, terminals: number[], path: string[], cell: string): FlatDevice {
+  const { kind, params, loc } = d;
+  if (d.op === undefined && d.waveform === undefined && loc !== undefined) {
+    if (d.model === undefined && d.value !== undefined) return { name, kind, terminals, params, path, cell, value: d.value, loc };
+    if (d.model !== undefined && d.value === undefined) return { name, kind, terminals, params, path, cell, model: d.model, loc };
+  }
+  const fd: FlatDevice = { name, kind, terminals, params, path, cell };
+  if (d.op !== undefined) fd.op = d.op;
+  if (d.value !== undefined) fd.value = d.value;
+  if (d.model !== undefined) fd.model = d.model;
+  if (d.waveform !== undefined) fd.waveform = d.waveform;
+  if (loc !== undefined) fd.loc = loc;
+  return fd;
+}
+
+/** Local net indices of some name lists, packed into one array with start offsets. */
+function pack(lists: string[][], idx: (n: string) => number): { ids: Int32Array; start: Int32Array } {
+  const start = new Int32Array(lists.length + 1);
+  for (let k = 0; k < lists.length; k++) start[k + 1] = start[k] + lists[k].length;
+  const ids = new Int32Array(start[lists.length]);
+  let at = 0;
+  for (const l of lists) for (let i = 0; i < l.length; i++) ids[at++] = idx(l[i]);
+  return { ids, start };
 }
 
 function compileCell(cell: Cell, globals: Map<string, number>): CompiledCell {
@@ -145,10 +175,17 @@ function compileCell(cell: Cell, globals: Map<string, number>): CompiledCell {
     const dup = cell.ports.find((p, i) => cell.ports.indexOf(p) !== i);
     throw InputError.at('netlist.duplicate-port', `port ${dup} is listed twice in ${cell.name}`, cell.loc);
   }
-  const devTerms = cell.devices.map((d) => Int32Array.from(d.terminals, idx));
-  const instConns = cell.instances.map((i) => Int32Array.from(i.connections, idx));
+  const dev = pack(
+    cell.devices.map((d) => d.terminals),
+    idx,
+  );
+  const inst = pack(
+    cell.instances.map((i) => i.connections),
+    idx,
+  );
   const globalOf = Int32Array.from(nets, (n) => globals.get(n) ?? -1);
-  return { nets, portCount, kinds: nets.map((n) => own(cell.netKinds, n)), globalOf, devTerms, instConns };
+  const kinds = cell.netKinds === undefined ? new Array<FlatNet['kind']>(nets.length).fill(undefined) : nets.map((n) => own(cell.netKinds, n));
+  return { nets, portCount, kinds, globalOf, devTermIds: dev.ids, devTermStart: dev.start, instConnIds: inst.ids, instConnStart: inst.start };
 }
 
 function rails(devices: FlatDevice[], nets: FlatNet[]): Rail[] {
