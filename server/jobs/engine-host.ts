@@ -5,8 +5,8 @@
 // the worker process beyond that outcome; a stopped or dead thread is replaced by a fresh one.
 import path from 'node:path';
 import { Worker } from 'node:worker_threads';
-import type { Minimiser } from '@/optimizer/logic/minimiser';
-import type { EngineFailure, EngineJob, EngineResult, HostMessage, ThreadMessage } from '@/server/jobs/engine-protocol';
+import { minimiseAll, type Minimiser } from '@/optimizer/logic/minimiser';
+import { wireError, type EngineFailure, type EngineJob, type EngineResult, type HostMessage, type ThreadMessage } from '@/server/jobs/engine-protocol';
 
 /** The thread's entry: a CommonJS file, so it can set up TypeScript loading before the engine. */
 export const ENGINE_ENTRY = path.join(__dirname, 'engine-thread.cjs');
@@ -64,12 +64,10 @@ class EngineThread {
             reply({ type: 'minimise-failed', id: m.id, error: { name: 'Error', message: 'no minimiser in this worker' } });
             break;
           }
-          opts.minimiser.minimiseCover(m.fn, m.options).then(
-            (result) => reply({ type: 'minimised', id: m.id, result }),
-            (err: unknown) => {
-              const e = err instanceof Error ? err : new Error(String(err));
-              reply({ type: 'minimise-failed', id: m.id, error: { name: e.name, message: e.message, reason: (e as { reason?: string }).reason } });
-            },
+          // Batched when the pool can batch, one by one otherwise; each function fails on its own.
+          minimiseAll(opts.minimiser, m.fns, m.options).then(
+            (outcomes) => reply({ type: 'minimised', id: m.id, outcomes: outcomes.map((o) => (o.ok ? o : { ok: false, error: wireError(o.error) })) }),
+            (err: unknown) => reply({ type: 'minimise-failed', id: m.id, error: wireError(err) }),
           );
           break;
         case 'result':

@@ -44,12 +44,23 @@ export type EngineFailure = { input: boolean; name: string; message: string; sta
 export type ThreadMessage =
   /** Sent as a stage starts, with the times of the stages finished so far. */
   | { type: 'stage'; name: string; progress: number; timings: Record<string, number> }
-  | { type: 'minimise'; id: number; fn: TruthTable; options?: MinimiseOptions }
+  /** A batch of functions for the main thread's minimiser (one call, as the rules batch them). */
+  | { type: 'minimise'; id: number; fns: TruthTable[]; options?: MinimiseOptions }
   /** `heapMb`: the thread's heap in use after the job (the host retires a thread that grew large). */
   | { type: 'result'; result: EngineResult; heapMb: number }
   | { type: 'error'; error: EngineFailure; timings: Record<string, number>; heapMb: number };
 
 export type HostMessage =
   | { type: 'job'; job: EngineJob }
-  | { type: 'minimised'; id: number; result: MinimiseResult }
-  | { type: 'minimise-failed'; id: number; error: { name: string; message: string; reason?: string } };
+  | { type: 'minimised'; id: number; outcomes: WireOutcome[] }
+  | { type: 'minimise-failed'; id: number; error: WireError };
+
+/** An error as data; `reason` is the Espresso pool's failure kind when it has one. */
+export type WireError = { name: string; message: string; reason?: string };
+export type WireOutcome = { ok: true; result: MinimiseResult } | { ok: false; error: WireError };
+
+export function wireError(err: unknown): WireError {
+  const e = err instanceof Error ? err : new Error(String(err));
+  const reason = (e as { reason?: unknown }).reason;
+  return { name: e.name, message: e.message, ...(typeof reason === 'string' ? { reason } : {}) };
+}

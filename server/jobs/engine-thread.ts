@@ -7,36 +7,43 @@ import { getHeapStatistics } from 'node:v8';
 import { flatten, InputError, readDesign } from '@/optimizer';
 import { extractLogic } from '@/optimizer/extract';
 import { parseExpr } from '@/optimizer/logic/expr-parse';
-import type { Minimiser, MinimiseResult } from '@/optimizer/logic/minimiser';
+import type { Minimiser, MinimiseOptions, MinimiseOutcome } from '@/optimizer/logic/minimiser';
+import type { TruthTable } from '@/optimizer/logic/truth-table';
 import { MinimiserError, type MinimiserFailure } from '@/optimizer/logic/espresso/pool';
 import { overlapGraph, type RuleErrorRecord } from '@/optimizer/rules/run-rules';
 import { scan as scanRules, type ScannedFinding } from '@/optimizer/rules/scan';
 import type { Assumption } from '@/optimizer/rules/types';
-import type { DevicePath, EngineFailure, EngineJob, EngineResult, HostMessage, ThreadMessage } from '@/server/jobs/engine-protocol';
+import type { DevicePath, EngineFailure, EngineJob, EngineResult, HostMessage, ThreadMessage, WireError, WireOutcome } from '@/server/jobs/engine-protocol';
 
 /**
  * The Espresso pool stays in the main thread and minimise calls are passed back to it, rather than
  * a pool created in here: the native minimiser runs in child processes, and a thread terminated on
  * cancel gets no chance to close its children, whereas the main thread's pool outlives every scan,
  * keeps its remembered covers across scans and is shared by concurrent scans. A call crosses the
- * thread boundary as plain data (the truth table's words and the cover back), cheap beside the
- * child-process round trip it is already paying for.
+ * thread boundary as plain data (the truth tables' words and the covers back), a whole batch per
+ * message, cheap beside the child-process round trip it is already paying for.
  */
 class HostCalls {
   private nextId = 1;
-  private readonly pending = new Map<number, { resolve: (r: MinimiseResult) => void; reject: (e: Error) => void }>();
+  private readonly pending = new Map<number, { resolve: (r: WireOutcome[]) => void; reject: (e: Error) => void }>();
 
   constructor(private readonly port: MessagePort) {}
 
   minimiser(name: string): Minimiser {
+    const many = (fns: readonly TruthTable[], options?: MinimiseOptions) =>
+      new Promise<WireOutcome[]>((resolve, reject) => {
+        const id = this.nextId++;
+        this.pending.set(id, { resolve, reject });
+        this.port.postMessage({ type: 'minimise', id, fns: [...fns], options } satisfies ThreadMessage);
+      }).then((outcomes) => outcomes.map((o): MinimiseOutcome => (o.ok ? o : { ok: false, error: errorOf(o.error) })));
     return {
       name,
-      minimiseCover: (fn, options) =>
-        new Promise<MinimiseResult>((resolve, reject) => {
-          const id = this.nextId++;
-          this.pending.set(id, { resolve, reject });
-          this.port.postMessage({ type: 'minimise', id, fn, options } satisfies ThreadMessage);
-        }),
+      minimiseMany: many,
+      async minimiseCover(fn, options) {
+        const [outcome] = await many([fn], options);
+        if (!outcome!.ok) throw outcome!.error;
+        return outcome!.result;
+      },
     };
   }
 
@@ -44,11 +51,17 @@ class HostCalls {
     const p = this.pending.get(m.id);
     if (!p) return;
     this.pending.delete(m.id);
-    if (m.type === 'minimised') p.resolve(m.result);
-    // The rules read only the message; the pool's failures keep their class and reason.
-    else if (m.error.name === 'MinimiserError') p.reject(new MinimiserError((m.error.reason ?? 'crashed') as MinimiserFailure, m.error.message));
-    else p.reject(new Error(m.error.message));
+    if (m.type === 'minimised') p.resolve(m.outcomes);
+    else p.reject(errorOf(m.error));
   }
+}
+
+/** The rules read only the message; the pool's failures keep their class and reason. */
+function errorOf(e: WireError): Error {
+  if (e.name === 'MinimiserError') return new MinimiserError((e.reason ?? 'crashed') as MinimiserFailure, e.message);
+  const err = new Error(e.message);
+  err.name = e.name;
+  return err;
 }
 
 /** A synchronous wait: the test knob must block this thread the way a long engine stage does. */

@@ -2,13 +2,16 @@
 // stage: the stage-delay knob (TRIMWIRE_SCAN_STAGE_DELAY_MS) blocks the engine thread synchronously,
 // as a long extraction or proof would, and meanwhile the heartbeat keeps moving and a cancel ends the
 // scan at once. A thread that throws, exits or runs out of memory fails only its scan; the worker
-// goes on to the next. A design the engine refuses fails with the engine's located message.
+// goes on to the next. A design the engine refuses fails with the engine's located message. The
+// thread loads TypeScript both under vitest (in-process workers) and under tsx (a worker process).
+import { spawn } from 'node:child_process';
 import path from 'node:path';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { startWorker, type RunningWorker, type WorkerOptions } from '@/server/jobs/worker';
 import { roleEmail, signIn, startHarness, TEST_DATABASE_URL, type Client, type Harness } from './support/harness';
 import { demoDeck, settle, upload } from './support/workflow';
 
+const ROOT = path.resolve(__dirname, '../..');
 const MISBEHAVING_ENGINE = path.join(__dirname, 'support/misbehaving-engine.cjs');
 const DECK = 'wren8-decoder.cir';
 /** Two quick rules keep the many-stage tests short; every stage still goes through the thread. */
@@ -36,8 +39,11 @@ describe('scan engine thread', () => {
   let designId = '';
   let worker: RunningWorker | undefined;
 
-  const startScan = async (id = designId, rules: string[] | undefined = RULES) =>
-    (await designer.agent.post(`/api/designs/${id}/scans`).set('X-CSRF-Token', designer.csrf).send(rules ? { rules } : {}).expect(202)).body.id as string;
+  const startScan = async (id = designId, rules: string[] | undefined = RULES) => {
+    const res = await designer.agent.post(`/api/designs/${id}/scans`).set('X-CSRF-Token', designer.csrf).send(rules ? { rules } : {});
+    expect(res.status, JSON.stringify(res.body)).toBe(202);
+    return res.body.id as string;
+  };
   const row = (id: string) => h.db.models.Scan.findByPk(id);
   const work = async (settings: WorkerOptions['settings'], engineEntry?: string) => {
     worker = await startWorker({
@@ -61,6 +67,26 @@ describe('scan engine thread', () => {
   });
   afterAll(async () => {
     await h?.close();
+  });
+
+  // First: the models are bound to the database the last worker opened, so this test runs before any
+  // in-process worker is started and stopped.
+  it('runs the engine thread in a worker process started with tsx, as npm start starts it', async () => {
+    const child = spawn(path.join(ROOT, 'node_modules/.bin/tsx'), ['server/jobs/worker.ts'], {
+      cwd: ROOT,
+      detached: true, // its own process group, so the kill below reaches tsx's node child too
+      stdio: 'ignore',
+      env: { ...process.env, NODE_ENV: 'test', DATABASE_URL: TEST_DATABASE_URL, SMTP_URL: 'smtp://127.0.0.1:1', TRIMWIRE_SCAN_SWEEP_MS: '600000' },
+    });
+    try {
+      const id = await startScan();
+      const done = await settle(designer, id, 90_000);
+      expect(done.status).toBe('done');
+      expect(done.progress).toBe(100);
+      expect((await row(id))!.timings).toHaveProperty('rule double-inversion');
+    } finally {
+      process.kill(-child.pid!, 'SIGKILL');
+    }
   });
 
   it('keeps writing heartbeats while a stage blocks the engine thread, and finishes', async () => {
