@@ -82,6 +82,11 @@ function emitterGrounded(cx: ExtractContext, net: number): boolean {
   return toGround;
 }
 
+/** Scratch lists of BaseResolver.resolve (not reentrant: resolving one base never resolves another). */
+const scratchInputs: number[] = [];
+const scratchResistors: BaseDrive['baseResistors'] = [];
+const scratchDevices: number[] = [];
+
 export class BaseResolver {
   private readonly cache: (BaseDrive | undefined)[];
   /** Nets absorbed into base networks (DTL diode nodes): part of a gate, not signals. */
@@ -105,15 +110,19 @@ export class BaseResolver {
   private resolve(transistor: number): BaseDrive {
     const cx = this.cx;
     const base = cx.nl.devices[transistor].terminals[B];
+    // The lists are gathered in shared scratch arrays; drive() keeps exact-size copies.
+    scratchInputs.length = 0;
+    scratchResistors.length = 0;
+    scratchDevices.length = 0;
     const drive: BaseDrive = {
       transistor,
       kind: 'direct',
-      inputs: [],
+      inputs: scratchInputs,
       on: TRUE,
-      baseResistors: [],
+      baseResistors: scratchResistors,
       inputDiodes: NONE,
       levelShiftDiodes: NONE,
-      devices: [],
+      devices: scratchDevices,
     };
     if (isRail(cx, base)) {
       drive.on = { op: 'const', value: isHighRail(cx, base) ? 1 : 0 };
