@@ -66,9 +66,10 @@ export function fanoutFreeCones(
 
   const cones: Cone[] = [];
   let mark = 0;
+  const seen = new Uint8Array(nodes.length);
   nodes.forEach((top, i) => {
     if (!combinational(top) || !root[i]) return;
-    const walked = coneFrom(i, nodes, byName, root, maxLeaves);
+    const walked = coneFrom(i, nodes, byName, root, seen, maxLeaves);
     if (!walked) return;
     const devices: number[] = [];
     for (const n of walked.nodes) {
@@ -129,25 +130,27 @@ function coneFrom(
   nodes: readonly LogicNode[],
   byName: ReadonlyMap<string, number>,
   root: Uint8Array,
+  walked: Uint8Array,
   maxLeaves: number,
 ): { nodes: LogicNode[]; leaves: Set<string> } | undefined {
   const inside: LogicNode[] = [];
   const leaves = new Set<string>();
-  const seen = new Set<string>();
   const stack: string[] = [nodes[start].name];
   while (stack.length) {
     const name = stack.pop()!;
-    if (seen.has(name)) continue; // a leaf read twice, or an uncut loop back to the root
-    seen.add(name);
     const i = byName.get(name);
     if (i === undefined || (i !== start && root[i])) {
       leaves.add(name);
       if (leaves.size > maxLeaves) return undefined;
       continue;
     }
+    // A node is walked once over all cones: it has one reader, so only this cone reaches it
+    // (and a second visit is an uncut loop back to the root).
+    if (walked[i]) continue;
+    walked[i] = 1;
     inside.push(nodes[i]);
     const deps = [...support(nodes[i].fn)];
-    for (let k = deps.length - 1; k >= 0; k--) if (!seen.has(deps[k])) stack.push(deps[k]);
+    for (let k = deps.length - 1; k >= 0; k--) stack.push(deps[k]);
   }
   return { nodes: inside, leaves };
 }
