@@ -98,4 +98,20 @@ describe('flatToDesign', () => {
     expect(d.cells[d.top].devices[3].terminals).toEqual(['XS0.LDN', 'XS0.B', '0']);
     expect(d.globals).toEqual(['0', 'VCC']);
   });
+
+  it('gives the same circuit, net by net name, when it keeps the input\'s net ids for a proof', () => {
+    const nl = sliceInverters(4);
+    const p = shareDriver();
+    p.edit.reconnect.push({ device: 'XS0.RB', terminal: 0, net: 'CLR' });
+    const plain = applyProposals(nl, [p]);
+    const shared = applyProposals(nl, [p], { share: true });
+    const wiring = (x: typeof nl) => x.devices.map((d) => [d.name, d.kind, d.value, d.terminals.map((t) => x.nets[t].name)]);
+    expect(wiring(shared)).toEqual(wiring(plain));
+    for (const n of nl.nets) expect(shared.nets[shared.netByName.get(n.name)!].name).toBe(plain.nets[plain.netByName.get(n.name)!].name);
+    expect(shared.rails.map((r) => shared.nets[r.net].name)).toEqual(plain.rails.map((r) => plain.nets[r.net].name));
+    // untouched devices are the input's own objects; the rewired one is a new object
+    expect(shared.devices.find((d) => d.name === 'XS0.Q1')).toBe(nl.devices.find((d) => d.name === 'XS0.Q1'));
+    expect(shared.devices.find((d) => d.name === 'XS0.RB')).not.toBe(nl.devices.find((d) => d.name === 'XS0.RB'));
+    expect(nl.devices).toHaveLength(13);
+  });
 });

@@ -28,8 +28,9 @@ export function assertNoOverlap(proposals: Proposal[]): void {
 
 export interface ApplyOptions {
   /**
-   * Let the result share unchanged devices' parameter and path objects with the input (a proof's
-   * throw-away copy of a frozen design); by default everything is copied so the result is free.
+   * For a proof's throw-away copy of a frozen design: keep the input's net ids (a net merged away
+   * stays as an entry nothing connects to, its name leading to the kept net) and reuse the input's
+   * device objects where nothing about them changes. By default everything is copied and renumbered.
    */
   share?: boolean;
 }
@@ -58,15 +59,19 @@ export function applyProposals(nl: FlatNetlist, proposals: Proposal[], options: 
       parent[gone] = keep;
     }
   }
-  const nets: FlatNet[] = [];
+  const share = options.share === true;
+  const nets: FlatNet[] = share ? [...nl.nets] : [];
   const newId = new Map<number, number>();
-  for (const n of nl.nets) {
-    if (find(n.id) !== n.id) continue;
-    newId.set(n.id, nets.length);
-    nets.push({ ...n, id: nets.length });
-  }
   const netByName = new Map<string, number>();
-  for (const n of nl.nets) netByName.set(n.name, newId.get(find(n.id))!);
+  if (share) for (const n of nl.nets) netByName.set(n.name, find(n.id));
+  else {
+    for (const n of nl.nets) {
+      if (find(n.id) !== n.id) continue;
+      newId.set(n.id, nets.length);
+      nets.push({ ...n, id: nets.length });
+    }
+    for (const n of nl.nets) netByName.set(n.name, newId.get(find(n.id))!);
+  }
   const netOf = (name: string): number => {
     const found = netByName.get(name);
     if (found !== undefined) return found;
@@ -75,18 +80,21 @@ export function applyProposals(nl: FlatNetlist, proposals: Proposal[], options: 
     netByName.set(name, id);
     return id;
   };
-  const mapOld = (id: number) => newId.get(find(id))!;
+  const mapOld = share ? find : (id: number) => newId.get(find(id))!;
 
   const removed = new Set(proposals.flatMap((p) => p.edit.removeDevices));
   const reconnect = new Map<string, { terminal: number; net: string }[]>();
   for (const p of proposals) for (const r of p.edit.reconnect) reconnect.set(r.device, [...(reconnect.get(r.device) ?? []), r]);
 
   const devices: FlatDevice[] = [];
-  const share = options.share === true;
   for (const d of nl.devices) {
     if (removed.has(d.name)) continue;
-    const terminals = d.terminals.map(mapOld);
     const moved = reconnect.get(d.name);
+    if (share && !moved && d.terminals.every((t) => parent[t] === t)) {
+      devices.push(d);
+      continue;
+    }
+    const terminals = d.terminals.map(mapOld);
     if (moved) for (const r of moved) terminals[r.terminal] = netOf(r.net);
     devices.push(share ? { ...d, terminals } : { ...d, terminals, params: { ...d.params }, path: [...d.path] });
   }
