@@ -106,5 +106,20 @@ describe('engine thread pool', () => {
     expect(Date.now() - started).toBeLessThan(5_000);
     const next = result(await p.run(job({ rules: ['constant-input'] }), () => undefined).outcome);
     expect(next.timings).toHaveProperty('rule constant-input');
+    // A stop that comes after its job ended leaves the thread's next job alone.
+    run.stop();
+    const after = p.run(job({ rules: ['constant-input'], stageDelayMs: 300 }), () => undefined);
+    run.stop();
+    expect(result(await after.outcome).timings).toHaveProperty('rule constant-input');
+  });
+
+  it('stops the running job when the pool closes, and runs nothing after', async () => {
+    const p = pool();
+    let started = false;
+    const run = p.run(job({ stageDelayMs: 30_000 }), () => void (started = true));
+    while (!started) await new Promise((r) => setTimeout(r, 20));
+    p.close();
+    expect(await run.outcome).toEqual({ kind: 'stopped' });
+    expect(await p.run(job(), () => undefined).outcome).toEqual({ kind: 'stopped' });
   });
 });

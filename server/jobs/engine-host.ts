@@ -109,6 +109,7 @@ class EngineThread {
 
 export class EnginePool {
   private readonly idle: EngineThread[] = [];
+  private readonly busy = new Set<EngineRun>();
   private closed = false;
 
   constructor(private readonly opts: EnginePoolOptions) {
@@ -117,7 +118,8 @@ export class EnginePool {
   }
 
   run(job: EngineJob, onStage: Job['onStage']): EngineRun {
-    if (this.closed) return { outcome: Promise.resolve({ kind: 'crashed', message: 'the worker is shutting down' }), stop: () => undefined };
+    // A worker shutting down leaves the scan to the sweeper rather than failing it.
+    if (this.closed) return { outcome: Promise.resolve({ kind: 'stopped' }), stop: () => undefined };
     let thread: EngineThread;
     try {
       thread = this.idle.pop() ?? new EngineThread(this, this.opts);
@@ -129,7 +131,7 @@ export class EnginePool {
     let settle: (o: EngineOutcome) => void = () => undefined;
     const outcome = new Promise<EngineOutcome>((resolve) => (settle = resolve));
     let settled = false;
-    thread.job = {
+    const current: Job = {
       onStage: (name, progress, timings) => {
         if (!settled) onStage(name, progress, timings);
       },
@@ -137,20 +139,30 @@ export class EnginePool {
         if (settled) return;
         settled = true;
         thread.job = undefined;
+        this.busy.delete(run);
         if (keepThread && !thread.dead) this.release(thread);
         else thread.end();
         this.fill();
         settle(o);
       },
     };
+    thread.job = current;
+    // Bound to this job: once it has ended, stop() is a no-op even if the thread runs another job.
+    const run: EngineRun = { outcome, stop: () => current.finish({ kind: 'stopped' }, false) };
+    this.busy.add(run);
     thread.worker.postMessage({ type: 'job', job: { ...job, minimiser: this.opts.minimiser ? this.opts.minimiser.name : null } } satisfies HostMessage);
-    return { outcome, stop: () => thread.job?.finish({ kind: 'stopped' }, false) };
+    return run;
   }
 
-  /** Ends the idle threads now; a busy one ends when its job does. */
+  /**
+   * Ends every thread now. The worker closes its pool after the queue's graceful stop, so a job
+   * still running then is stopped: its scan keeps a heartbeat that goes stale, and the sweeper
+   * hands it to another worker.
+   */
   close(): void {
     this.closed = true;
     for (const t of this.idle.splice(0)) t.end();
+    for (const r of [...this.busy]) r.stop();
   }
 
   /** Called by a thread that died or was ended: it is no longer offered. */
