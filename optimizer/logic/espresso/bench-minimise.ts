@@ -37,10 +37,10 @@ const cpuMs = () => {
 
 /** Sizes measured: functions per batch and repetitions (best kept), fewer where one call is long. */
 const SIZES = [
-  { n: 8, batch: 64, reps: 15 },
-  { n: 10, batch: 32, reps: 10 },
-  { n: 12, batch: 8, reps: 5 },
-  { n: 14, batch: 3, reps: 3 },
+  { n: 8, batch: 64, reps: 30 },
+  { n: 10, batch: 32, reps: 15 },
+  { n: 12, batch: 8, reps: 6 },
+  { n: 14, batch: 3, reps: 5 },
 ];
 
 interface Times {
