@@ -2,7 +2,7 @@
 // local function is substituted into its readers (memoised, so shared logic stays shared). State
 // bits are cut: a latch net is a pseudo input (its value) and a pseudo output `<net>@next`.
 import { substitute, support, v, type Expr } from '../logic/expr';
-import type { LogicView } from './types';
+import type { LogicNode, LogicView } from './types';
 
 export const NEXT_SUFFIX = '@next';
 /** Suffix of the pseudo output that says when a tri-state or pass net is driven. */
@@ -19,8 +19,21 @@ export interface CombinationalModel {
  * @param outputs nets to express; by default every driven net nothing else reads, plus every
  *   state bit's next state. Tri-state/pass nets also get `<net>@en`.
  */
+const byNameCache = new WeakMap<LogicView, Map<string, LogicNode>>();
+
+/** Nodes by net name; kept for a frozen view (a scan's, asked for models many times), which cannot change. */
+function nodesByName(view: LogicView): Map<string, LogicNode> {
+  if (!Object.isFrozen(view.nodes)) return new Map(view.nodes.map((n) => [n.name, n]));
+  let m = byNameCache.get(view);
+  if (!m) {
+    m = new Map(view.nodes.map((n) => [n.name, n]));
+    byNameCache.set(view, m);
+  }
+  return m;
+}
+
 export function combinationalModel(view: LogicView, outputs?: string[]): CombinationalModel {
-  const byName = new Map(view.nodes.map((n) => [n.name, n]));
+  const byName = nodesByName(view);
   const state = new Set(view.stateBits);
   const memo = new Map<string, Expr>();
   const resolving = new Set<string>();

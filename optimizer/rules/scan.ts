@@ -75,7 +75,13 @@ function ownersOf(view: LogicView): Map<number, string[]> {
   let m = ownerCache.get(view);
   if (m) return m;
   m = new Map();
-  for (const node of view.nodes) for (const d of node.devices) m.set(d, [...(m.get(d) ?? []), node.name]);
+  for (const node of view.nodes) {
+    for (const d of node.devices) {
+      const list = m.get(d);
+      if (list) list.push(node.name);
+      else m.set(d, [node.name]);
+    }
+  }
   ownerCache.set(view, m);
   return m;
 }
