@@ -390,6 +390,9 @@ class DeviceSet {
 
 /** `used` of pullDownNetwork, reused: collector nodes do not read it. */
 const scratchUsed: number[] = [];
+/** Scratch lists of collectorNode: a group's devices and the node's; only exact-size copies are kept. */
+const scratchGroup: number[] = [];
+const scratchNode: number[] = [];
 
 const samePath = (p: string[], q: string[]): boolean => p === q || (p.length === q.length && p.every((x, i) => x === q[i]));
 
@@ -427,26 +430,32 @@ function collectorNode(cx: ExtractContext, bases: BaseResolver, net: number, ded
     const baseDrives = switches.map((s) => bases.drive(s));
     // a load belongs to the group of its own instance (paths compared as their dotted names)
     const key = entry.key;
-    const own = pullUps.filter((u) => {
-      const p = devs[u.device].path;
-      return p === entry.path || p.join('.') === (key ?? entry.path.join('.'));
-    });
     let dtl = false;
-    const groupDevices: number[] = switches.slice();
+    // gathered in a scratch list, kept as an exact-size copy
+    const groupDevices = scratchGroup;
+    groupDevices.length = 0;
+    for (const d of switches) groupDevices.push(d);
     for (const b of baseDrives) {
       if (b.kind === 'diode-and') dtl = true;
       for (const d of b.devices) groupDevices.push(d);
     }
-    for (const u of own) groupDevices.push(u.device);
+    let own = 0;
+    for (const u of pullUps) {
+      const p = devs[u.device].path;
+      if (p === entry.path || p.join('.') === (key ?? entry.path.join('.'))) {
+        groupDevices.push(u.device);
+        own++;
+      }
+    }
     groups.push({
       family: dtl ? 'dtl' : 'rtl',
       pullDown: network,
       pullsLow: networkCondition(network),
       pullsHigh: TRUE,
       bases: baseDrives,
-      devices: fit(groupDevices),
+      devices: groupDevices.slice(),
       path: commonPath(cx, switches),
-      openCollector: own.length === 0,
+      openCollector: own === 0,
     });
   }
   const pullsLow = groups.length === 1 ? groups[0].pullsLow : or(...groups.map((g) => g.pullsLow));
@@ -459,7 +468,8 @@ function collectorNode(cx: ExtractContext, bases: BaseResolver, net: number, ded
       message: `net ${netName(cx, net)} is pulled down but has no pull-up in this design; it needs one outside`,
     });
   }
-  const devices: number[] = [];
+  const devices = scratchNode;
+  devices.length = 0;
   dedup.begin();
   for (const g of groups) for (const d of g.devices) dedup.add(devices, d);
   for (const u of pullUps) dedup.add(devices, u.device);

@@ -7,7 +7,7 @@ import { makeContext } from './context';
 import { BaseResolver, extractBipolar } from './bipolar';
 import { extractMos } from './mos';
 import { extractGates } from './gates';
-import { markLoops } from './loops';
+import { markLoops, successors } from './loops';
 import type { DesignFamily, Family, LogicNode, LogicView } from './types';
 
 export type * from './types';
@@ -60,10 +60,11 @@ export function extractLogic(nl: FlatNetlist): LogicView {
     n.inputs = [...s];
     nodeByName.set(n.name, i);
   }
-  cx.diagnostics.push(...markLoops(nodes, nodeByName));
-
+  // one name lookup per fan-in: the loop search's successor lists and the design's inputs together
   const inputs = new Set<string>();
-  for (const n of nodes) for (const i of n.inputs) if (!nodeByName.has(i)) inputs.add(i);
+  const succ = successors(nodes, nodeByName, (name) => inputs.add(name));
+  cx.diagnostics.push(...markLoops(nodes, nodeByName, succ));
+
   const railNames = new Set(nl.rails.map((r) => nl.nets[r.net].name));
   for (const r of railNames) inputs.delete(r);
 

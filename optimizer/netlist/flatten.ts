@@ -183,7 +183,8 @@ function compileCell(cell: Cell, globals: Map<string, number>): CompiledCell {
     cell.instances.map((i) => i.connections),
     idx,
   );
-  const globalOf = Int32Array.from(nets, (n) => globals.get(n) ?? -1);
+  const globalOf = new Int32Array(nets.length);
+  for (let i = 0; i < nets.length; i++) globalOf[i] = globals.get(nets[i]) ?? -1;
   const kinds = cell.netKinds === undefined ? new Array<FlatNet['kind']>(nets.length).fill(undefined) : nets.map((n) => own(cell.netKinds, n));
   return { nets, portCount, kinds, globalOf, devTermIds: dev.ids, devTermStart: dev.start, instConnIds: inst.ids, instConnStart: inst.start };
 }

@@ -179,8 +179,8 @@ function semiconductor(card: Card, cell: Cell, ctx: ElementContext, name: string
   const p = args.positional;
   let nodes = -1;
   for (const n of spec.nodes) if (modelOf(p[n], ctx) !== undefined) nodes = n;
-  const counts = spec.nodes.join(' or ');
   if (nodes < 0) {
+    const counts = spec.nodes.join(' or ');
     const min = spec.nodes[0];
     if (p.length <= min) {
       // Too few tokens: the last one written is taken as the model name.
