@@ -26,12 +26,16 @@ const OptionsSchema = z.object({
 
 const FAMILIES: readonly MapFamily[] = ['rtl', 'dtl', 'cmos', 'nmos', 'gate'];
 
+/** The highest positive rail, which new gates' loads return to (none in a gate-level design). */
+function highRail(ctx: RuleContext) {
+  return [...ctx.netlist.rails].filter((r) => r.volts > 0).sort((a, b) => b.volts - a.volts)[0];
+}
+
 /** Values, models and rails for new gates, taken from the devices being replaced. */
-function emitContext(ctx: RuleContext, cone: Cone): EmitContext | undefined {
+function emitContext(ctx: RuleContext, cone: Cone, high: ReturnType<typeof highRail>): EmitContext | undefined {
   const nl = ctx.netlist;
   const devs = cone.devices.map((d) => nl.devices[d]);
   const modelOf = (kind: string) => devs.find((d) => d.kind === kind)?.model;
-  const high = [...nl.rails].filter((r) => r.volts > 0).sort((a, b) => b.volts - a.volts)[0];
   const pullUp = cone.nodes.find((n) => n.pullUp?.ohms)?.pullUp;
   if (!high && cone.root.family !== 'gate') return undefined;
   const bases = cone.nodes.flatMap((n) => n.groups.flatMap((g) => g.bases));
@@ -61,7 +65,6 @@ function emitContext(ctx: RuleContext, cone: Cone): EmitContext | undefined {
 interface Candidate {
   cone: Cone;
   family: MapFamily;
-  cx: EmitContext;
   usable: Assumption[];
   plain: number;
   assumed?: number;
@@ -105,6 +108,7 @@ export const twoLevelMinimise = defineRule({
     const view = ctx.view;
     const ports = new Set(nl.ports.map((p) => nl.nets[p].name));
     const readers = readersOf(view);
+    const high = highRail(ctx);
     const failed = (cone: Cone, err: unknown) =>
       ctx.reportError(cone.root.name, `could not minimise the block driving ${cone.root.name}: ${err instanceof Error ? err.message : String(err)}`);
 
@@ -124,8 +128,8 @@ export const twoLevelMinimise = defineRule({
       if (cone.leaves.length < 2) continue;
       const family = cone.root.family;
       if (!FAMILIES.includes(family) || cone.nodes.some((n) => n.family !== family)) continue;
-      const cx = emitContext(ctx, cone);
-      if (!cx) continue;
+      // New gates need a supply rail (emitContext's only refusal, checked before any work).
+      if (!high && family !== 'gate') continue;
       const leafSet = new Set(cone.leaves);
       const usable = ctx.assumptions.filter((a) => [...support(a.expr)].every((x) => leafSet.has(x)));
       let plain: TruthTable;
@@ -138,13 +142,13 @@ export const twoLevelMinimise = defineRule({
         failed(cone, err);
         continue;
       }
-      batch.push({ cone, family, cx, usable, plain: tables.push(plain) - 1, ...(assumed ? { assumed: tables.push(assumed) - 1 } : {}) });
+      batch.push({ cone, family, usable, plain: tables.push(plain) - 1, ...(assumed ? { assumed: tables.push(assumed) - 1 } : {}) });
       words += (assumed ? 8 : 4) * plain.outputs[0].on.length;
       if (words >= BATCH_WORDS) await flush();
     }
     if (batch.length) await flush();
 
-    function report({ cone, family, cx, usable }: Candidate, plainOutcome: MinimiseOutcome, assumedOutcome: MinimiseOutcome | undefined): void {
+    function report({ cone, family, usable }: Candidate, plainOutcome: MinimiseOutcome, assumedOutcome: MinimiseOutcome | undefined): void {
       let plain;
       let assumed;
       try {
@@ -161,6 +165,8 @@ export const twoLevelMinimise = defineRule({
       const pick = assumed && (!plain || assumed.network.parts.transistors + assumed.network.parts.resistors + assumed.network.parts.diodes <
         plain.network.parts.transistors + plain.network.parts.resistors + plain.network.parts.diodes) ? { ...assumed, relies: usable } : plain && { ...plain, relies: [] as Assumption[] };
       if (!pick) return;
+      const cx = emitContext(ctx, cone, high);
+      if (!cx) return;
       let added;
       try {
         added = emitNetwork(pick.network, family, cx);
