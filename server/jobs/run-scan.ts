@@ -21,6 +21,7 @@ import { storeResults } from '@/server/jobs/store-results';
 export type RunScanDeps = {
   db: Db;
   workerId: string;
+  /** Serves the engine's minimise calls when no `engines` pool is given (a pool has its own). */
   minimiser?: Minimiser;
   mailer?: Mailer;
   publicUrl?: string;
@@ -101,26 +102,21 @@ export async function runScan(deps: RunScanDeps, scanId: string): Promise<RunOut
       engine.stop();
     }
   };
-  const watch = (sql: string) => {
-    let busy = false;
-    return () => {
-      if (busy || !engine) return;
-      busy = true;
-      db.sequelize
-        .query<{ cancel_requested: boolean }>(sql, { replacements: mine, type: QueryTypes.SELECT })
-        .then(judge, (err: unknown) => log('scan row check failed', err))
-        .finally(() => (busy = false));
-    };
+  let polling = false;
+  const pollCancel = () => {
+    if (polling || !engine) return;
+    polling = true;
+    db.sequelize
+      .query<{ cancel_requested: boolean }>(`SELECT cancel_requested FROM scans WHERE id = :id AND worker = :worker AND status = 'running'`, { replacements: mine, type: QueryTypes.SELECT })
+      .then(judge, (err: unknown) => log('cancel check failed', err))
+      .finally(() => (polling = false));
   };
   const beat = setInterval(() => {
     db.sequelize
       .query(`UPDATE scans SET heartbeat_at = now() WHERE id = :id AND worker = :worker AND status = 'running'`, { replacements: mine })
       .catch((err: unknown) => log('heartbeat failed', err));
   }, deps.heartbeatMs ?? 5_000);
-  const poll = setInterval(
-    watch(`SELECT cancel_requested FROM scans WHERE id = :id AND worker = :worker AND status = 'running'`),
-    deps.cancelPollMs ?? 1_000,
-  );
+  const poll = setInterval(pollCancel, deps.cancelPollMs ?? 1_000);
 
   /** Writes stage and percent; the answer says whether the scan was cancelled or taken over. */
   const stageRow = (name: string, progress: number) =>
@@ -162,8 +158,10 @@ export async function runScan(deps: RunScanDeps, scanId: string): Promise<RunOut
     if (stopReason === 'cancelled') throw new Cancelled();
     if (stopReason === 'lost' || outcome.kind === 'stopped') throw new Lost();
     if (outcome.kind === 'crashed') throw new EngineFailed(`The scan failed: ${outcome.message}.`, false, outcome.cause);
-    if (outcome.kind === 'error') timings = outcome.timings;
-    if (outcome.kind === 'error') throw new EngineFailed(outcome.error.message, outcome.error.input, outcome.error.stack ?? outcome.error.message);
+    if (outcome.kind === 'error') {
+      timings = outcome.timings;
+      throw new EngineFailed(outcome.error.message, outcome.error.input, outcome.error.stack ?? outcome.error.message);
+    }
     const { result } = outcome;
     timings = result.timings;
     engine = undefined;
