@@ -6,23 +6,36 @@ import type { FlatDevice, FlatNet, FlatNetlist } from '../netlist/ir';
 import { deviceIndex } from '../rewrite/edits';
 import type { Edit } from './types';
 
-const indexCache = new WeakMap<FlatNetlist, { byName: Map<string, number>; sources: number[]; onNet: Map<number, number[]> }>();
+/** Device index by name, the sources, and the devices on each net (compressed rows: one typed list). */
+export interface DesignIndex {
+  byName: Map<string, number>;
+  sources: number[];
+  /** Devices on net n: onNetList[onNetStart[n] … onNetStart[n + 1]), each once, in design order. */
+  onNetStart: Int32Array;
+  onNetList: Int32Array;
+}
 
-/** Device index by name, the sources, and the devices on each net, built once per design. */
-export function indexOf(nl: FlatNetlist) {
+const indexCache = new WeakMap<FlatNetlist, DesignIndex>();
+
+/** Built once per design: two typed arrays rather than a list per net, so a large board stays small. */
+export function indexOf(nl: FlatNetlist): DesignIndex {
   let idx = indexCache.get(nl);
-  if (!idx) {
-    idx = { byName: deviceIndex(nl), sources: [], onNet: new Map() };
-    nl.devices.forEach((d, i) => {
-      if (d.kind === 'vsource') idx!.sources.push(i);
-      for (const t of new Set(d.terminals)) {
-        const list = idx!.onNet.get(t);
-        if (list) list.push(i);
-        else idx!.onNet.set(t, [i]);
-      }
-    });
-    indexCache.set(nl, idx);
-  }
+  if (idx) return idx;
+  const sources: number[] = [];
+  const start = new Int32Array(nl.nets.length + 1);
+  const distinct = (d: FlatDevice, k: number) => d.terminals.indexOf(d.terminals[k]) === k;
+  nl.devices.forEach((d, i) => {
+    if (d.kind === 'vsource') sources.push(i);
+    for (let k = 0; k < d.terminals.length; k++) if (distinct(d, k)) start[d.terminals[k] + 1]++;
+  });
+  for (let n = 0; n < nl.nets.length; n++) start[n + 1] += start[n];
+  const fill = start.slice(0, nl.nets.length);
+  const list = new Int32Array(start[nl.nets.length]);
+  nl.devices.forEach((d, i) => {
+    for (let k = 0; k < d.terminals.length; k++) if (distinct(d, k)) list[fill[d.terminals[k]]++] = i;
+  });
+  idx = { byName: deviceIndex(nl), sources, onNetStart: start, onNetList: list };
+  indexCache.set(nl, idx);
   return idx;
 }
 

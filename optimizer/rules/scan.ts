@@ -68,22 +68,31 @@ export interface ScanOptions extends RunOptions {
 const defaultVerifier: Verifier = (before, after, assumptions) =>
   checkEquivalence(before, after, { assumptions: assumptions.map((a) => ({ name: a.id, expr: a.expr })) });
 
-const ownerCache = new WeakMap<LogicView, Map<number, string[]>>();
+/** Logic nodes whose groups hold each device: the first in a typed list, any further ones aside. */
+interface Owners {
+  first: Int32Array;
+  more: Map<number, number[]>;
+}
 
-/** Device index → names of the driven nets whose groups contain it (built once per view). */
-function ownersOf(view: LogicView): Map<number, string[]> {
-  let m = ownerCache.get(view);
-  if (m) return m;
-  m = new Map();
-  for (const node of view.nodes) {
+const ownerCache = new WeakMap<LogicView, Owners>();
+
+/** Device index → nodes whose groups contain it (built once per view). */
+function ownersOf(view: LogicView, deviceCount: number): Owners {
+  let o = ownerCache.get(view);
+  if (o) return o;
+  o = { first: new Int32Array(deviceCount).fill(-1), more: new Map() };
+  view.nodes.forEach((node, i) => {
     for (const d of node.devices) {
-      const list = m.get(d);
-      if (list) list.push(node.name);
-      else m.set(d, [node.name]);
+      if (d < deviceCount && o!.first[d] < 0) o!.first[d] = i;
+      else {
+        const list = o!.more.get(d);
+        if (list) list.push(i);
+        else o!.more.set(d, [i]);
+      }
     }
-  }
-  ownerCache.set(view, m);
-  return m;
+  });
+  ownerCache.set(view, o);
+  return o;
 }
 
 /**
@@ -94,7 +103,7 @@ function ownersOf(view: LogicView): Map<number, string[]> {
  */
 function changedNets(nl: FlatNetlist, view: LogicView, p: Proposal): string[] {
   const names = new Set<string>();
-  const { byName: index, onNet } = indexOf(nl);
+  const { byName: index, onNetStart, onNetList } = indexOf(nl);
   const hit = new Set<number>();
   for (const name of [...p.edit.removeDevices, ...p.edit.reconnect.map((r) => r.device)]) {
     const i = index.get(name);
@@ -104,10 +113,13 @@ function changedNets(nl: FlatNetlist, view: LogicView, p: Proposal): string[] {
   }
   for (const m of p.edit.mergeNets) {
     const id = nl.netByName.get(m.remove);
-    for (const d of id === undefined ? [] : (onNet.get(id) ?? [])) hit.add(d);
+    if (id !== undefined) for (let k = onNetStart[id]; k < onNetStart[id + 1]; k++) hit.add(onNetList[k]);
   }
-  const owners = ownersOf(view);
-  for (const d of hit) for (const n of owners.get(d) ?? []) names.add(n);
+  const owners = ownersOf(view, nl.devices.length);
+  for (const d of hit) {
+    if (d < owners.first.length && owners.first[d] >= 0) names.add(view.nodes[owners.first[d]].name);
+    for (const i of owners.more.get(d) ?? []) names.add(view.nodes[i].name);
+  }
   for (const r of p.edit.reconnect) names.add(r.net);
   for (const d of p.edit.addDevices) for (const t of d.terminals) names.add(t);
   for (const m of p.edit.mergeNets) names.add(m.keep).add(m.remove);
