@@ -136,6 +136,9 @@ function coneFrom(
   const inside: LogicNode[] = [];
   const leaves = new Set<string>();
   const stack: string[] = [nodes[start].name];
+  // One support set and one list reused for every node (a set per node is most of the garbage).
+  const fanIn = new Set<string>();
+  const deps: string[] = [];
   while (stack.length) {
     const name = stack.pop()!;
     const i = byName.get(name);
@@ -149,7 +152,10 @@ function coneFrom(
     if (walked[i]) continue;
     walked[i] = 1;
     inside.push(nodes[i]);
-    const deps = [...support(nodes[i].fn)];
+    fanIn.clear();
+    support(nodes[i].fn, fanIn);
+    deps.length = 0;
+    for (const x of fanIn) deps.push(x);
     for (let k = deps.length - 1; k >= 0; k--) stack.push(deps[k]);
   }
   return { nodes: inside, leaves };
