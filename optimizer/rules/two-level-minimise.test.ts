@@ -214,6 +214,21 @@ describe('two-level-minimise: repeated blocks and batches', () => {
     expect(r.ruleErrors[0].message).toMatch(/could not minimise the block driving S1_Y: stopped after 10 ms/);
   });
 
+  it('tabulates a block thousands of gates deep without recursing through it', async () => {
+    // Y = NAND(…NAND(NAND(A, B), B)…, B), 5000 gates: nested as one expression it overflows the
+    // call stack; gate by gate it is a function of A and B like any other.
+    const depth = 5000;
+    const b = new NetlistBuilder('Wren-8 ripple strobe chain');
+    for (let k = 0; k < depth; k++) b.gate(`U${k}`, 'nand', [k === depth - 1 ? 'Y' : `N${k}`, k === 0 ? 'A' : `N${k - 1}`, 'B']);
+    const nl = b.build();
+    const r = await runRules(nl, extractLogic(nl), { rules: { [rule.id]: rule } });
+    expect(r.ruleErrors).toEqual([]);
+    expect(r.findings).toHaveLength(1);
+    // B = 0 gives 1; B = 1 inverts A 5000 times: Y = A + B'.
+    expect(r.findings[0].data).toMatchObject({ net: 'Y', inputs: 2, before: depth });
+    expect(String(r.findings[0].data.sop)).toMatch(/^(A \+ B'|B' \+ A)$/);
+  });
+
   it('gives the same findings with a minimiser that takes one function at a time', async () => {
     const single: Minimiser = { name: 'one-by-one', minimiseCover: (fn, o) => exactMinimiser.minimiseCover(fn, o) };
     const a = await runRules(gateSlices(), extractLogic(gateSlices()), { rules: { [rule.id]: rule }, minimiser: single });
