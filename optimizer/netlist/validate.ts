@@ -5,12 +5,18 @@ import { own } from './own';
 import type { Diagnostic } from '../errors';
 import { GROUND, type Cell, type Design } from './ir';
 import { solveRails, type RailSource } from './rails';
+import { NetUse } from './net-use';
 
 export interface ValidateOptions {
   /** What the format calls a cell: "subcircuit" (SPICE) or "module" (Verilog). */
   cellNoun?: string;
   /** Report transistors and diodes whose model is missing (SPICE decks need a .model card). */
   requireModels?: boolean;
+  /**
+   * Terminal counts per cell that the reader gathered while building the cells (they must match
+   * the cells' final ports, devices and instances); cells without one are counted here.
+   */
+  netUse?: ReadonlyMap<Cell, NetUse>;
 }
 
 const NEEDS_MODEL = new Set(['npn', 'pnp', 'nmos', 'pmos', 'diode']);
@@ -46,7 +52,7 @@ export function validateDesign(design: Design, opts: ValidateOptions = {}): Diag
         out.push({ severity: 'error', code: 'netlist.missing-model', message: `${d.name} needs a model`, loc: d.loc });
       }
     }
-    singleTerminalNets(cell, globals, cell.name === design.top, out);
+    singleTerminalNets(cell, globals, cell.name === design.top, out, opts.netUse?.get(cell));
   }
   out.push(...recursion(design, cellNames, noun));
   const top = own(design.cells, design.top);
@@ -75,31 +81,20 @@ function checkNames(cell: Cell, out: Diagnostic[]): void {
   }
 }
 
-function singleTerminalNets(cell: Cell, globals: Set<string>, isTop: boolean, out: Diagnostic[]): void {
-  // Each net numbered on first sight and counted in a typed array: one map probe per terminal.
-  const index = new Map<string, number>();
-  let counts = new Int32Array(1024);
-  const touch = (net: string) => {
-    let i = index.get(net);
-    if (i === undefined) {
-      i = index.size;
-      index.set(net, i);
-      if (i === counts.length) {
-        const grown = new Int32Array(counts.length * 2);
-        grown.set(counts);
-        counts = grown;
-      }
+function singleTerminalNets(cell: Cell, globals: Set<string>, isTop: boolean, out: Diagnostic[], given?: NetUse): void {
+  let use = given;
+  if (use === undefined) {
+    // Each net numbered on first sight and counted in a typed array: one map probe per terminal.
+    use = new NetUse(cell.ports);
+    for (const d of cell.devices) {
+      const ts = d.terminals;
+      for (let k = 0; k < ts.length; k++) use.touch(ts[k]);
     }
-    counts[i]++;
-  };
-  for (const p of cell.ports) touch(p);
-  for (const d of cell.devices) {
-    const ts = d.terminals;
-    for (let k = 0; k < ts.length; k++) touch(ts[k]);
+    for (const i of cell.instances) for (const t of i.connections) use.touch(t);
   }
-  for (const i of cell.instances) for (const t of i.connections) touch(t);
+  const counts = use.counts;
   const lonely = new Set<string>();
-  for (const [net, i] of index) if (counts[i] === 1 && !globals.has(net)) lonely.add(net);
+  for (const [net, i] of use.index) if (counts[i] === 1 && !globals.has(net)) lonely.add(net);
   if (lonely.size === 0) return;
   const ports = new Set(cell.ports);
   // A second walk finds where each lonely net is used; lonely nets are few, so this stays cheap.

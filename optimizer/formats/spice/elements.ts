@@ -3,6 +3,7 @@
 import type { Diagnostic } from '../../errors';
 import type { Cell, Device, DeviceKind, Model, ParamValue, SourceLoc } from '../../netlist/ir';
 import type { Card, Token } from './lines';
+import { NetUse } from '../../netlist/net-use';
 import { netName, numericValue, upper, valueOrText } from './values';
 
 export interface ElementContext {
@@ -11,10 +12,16 @@ export interface ElementContext {
   report: (severity: Diagnostic['severity'], code: string, message: string, loc?: SourceLoc) => void;
   at: (t: { line: number; col: number }) => SourceLoc;
   /**
-   * Net names met so far, each kept once: a large deck names the same nets on millions of cards,
-   * and one shared string per net keeps the design small (and lets the rest die young).
+   * Nets of each cell met so far, each name kept once (a large deck names the same nets on
+   * millions of cards: one shared string per net keeps the design small and lets the rest die
+   * young), with how many terminals touch each: validation reads these counts (NetUse).
    */
-  nets: Map<string, string>;
+  uses: Map<Cell, NetUse>;
+  /** The cell the last card was read into and its NetUse. */
+  cell?: Cell;
+  use?: NetUse;
+  /** Net indices the card being read has named so far; counted once its element is kept. */
+  pending: number[];
   /** The last model token looked up and its model: consecutive cards mostly name the same one. */
   lastModel?: { text: string; model: Model | undefined };
 }
@@ -29,13 +36,19 @@ function modelOf(t: Token | undefined, ctx: ElementContext): Model | undefined {
   return model;
 }
 
-/** The net a node token names (netName's rules), as the one shared string for that net. */
+/** The net a node token names (netName's rules), as the one shared string for that net in its cell. */
 function net(t: Token, ctx: ElementContext): string {
   const n = netName(t.text);
-  const seen = ctx.nets.get(n);
-  if (seen !== undefined) return seen;
-  ctx.nets.set(n, n);
-  return n;
+  const i = ctx.use!.add(n);
+  ctx.pending.push(i);
+  return ctx.use!.names[i];
+}
+
+/** Counts the nets the current card named: called just before its element joins the cell. */
+function keep(ctx: ElementContext): void {
+  const counts = ctx.use!.counts;
+  for (const i of ctx.pending) counts[i]++;
+  ctx.pending.length = 0;
 }
 
 const WAVEFORMS = new Set(['PULSE', 'PWL', 'SIN', 'EXP', 'SFFM', 'AM', 'TRNOISE', 'TRRANDOM']);
@@ -109,6 +122,16 @@ function value(t: Token, ctx: ElementContext, what: string): number | undefined 
 }
 
 export function readElement(card: Card, cell: Cell, ctx: ElementContext): void {
+  if (ctx.cell !== cell) {
+    let use = ctx.uses.get(cell);
+    if (use === undefined) {
+      use = new NetUse(cell.ports);
+      ctx.uses.set(cell, use);
+    }
+    ctx.cell = cell;
+    ctx.use = use;
+  }
+  ctx.pending.length = 0;
   const first = card.tokens[0];
   const name = upper(first.text);
   const letter = name[0];
@@ -163,7 +186,9 @@ function passive(card: Card, cell: Cell, ctx: ElementContext, name: string, kind
     ctx.report('error', 'spice.missing-value', `${name} needs a value`, loc);
     return;
   }
-  cell.devices.push({ name, kind, terminals: [net(p[0], ctx), net(p[1], ctx)], value: v, params, loc });
+  const terminals = [net(p[0], ctx), net(p[1], ctx)];
+  keep(ctx);
+  cell.devices.push({ name, kind, terminals, value: v, params, loc });
 }
 
 const SEMI = {
@@ -215,6 +240,7 @@ function semiconductor(card: Card, cell: Cell, ctx: ElementContext, name: string
   const terminals = new Array<string>(nodes);
   for (let i = 0; i < nodes; i++) terminals[i] = net(p[i], ctx);
   const device: Device = { name, kind, terminals, model: model.name, params, loc };
+  keep(ctx);
   cell.devices.push(device);
 }
 
@@ -281,6 +307,7 @@ function source(card: Card, cell: Cell, ctx: ElementContext, name: string, kind:
   if (dc !== undefined) device.value = dc;
   if (waveform !== undefined) device.waveform = waveform;
   if (dc === undefined && waveform === undefined && params.AC === undefined) device.value = 0;
+  keep(ctx);
   cell.devices.push(device);
 }
 
@@ -297,5 +324,7 @@ function instance(card: Card, cell: Cell, ctx: ElementContext, name: string, loc
     return;
   }
   const sub = p[p.length - 1].text.toUpperCase();
-  cell.instances.push({ name, cell: sub, connections: p.slice(0, -1).map((t) => net(t, ctx)), params: {}, loc });
+  const connections = p.slice(0, -1).map((t) => net(t, ctx));
+  keep(ctx);
+  cell.instances.push({ name, cell: sub, connections, params: {}, loc });
 }

@@ -5,6 +5,7 @@ import { describe, expect, it } from 'vitest';
 import { InputError, formatDiagnostic } from '@/optimizer/errors';
 import { readSpice, SPICE_TOP } from './read';
 import { parseSpiceNumber } from './numbers';
+import { validateDesign } from '@/optimizer/netlist/validate';
 
 const fixtures = path.resolve(__dirname, '../../../tests/fixtures/netlists');
 
@@ -162,5 +163,38 @@ describe('readSpice', () => {
     })();
     expect(e).toBeInstanceOf(InputError);
     expect(e!.diagnostics.length).toBeLessThanOrEqual(201);
+  });
+});
+
+describe('terminal counts gathered while reading', () => {
+  // The reader counts each cell's terminals as it reads them so validation need not walk the
+  // cells again; its warnings must be exactly those of a fresh count over the finished design.
+  const decks = [
+    't\nR1 a b 1k\nR2 b 0 1k\nR3 c 0 1k\n',
+    't\nX1 in out mid SUB\n.subckt SUB p q r\nR1 p n1 1k\nQ1 n1 q 0 QN\n.ends\nR9 in lone 1k\n.model QN NPN\nVCC in 0 DC 5\n',
+    't\n.global VCC\nVCC VCC 0 DC 5\n.subckt A x y\nR1 x VCC 1k\nR2 y dangling 1k\n.ends A\nX1 s1 s2 A\n.subckt B z\nX2 z z A\n.ends\nX3 s1 B\nR4 s2 0 1k\n',
+  ];
+  it.each(decks)('agrees with a fresh count on %j', (text) => {
+    const r = readSpice(text, 'd.cir');
+    const warnings = r.diagnostics.filter((d) => d.code.startsWith('netlist.')).map(formatDiagnostic);
+    const fresh = validateDesign(r.design, { cellNoun: 'subcircuit' })
+      .filter((d) => d.severity === 'warning')
+      .sort((a, b) => (a.loc?.line ?? 0) - (b.loc?.line ?? 0) || (a.loc?.col ?? 0) - (b.loc?.col ?? 0))
+      .map(formatDiagnostic);
+    expect(warnings.length).toBeGreaterThan(0);
+    expect(warnings).toEqual(fresh);
+  });
+
+  it('does not count the nets of a card that was refused', () => {
+    // V1's nets are named before its bad value is found; b must still be a single-terminal net
+    const e = (() => {
+      try {
+        readSpice('t\nR1 a b 1k\nV1 b 0 bogus\nR2 a 0 1k\n', 'd.cir');
+      } catch (err) {
+        return err as InputError;
+      }
+    })();
+    expect(e).toBeInstanceOf(InputError);
+    expect(e!.diagnostics.map(formatDiagnostic)).toContain('d.cir:2:1: warning: net B in (top) touches only one terminal');
   });
 });

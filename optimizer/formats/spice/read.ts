@@ -4,6 +4,7 @@
 import { InputError, type Diagnostic } from '../../errors';
 import { GROUND, type Cell, type Design, type Model, type SourceLoc } from '../../netlist/ir';
 import { validateDesign } from '../../netlist/validate';
+import type { NetUse } from '../../netlist/net-use';
 import { forEachCard, type Card, type Token, type TokenizeProblem } from './lines';
 import { netName, numericValue, valueOrText } from './values';
 import { readElement, type ElementContext } from './elements';
@@ -41,9 +42,9 @@ export function readSpice(text: string, file: string): ReadResult {
   };
   const at = (t: { line: number; col: number }): SourceLoc => ({ file, line: t.line, col: t.col });
   try {
-    const design = read(text, file, report, at);
+    const { design, netUse } = read(text, file, report, at);
     // Structural checks run even after card errors so one upload reports every problem at once.
-    for (const d of validateDesign(design, { cellNoun: 'subcircuit' })) report(d.severity, d.code, d.message, d.loc);
+    for (const d of validateDesign(design, { cellNoun: 'subcircuit', netUse })) report(d.severity, d.code, d.message, d.loc);
     if (errors > 0) throw new InputError(sortDiagnostics(diags));
     return { design, diagnostics: sortDiagnostics(diags) };
   } catch (e) {
@@ -58,7 +59,7 @@ function sortDiagnostics(d: Diagnostic[]): Diagnostic[] {
 
 type Report = (severity: Diagnostic['severity'], code: string, message: string, loc?: SourceLoc) => void;
 
-function read(text: string, file: string, report: Report, at: (t: { line: number; col: number }) => SourceLoc): Design {
+function read(text: string, file: string, report: Report, at: (t: { line: number; col: number }) => SourceLoc): { design: Design; netUse: Map<Cell, NetUse> } {
   const firstBreak = text.indexOf('\n');
   const title = (firstBreak < 0 ? text : text.slice(0, firstBreak)).replace(/\r$/, '').trim();
   if (text.trim() === '') report('error', 'spice.empty', 'the deck is empty (its first line is the title)', { file, line: 1, col: 1 });
@@ -97,7 +98,7 @@ function read(text: string, file: string, report: Report, at: (t: { line: number
   let current = top;
   let ended2 = false;
   let endLine = 0;
-  const ctx: ElementContext = { models, params, report, at, nets: new Map() };
+  const ctx: ElementContext = { models, params, report, at, uses: new Map(), pending: [] };
   forEachCard(
     text,
     {
@@ -168,7 +169,7 @@ function read(text: string, file: string, report: Report, at: (t: { line: number
   if (current !== top) {
     report('error', 'spice.unterminated-subckt', `.subckt ${current.name} has no .ends`, current.loc);
   }
-  return { title, format: 'spice', top: SPICE_TOP, cells, models, globals, params, extraCards };
+  return { design: { title, format: 'spice', top: SPICE_TOP, cells, models, globals, params, extraCards }, netUse: ctx.uses };
 }
 
 function readSubcktHeader(card: Card, cells: Record<string, Cell>, report: Report, at: (t: Token) => SourceLoc): Cell | null {

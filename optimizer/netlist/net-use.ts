@@ -1,0 +1,38 @@
+// How many terminals touch each net of one cell, nets numbered in first-seen order (ports first).
+// Validation's single-terminal check reads it; a reader that already walks every terminal can fill
+// it as it goes, so a large cell is not walked and hashed a second time.
+
+export class NetUse {
+  /** Net name → its number; iteration order is first-seen order. */
+  readonly index = new Map<string, number>();
+  /** Net names by number (the first string met for each name, shared by later uses). */
+  readonly names: string[] = [];
+  /** Terminals (and port entries) touching each net, by number. */
+  counts = new Int32Array(64);
+
+  /** Starts with the cell's ports, each counted once as the port list itself touches it. */
+  constructor(ports: readonly string[] = []) {
+    for (const p of ports) this.counts[this.add(p)]++;
+  }
+
+  /** The net's number, registering it (with no count yet) on first sight. */
+  add(name: string): number {
+    let i = this.index.get(name);
+    if (i === undefined) {
+      i = this.names.length;
+      this.index.set(name, i);
+      this.names.push(name);
+      if (i === this.counts.length) {
+        const grown = new Int32Array(this.counts.length * 2);
+        grown.set(this.counts);
+        this.counts = grown;
+      }
+    }
+    return i;
+  }
+
+  /** Counts one more terminal on the net. */
+  touch(name: string): void {
+    this.counts[this.add(name)]++;
+  }
+}
