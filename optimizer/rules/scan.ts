@@ -152,7 +152,8 @@ function problemOf(nl: FlatNetlist, view: LogicView, after: FlatNetlist, changed
     const id = nl.netByName.get(name);
     return id !== undefined && view.nodeByNet.has(id);
   };
-  const readAfter = new Set(afterView.nodes.flatMap((n) => n.inputs));
+  const readAfter = new Set<string>();
+  for (const n of afterView.nodes) for (const i of n.inputs) readAfter.add(i);
   const compared = changed.filter(
     (n) => driven(view, nl, n) && (driven(afterView, after, n) || readAfter.has(after.nets[after.netByName.get(n) ?? 0]?.name)),
   );
