@@ -9,9 +9,14 @@ export interface Csr {
 
 /** Key/value pairs collected in order, then grouped by key keeping that order (counting sort). */
 export class Pairs {
-  keys = new Int32Array(1024);
-  vals = new Int32Array(1024);
+  keys: Int32Array;
+  vals: Int32Array;
   size = 0;
+  /** @param capacity expected number of pairs (more still fit: the arrays grow) */
+  constructor(capacity = 1024) {
+    this.keys = new Int32Array(Math.max(16, capacity));
+    this.vals = new Int32Array(Math.max(16, capacity));
+  }
   push(k: number, v: number): void {
     if (this.size === this.keys.length) {
       this.keys = grow(this.keys);

@@ -1,7 +1,7 @@
 // The switch network a switch-level simulation walks, built once from a FlatNetlist: channel
 // edges (MOS channels, bipolar collector–emitter paths, loads, plain resistors, one-way diodes)
 // with their controls, groups of nets joined by edges (union-find), and who reads each net.
-import { InputError } from '../errors';
+import { InputError, InternalError } from '../errors';
 import type { FlatNetlist } from '../netlist/ir';
 import type { Expr } from '../logic/expr';
 import { makeContext, isRail } from '../extract/context';
@@ -110,23 +110,49 @@ export function buildSwitchModel(nl: FlatNetlist, inputNames: string[]): SwitchM
   const baseNet = new Uint8Array(nNets);
   const inBaseNetwork = new Uint8Array(nDev);
   const gates: number[] = [];
+  let npnCount = 0;
   for (let i = 0; i < nDev; i++) {
     const d = nl.devices[i];
     if (d.kind === 'npn' || d.kind === 'pnp') {
       for (const x of bases.drive(i).devices) inBaseNetwork[x] = 1;
       baseNet[d.terminals[1]] = 1;
+      if (d.kind === 'npn') npnCount++;
     }
   }
-  // At most one edge per device.
-  const edgeDevice = new Int32Array(nDev);
-  const edgeA = new Int32Array(nDev);
-  const edgeB = new Int32Array(nDev);
-  const edgeCap = new Uint8Array(nDev);
-  const edgeControl = new Uint8Array(nDev);
-  const edgeGate = new Int32Array(nDev);
-  const edgeOneWay = new Uint8Array(nDev);
-  const programAt = new Int32Array(nDev).fill(-1);
-  let code = new Int32Array(1024);
+  /** Whether a device is a switch-level edge (at most one per device). */
+  const hasEdge = (i: number): boolean => {
+    const d = nl.devices[i];
+    const t = d.terminals;
+    switch (d.kind) {
+      case 'nmos':
+      case 'pmos':
+      case 'npn':
+      case 'pnp':
+        return true;
+      case 'resistor':
+        // base resistors belong to the transistor's base drive, not to the switch network
+        return !inBaseNetwork[i] && !baseNet[t[0]] && !baseNet[t[1]];
+      case 'diode':
+        return !inBaseNetwork[i];
+      default:
+        return false; // gates drive their outputs; capacitors and non-rail sources carry no signal
+    }
+  };
+  // Arrays sized exactly, and every list below sized before it is filled: on a million-device
+  // design each regrown or trimmed copy is tens of megabytes, and such allocations force full
+  // collections of the (large) heap holding the netlist.
+  let edgeTotal = 0;
+  for (let i = 0; i < nDev; i++) if (hasEdge(i)) edgeTotal++;
+  const edgeDevice = new Int32Array(edgeTotal);
+  const edgeA = new Int32Array(edgeTotal);
+  const edgeB = new Int32Array(edgeTotal);
+  const edgeCap = new Uint8Array(edgeTotal);
+  const edgeControl = new Uint8Array(edgeTotal);
+  const edgeGate = new Int32Array(edgeTotal);
+  const edgeOneWay = new Uint8Array(edgeTotal);
+  const programAt = new Int32Array(edgeTotal).fill(-1);
+  // a resistor-fed base is one net: (net, end) per program; wider drives grow the buffer
+  let code = new Int32Array(4 * npnCount + 64);
   let codeLen = 0;
   const emit = (op: number, arg: number): void => {
     if (codeLen + 2 > code.length) code = grow(code);
@@ -175,6 +201,10 @@ export function buildSwitchModel(nl: FlatNetlist, inputNames: string[]): SwitchM
   for (let i = 0; i < nDev; i++) {
     const d = nl.devices[i];
     const t = d.terminals;
+    if (!hasEdge(i)) {
+      if (d.kind === 'gate') gates.push(i);
+      continue;
+    }
     switch (d.kind) {
       case 'nmos':
       case 'pmos':
@@ -191,20 +221,14 @@ export function buildSwitchModel(nl: FlatNetlist, inputNames: string[]): SwitchM
         // a PNP conducts while its base is pulled low
         edge(i, t[0], t[2], DRIVEN, CTL_PMOS, t[1], false);
         break;
-      case 'resistor':
-        if (!inBaseNetwork[i] && !baseNet[t[0]] && !baseNet[t[1]]) {
-          const toLow = (isRail(cx, t[0]) && !railValue.get(t[0])) || (isRail(cx, t[1]) && !railValue.get(t[1]));
-          edge(i, t[0], t[1], toLow ? BLEED : WEAK, CTL_ALWAYS, -1, false);
-        }
+      case 'resistor': {
+        const toLow = (isRail(cx, t[0]) && !railValue.get(t[0])) || (isRail(cx, t[1]) && !railValue.get(t[1]));
+        edge(i, t[0], t[1], toLow ? BLEED : WEAK, CTL_ALWAYS, -1, false);
         break;
+      }
       case 'diode':
-        if (!inBaseNetwork[i]) edge(i, t[0], t[1], DRIVEN, CTL_ALWAYS, -1, true);
+        edge(i, t[0], t[1], DRIVEN, CTL_ALWAYS, -1, true);
         break;
-      case 'gate':
-        gates.push(i);
-        break;
-      default:
-        break; // capacitors and non-rail sources carry no switch-level signal
     }
   }
   // Groups: nets joined by edges, never through sources.
@@ -221,7 +245,7 @@ export function buildSwitchModel(nl: FlatNetlist, inputNames: string[]): SwitchM
   // Group ids and each group's nets in first-touch order (edges, then gate outputs).
   const groupOf = new Int32Array(nNets).fill(-1);
   const groupOfRoot = new Int32Array(nNets).fill(-1);
-  const netPairs = new Pairs();
+  const netPairs = new Pairs(nNets);
   let groupCount = 0;
   const groupFor = (n: number): number => {
     if (isSource(n)) return -1;
@@ -233,9 +257,14 @@ export function buildSwitchModel(nl: FlatNetlist, inputNames: string[]): SwitchM
     netPairs.push(g, n);
     return g;
   };
-  const edgePairs = new Pairs();
-  const atPairs = new Pairs();
-  const readerPairs = new Pairs();
+  // readers: an edge's two ends and its gate, the nets of its base-drive program, gate inputs
+  let gateInputs = 0;
+  for (const gi of gates) gateInputs += nl.devices[gi].terminals.length - 1;
+  let programNets = 0;
+  for (let pc = 0; pc < codeLen; pc += 2) if (code[pc] === OP_NET) programNets++;
+  const edgePairs = new Pairs(nEdges);
+  const atPairs = new Pairs(2 * nEdges);
+  const readerPairs = new Pairs(3 * nEdges + programNets + gateInputs);
   const lastReader = new Int32Array(nNets).fill(-1);
   const addReader = (net: number, g: number): void => {
     if (lastReader[net] === g) return;
@@ -259,8 +288,8 @@ export function buildSwitchModel(nl: FlatNetlist, inputNames: string[]): SwitchM
       for (let pc = programAt[ei]; code[pc] !== OP_END; pc += 2) if (code[pc] === OP_NET) addReader(code[pc + 1], g);
     }
   }
-  const gatePairs = new Pairs();
-  const gateReaderPairs = new Pairs();
+  const gatePairs = new Pairs(gates.length);
+  const gateReaderPairs = new Pairs(gateInputs);
   for (const gi of gates) {
     const d = nl.devices[gi];
     const g = groupFor(d.terminals[0]);
@@ -282,14 +311,14 @@ export function buildSwitchModel(nl: FlatNetlist, inputNames: string[]): SwitchM
   return {
     nl,
     edgeCount: nEdges,
-    edgeDevice: edgeDevice.slice(0, nEdges),
-    edgeA: edgeA.slice(0, nEdges),
-    edgeB: edgeB.slice(0, nEdges),
-    edgeCap: edgeCap.slice(0, nEdges),
-    edgeControl: edgeControl.slice(0, nEdges),
-    edgeGate: edgeGate.slice(0, nEdges),
-    edgeOneWay: edgeOneWay.slice(0, nEdges),
-    programAt: programAt.slice(0, nEdges),
+    edgeDevice,
+    edgeA,
+    edgeB,
+    edgeCap,
+    edgeControl,
+    edgeGate,
+    edgeOneWay,
+    programAt,
     code: code.slice(0, codeLen),
     groupOf,
     groupCount,
@@ -343,7 +372,8 @@ export function compileExpr(e: Expr, nl: FlatNetlist): CompiledExpr {
  */
 function rankGroups(n: number, groupNets: Csr, readers: Csr): Int32Array {
   // successors of each group in first-seen order, without a set per group
-  const succPairs = new Pairs();
+  // each net belongs to one group, so a group's successors number at most its nets' readers
+  const succPairs = new Pairs(readers.list.length);
   const seenBy = new Int32Array(n).fill(-1);
   for (let g = 0; g < n; g++) {
     for (let i = groupNets.off[g]; i < groupNets.off[g + 1]; i++) {
@@ -360,28 +390,31 @@ function rankGroups(n: number, groupNets: Csr, readers: Csr): Int32Array {
   const indeg = new Int32Array(n);
   for (let g = 0; g < n; g++) for (let i = succ.off[g]; i < succ.off[g + 1]; i++) if (succ.list[i] !== g) indeg[succ.list[i]]++;
   const rank = new Int32Array(n).fill(-1);
-  const queue: number[] = [];
-  for (let g = 0; g < n; g++) if (indeg[g] === 0) queue.push(g);
+  // every group enters the queue once: when its last predecessor is ranked, or to start a loop
+  const queue = new Int32Array(n);
+  let tail = 0;
+  for (let g = 0; g < n; g++) if (indeg[g] === 0) queue[tail++] = g;
   let next = 0;
   let head = 0;
   let assigned = 0;
   let firstUnranked = 0;
   for (;;) {
-    while (head < queue.length) {
+    while (head < tail) {
       const g = queue[head++];
       if (rank[g] >= 0) continue;
       rank[g] = next++;
       assigned++;
       for (let i = succ.off[g]; i < succ.off[g + 1]; i++) {
         const t = succ.list[i];
-        if (t !== g && --indeg[t] === 0 && rank[t] < 0) queue.push(t);
+        if (t !== g && --indeg[t] === 0 && rank[t] < 0) queue[tail++] = t;
       }
     }
     if (assigned === n) break;
     // a loop: start it at its first unranked group (ranked groups stay ranked: the scan resumes)
     while (rank[firstUnranked] >= 0) firstUnranked++;
     indeg[firstUnranked] = 0;
-    queue.push(firstUnranked);
+    if (tail >= n) throw new InternalError('switch model: group ranking queued a group twice');
+    queue[tail++] = firstUnranked;
   }
   return rank;
 }
