@@ -204,6 +204,221 @@ describe('common-override: invalid (findings)', () => {
   });
 });
 
+const SHARED = { sharedNode: true };
+const MOS = { mosLines: true };
+
+interface SharedBits {
+  /** How the lines share a node: their pull-ups hang from S, or each line has a diode onto ANY. */
+  via: 'pull-up' | 'diode';
+  receiver: 'dtl' | 'rtl';
+  rc?: number;
+  /** DTL receivers' diode-node pull-up. */
+  rp?: number;
+  /** Something else reads the shared pull-up node (a base resistor from S). */
+  nodeReader?: boolean;
+  flat?: boolean;
+}
+
+/**
+ * Per bit k: line Y with its normal driver QD and override QK (base from CLR); either Y's pull-up
+ * RC hangs from S (S pulled up by RS from VCC), or Y has its own pull-up and a diode DZ onto ANY
+ * (pulled down by RANY: "some bit is high"). Slices XB<k>, or written flat with suffixes.
+ */
+function sharedBits(n: number, o: SharedBits): FlatNetlist {
+  const b = new NetlistBuilder('Wren-8 status bits');
+  b.rail('VCC', 5);
+  b.model('QN', 'npn', { IS: 1e-14, BF: 100 });
+  b.model('DN', 'd', { IS: 1e-14 });
+  if (o.via === 'pull-up') b.resistor('RS', 'VCC', 'S', 100);
+  else b.resistor('RANY', 'ANY', '0', 10000);
+  if (o.nodeReader) {
+    b.resistor('RSB', 'S', 'SB', 4700);
+    b.resistor('RSZ', 'VCC', 'SZ', 1000);
+    b.npn('QS', 'SZ', 'SB', '0', { model: 'QN' });
+  }
+  for (let k = 0; k < n; k++) {
+    const body = (x: (local: string) => string) => {
+      b.resistor(x('RC'), o.via === 'pull-up' ? '/S' : 'VCC', x('Y'), o.rc ?? 1000);
+      if (o.via === 'diode') b.diode(x('DZ'), x('Y'), '/ANY', { model: 'DN' });
+      b.resistor(x('RD'), `/D${k}`, x('BD'), 4700);
+      b.npn(x('QD'), x('Y'), x('BD'), '0', { model: 'QN' });
+      b.resistor(x('RK'), '/CLR', x('BK'), 2200);
+      b.npn(x('QK'), x('Y'), x('BK'), '0', { model: 'QN' });
+      if (o.receiver === 'dtl') {
+        b.resistor(x('RP'), 'VCC', x('P'), o.rp ?? 4700);
+        b.diode(x('DI'), x('P'), x('Y'), { model: 'DN' });
+        b.diode(x('DL1'), x('P'), x('M'), { model: 'DN' });
+        b.diode(x('DL2'), x('M'), x('BR'), { model: 'DN' });
+        b.resistor(x('RBL'), x('BR'), '0', 5000);
+      } else b.resistor(x('RR'), x('Y'), x('BR'), 4700);
+      b.resistor(x('RZ'), 'VCC', x('Z'), 2000);
+      b.npn(x('QR'), x('Z'), x('BR'), '0', { model: 'QN' });
+    };
+    if (o.flat) body((l) => `${l}${k}`);
+    else b.within([`XB${k}`], () => body((l) => l));
+  }
+  return b.build();
+}
+
+describe('common-override: a node the lines already share', () => {
+  it.each([
+    ['pull-ups hanging from S, RTL readers, in slices', { via: 'pull-up', receiver: 'rtl' }, 'S'],
+    ['pull-ups hanging from S, RTL readers, flat', { via: 'pull-up', receiver: 'rtl', flat: true }, 'S'],
+  ] as const)('%s: one override acts on the node, nothing added, every function kept', async (_l, o, node) => {
+    const nl = sharedBits(3, o);
+    const r = await runOne(rule, nl, { options: SHARED });
+    expect(r.ruleErrors).toEqual([]);
+    expect(r.findings).toHaveLength(1);
+    const f = r.findings[0];
+    expect(f.messageId).toBe('shareNode');
+    expect(f.data).toMatchObject({ count: 3, control: 'CLR', node, via: o.via });
+    expect(f.message).toContain('data sheets');
+    const p = f.proposals[0];
+    const q = (k: number, d: string) => (o.flat ? `${d}${k}` : `XB${k}.${d}`);
+    expect(p.edit.reconnect).toEqual([{ device: q(0, 'QK'), terminal: 0, net: node }]);
+    expect(p.edit.removeDevices).toEqual([q(1, 'QK'), q(1, 'RK'), q(2, 'QK'), q(2, 'RK')]);
+    expect(p.edit.addDevices).toEqual([]);
+    expect(p.margins.every((m) => m.status !== 'fail')).toBe(true);
+    expect(p.margins.map((m) => m.name)).toContain('low level through the shared node');
+    // N−1 transistors and N−1 base resistors saved, nothing added.
+    const d = countDelta(nl, p);
+    expect(d.actual).toEqual({ transistors: 2, resistors: 2, diodes: 0 });
+    expect(d.actual).toEqual(d.stated);
+  });
+
+  it('is off by default (the scan cannot yet prove an override acting on a shared node)', async () => {
+    const r = await runOne(rule, sharedBits(3, { via: 'diode', receiver: 'dtl' }));
+    // Without the option only the steering form is looked for.
+    expect(r.findings.map((f) => f.messageId)).not.toContain('shareNode');
+    expect((await runOne(rule, sharedBits(3, { via: 'pull-up', receiver: 'rtl' }))).findings).toEqual([]);
+  });
+
+  it('pull-ups hanging from S read by DTL inputs through 10k: the inputs hold the lines above V_IL, refused', async () => {
+    // Each DTL input pushes (5 − 0.7 − V)/4.7k through the line's own 10k onto S: the line sits
+    // near (0.3 + 10/4.7·4.3)/(1 + 10/4.7) ≈ 3 V, far above DTL V_IL 1.2 V (circuit law).
+    const nl = sharedBits(3, { via: 'pull-up', receiver: 'dtl', rc: 10000 });
+    const f = (await runOne(rule, nl, { options: SHARED })).findings[0];
+    expect(f.messageId).toBe('failingNode');
+    const low = f.proposals[0].margins.find((m) => m.name === 'low level through the shared node')!;
+    expect(low.status).toBe('fail');
+    expect(low.value).toBeGreaterThan(2.5);
+    expect(low.limit).toBe(1.2);
+    expect(f.data.failed).toBe('low level through the shared node');
+  });
+
+  it.each([
+    ['in slices', false],
+    ['flat', true],
+  ])('diodes onto ANY (%s) read by plain RTL inputs: one override on ANY, its diode-steered low level fails, refused', async (_l, flat) => {
+    const nl = sharedBits(2, { via: 'diode', receiver: 'rtl', flat });
+    const f = (await runOne(rule, nl, { options: SHARED })).findings[0];
+    expect(f.messageId).toBe('failingNode');
+    expect(f.data).toMatchObject({ node: 'ANY', via: 'diode' });
+    const p = f.proposals[0];
+    expect(p.edit.addDevices).toEqual([]);
+    expect(p.edit.reconnect[0].net).toBe('ANY');
+    // The back-feed check watches ANY too: it keeps its value on every vector.
+    expect(p.margins.find((m) => m.name === 'back-feed between lines')!.status).toBe('pass');
+    expect(p.margins.find((m) => m.name === 'diode-steered low level')!.status).toBe('fail');
+    expect(countDelta(nl, p).actual).toEqual({ transistors: 1, resistors: 1, diodes: 0 });
+  });
+
+  it('a pull-up node something else reads is not pulled low for the lines: no finding', async () => {
+    const r = await runOne(rule, sharedBits(3, { via: 'pull-up', receiver: 'rtl', nodeReader: true }), { options: SHARED });
+    expect(r.ruleErrors).toEqual([]);
+    expect(r.findings).toEqual([]);
+  });
+});
+
+interface MosBits {
+  load: 'resistor' | 'depletion' | 'pmos';
+  receiver: 'cmos' | 'nmos';
+  /** Override transistors' width (µm; length 10 µm). */
+  w?: number;
+  control?: (k: number) => string;
+}
+
+/**
+ * Per bit k (slice XM<k>): line Y pulled up by a 47k resistor, a depletion NMOS (gate on Y) or a
+ * PMOS with its gate grounded; normal driver MD (gate Dk), override MK (gate CLR), and a reader
+ * (a CMOS inverter, or an NMOS inverter with a resistor load).
+ */
+function mosBits(n: number, o: MosBits): FlatNetlist {
+  const b = new NetlistBuilder('Wren-8 NMOS register clear');
+  b.rail('VDD', 5);
+  b.model('NE', 'nmos', { VTO: 0.8, KP: 2e-5 });
+  b.model('ND', 'nmos', { VTO: -2, KP: 2e-5 });
+  b.model('PE', 'pmos', { VTO: -0.8, KP: 1e-5 });
+  for (let k = 0; k < n; k++) {
+    b.within([`XM${k}`], () => {
+      if (o.load === 'resistor') b.resistor('RL', 'VDD', 'Y', 47000);
+      else if (o.load === 'depletion') b.nmos('ML', 'VDD', 'Y', 'Y', { model: 'ND', bulk: '0', params: { W: 10e-6, L: 20e-6 } });
+      else b.pmos('ML', 'Y', '0', 'VDD', { model: 'PE', bulk: 'VDD', params: { W: 10e-6, L: 40e-6 } });
+      b.nmos('MD', 'Y', `/D${k}`, '0', { model: 'NE', bulk: '0', params: { W: 20e-6, L: 10e-6 } });
+      b.nmos('MK', 'Y', `/${o.control ? o.control(k) : 'CLR'}`, '0', { model: 'NE', bulk: '0', params: { W: (o.w ?? 100) * 1e-6, L: 10e-6 } });
+      if (o.receiver === 'cmos') b.pmos('MRP', 'Z', 'Y', 'VDD', { model: 'PE', bulk: 'VDD' });
+      else b.resistor('RRZ', 'VDD', 'Z', 100000);
+      b.nmos('MRN', 'Z', 'Y', '0', { model: 'NE', bulk: '0' });
+    });
+  }
+  return b.build();
+}
+
+describe('common-override: NMOS overrides', () => {
+  it.each([
+    ['resistor pull-ups', 'resistor'],
+    ['depletion loads', 'depletion'],
+    ['PMOS loads', 'pmos'],
+  ] as const)('%s read by CMOS inverters: one NMOS override through steering diodes', async (_l, load) => {
+    const nl = mosBits(4, { load, receiver: 'cmos' });
+    const r = await runOne(rule, nl, { options: MOS });
+    expect(r.ruleErrors).toEqual([]);
+    expect(r.findings).toHaveLength(1);
+    const f = r.findings[0];
+    expect(f.messageId).toBe('share');
+    expect(f.data).toMatchObject({ count: 4, control: 'CLR', drivers: 1, diodes: 4 });
+    const p = f.proposals[0];
+    expect(p.edit.removeDevices).toEqual(['XM1.MK', 'XM2.MK', 'XM3.MK']);
+    expect(p.edit.reconnect).toEqual([{ device: 'XM0.MK', terminal: 0, net: 'CLR_OVR' }]);
+    expect(p.margins.map((m) => m.name)).toEqual(['sink current', 'diode-steered low level', 'contention', 'back-feed between lines']);
+    expect(p.margins.every((m) => m.status !== 'fail')).toBe(true);
+    const low = p.margins.find((m) => m.name === 'diode-steered low level')!;
+    // V_DS(on) + V_D,max: above the diode's 0.75 V, below CMOS V_IL (30 % of the corner's supply, common practice).
+    expect(low.value).toBeGreaterThan(0.75);
+    expect(low.limit).toBeCloseTo(0.3 * low.corner.supply, 5);
+    const d = countDelta(nl, p);
+    expect(d.actual).toEqual({ transistors: 3, resistors: 0, diodes: -4 });
+    expect(d.actual).toEqual(d.stated);
+    // Every line keeps its function at switch level: back-feed compares before and after on every vector.
+    expect(p.margins.find((m) => m.name === 'back-feed between lines')!.note).toContain('on 32 input vectors');
+  });
+
+  it('is off by default (the scan cannot yet prove an NMOS steering node)', async () => {
+    expect((await runOne(rule, mosBits(3, { load: 'resistor', receiver: 'cmos' }))).findings).toEqual([]);
+  });
+
+  it('lines read by NMOS inverters (V_IL 0.8 V): the steered low level fails, refused', async () => {
+    const f = (await runOne(rule, mosBits(3, { load: 'resistor', receiver: 'nmos' }), { options: MOS })).findings[0];
+    expect(f.messageId).toBe('failing');
+    const low = f.proposals[0].margins.find((m) => m.name === 'diode-steered low level')!;
+    expect(low.status).toBe('fail');
+    expect(low.limit).toBe(0.8);
+  });
+
+  it('a narrow override cannot hold eight depletion-loaded lines low: its on-resistance fails the low level', async () => {
+    // Eight loads of β/2·V_T² = 1e-5·4/2·0.5 = 20 µA each into W/L 0.2 (β 4 µA/V², V_ov 4 V): the
+    // channel carries at most β/2·V_ov² = 32 µA, so the common node rises (square law).
+    const f = (await runOne(rule, mosBits(8, { load: 'depletion', receiver: 'cmos', w: 2 }), { options: MOS })).findings[0];
+    expect(f.messageId).toBe('failing');
+    expect(f.proposals[0].margins.find((m) => m.name === 'diode-steered low level')!.status).toBe('fail');
+  });
+
+  it('each line cleared by its own control: no finding', async () => {
+    const r = await runOne(rule, mosBits(3, { load: 'resistor', receiver: 'cmos', control: (k) => `CLR${k}` }), { options: MOS });
+    expect(r.findings).toEqual([]);
+  });
+});
+
 describe('common-override: doc examples', () => {
   const examples = deckExamples(path.join(__dirname, 'common-override.md'));
   it('has examples', () => expect(examples.length).toBeGreaterThanOrEqual(3));

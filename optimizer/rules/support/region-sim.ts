@@ -17,15 +17,37 @@ interface Shape {
   watchAt: number[];
   bits: Uint8Array[];
   afterAll?: Level[][];
+  /** Vectors (by index) and watched positions that contend after the edit. */
+  contended?: { at: number; nets: number[] }[];
   sneakByMask: Map<string, { bad: { at: number; nets: number[] }[]; vectors: number }>;
 }
 
-const deviceForm = (d: FlatDevice, terminals: string[]): string =>
-  JSON.stringify([d.kind, d.op ?? '', d.value ?? null, d.model?.toLowerCase() ?? '', d.params, d.waveform ?? '', terminals]);
+/** A device's own content (kind, model, value, parameters) without its name, place or nets. */
+const deviceForm = (d: FlatDevice): string => JSON.stringify([d.kind, d.op ?? '', d.value ?? null, d.model?.toLowerCase() ?? '', d.params, d.waveform ?? '']);
+
+/** One region with its shape: the checks of a region ask it without recomputing the key. */
+export interface RegionRun {
+  contention(): { vector: Record<string, 0 | 1>; nets: string[] }[];
+  sneak(allowed?: (v: Record<string, 0 | 1>) => boolean): SneakReport;
+}
 
 export class RegionSims {
   private readonly shapes = new Map<string, Shape>();
   private readonly bitsByCount = new Map<number, Uint8Array[]>();
+  /** Per device index: a small number standing for its content (equal content, equal number). */
+  private readonly formOf = new Map<number, number>();
+  private readonly formIds = new Map<string, number>();
+
+  private formIdOf(i: number): number {
+    let id = this.formOf.get(i);
+    if (id === undefined) {
+      const f = deviceForm(this.nl.devices[i]);
+      id = this.formIds.get(f);
+      if (id === undefined) this.formIds.set(f, (id = this.formIds.size));
+      this.formOf.set(i, id);
+    }
+    return id;
+  }
 
   constructor(
     readonly nl: Readonly<FlatNetlist>,
@@ -59,7 +81,9 @@ export class RegionSims {
       const d = nl.devices[i];
       if (d.kind === 'gate') return null;
       position.set(d.name, position.size);
-      parts.push(deviceForm(d, d.terminals.map((t) => `${no(t)}${nl.nets[t].kind ? `:${nl.nets[t].kind}` : ''}`)));
+      let form = `${this.formIdOf(i)}`;
+      for (const t of d.terminals) form += nl.nets[t].kind ? ` ${no(t)}:${nl.nets[t].kind}` : ` ${no(t)}`;
+      parts.push(form);
     }
     for (const r of nl.rails) parts.push(`rail ${no(r.net)} ${r.volts}`);
     const fresh = new Map<string, number>();
@@ -94,19 +118,26 @@ export class RegionSims {
     return shape;
   }
 
-  /** Vectors (by this region's names) on which a watched net contends after the edit, before any assumption. */
-  contention(devices: number[], edit: Edit, inputs: string[], watch: string[]): { vector: Record<string, 0 | 1>; nets: string[] }[] {
+  region(devices: number[], edit: Edit, inputs: string[], watch: string[]): RegionRun {
     const s = this.shapeOf(devices, edit, inputs, watch);
+    return {
+      contention: () => this.contention(s, inputs, watch),
+      sneak: (allowed) => this.sneak(s, inputs, watch, allowed),
+    };
+  }
+
+  /** Vectors (by this region's names) on which a watched net contends after the edit, before any assumption. */
+  private contention(s: Shape, inputs: string[], watch: string[]): { vector: Record<string, 0 | 1>; nets: string[] }[] {
     if (!s.afterAll) {
       const r = simulate(s.after, { kind: 'vectors', vectors: s.bits.map((b) => named(s.inputs, b)) }, { watch: s.watch });
       s.afterAll = s.watch.map((o) => r.waveforms[o]);
+      s.contended = [];
+      s.bits.forEach((_, k) => {
+        const at = s.watchAt.filter((_, j) => s.afterAll![j][k] === 'X');
+        if (at.length) s.contended!.push({ at: k, nets: at });
+      });
     }
-    const out: { vector: Record<string, 0 | 1>; nets: string[] }[] = [];
-    s.bits.forEach((b, k) => {
-      const nets = s.watchAt.filter((_, j) => s.afterAll![j][k] === 'X').map((i) => watch[i]);
-      if (nets.length) out.push({ vector: named(inputs, b), nets });
-    });
-    return out;
+    return s.contended!.map((x) => ({ vector: named(inputs, s.bits[x.at]), nets: x.nets.map((i) => watch[i]) }));
   }
 
   /**
@@ -114,19 +145,15 @@ export class RegionSims {
    * the simulator keeps stored charge from one vector to the next, so the run is keyed by which
    * vectors it applies, not only by the region.
    */
-  sneak(devices: number[], edit: Edit, inputs: string[], watch: string[], allowed?: (v: Record<string, 0 | 1>) => boolean): SneakReport {
-    const s = this.shapeOf(devices, edit, inputs, watch);
-    const kept = s.bits.flatMap((b, k) => (!allowed || allowed(named(inputs, b)) ? [k] : []));
+  private sneak(s: Shape, inputs: string[], watch: string[], allowed?: (v: Record<string, 0 | 1>) => boolean): SneakReport {
+    const kept = allowed ? s.bits.flatMap((b, k) => (allowed(named(inputs, b)) ? [k] : [])) : s.bits.map((_, k) => k);
     if (kept.length === 0) return { bad: [], vectors: 0 };
     const mask = kept.length === s.bits.length ? 'all' : kept.join(',');
     let run = s.sneakByMask.get(mask);
     if (!run) {
       const vectors = kept.map((k) => named(s.inputs, s.bits[k]));
       const a = simulate(s.before, { kind: 'vectors', vectors }, { watch: s.watch });
-      const b =
-        mask === 'all' && s.afterAll
-          ? null
-          : simulate(s.after, { kind: 'vectors', vectors }, { watch: s.watch });
+      const b = mask === 'all' && s.afterAll ? null : simulate(s.after, { kind: 'vectors', vectors }, { watch: s.watch });
       const afterAt = (j: number, x: number) => (b ? b.waveforms[s.watch[j]][x] : s.afterAll![j][x]);
       const bad: { at: number; nets: number[] }[] = [];
       kept.forEach((k, x) => {

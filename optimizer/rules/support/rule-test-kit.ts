@@ -141,6 +141,8 @@ export interface DeckExample {
   expect: { messageId: string | null; data: Record<string, string> };
   /** `* assume: ID EXPR` lines. */
   assumptions: Assumption[];
+  /** `* options: {json}` — the rule's options for this example. */
+  options?: Record<string, unknown>;
 }
 
 /**
@@ -160,7 +162,8 @@ export function deckExamples(mdPath: string): DeckExample[] {
     const [head, ...pairs] = expectLine[1].trim().split(/\s+/);
     const data = Object.fromEntries(pairs.map((p) => p.split('=') as [string, string]));
     const assumptions = [...deck.matchAll(/^\*\s*assume:\s*(\S+)\s+(.+)$/gm)].map((a) => assumption(a[1], a[2].trim()));
-    out.push({ label: deck.split('\n')[0].trim(), deck, expect: { messageId: head === 'none' ? null : head, data }, assumptions });
+    const options = /^\*\s*options:\s*(\{.*\})\s*$/m.exec(deck);
+    out.push({ label: deck.split('\n')[0].trim(), deck, expect: { messageId: head === 'none' ? null : head, data }, assumptions, ...(options ? { options: JSON.parse(options[1]) } : {}) });
   }
   return out;
 }
@@ -171,7 +174,7 @@ export function deckExamples(mdPath: string): DeckExample[] {
  */
 export async function checkDeckExample(rule: Rule, ex: DeckExample): Promise<void> {
   const nl = deckNetlist(ex.deck);
-  const r = await runOne(rule, nl, { assumptions: ex.assumptions });
+  const r = await runOne(rule, nl, { assumptions: ex.assumptions, ...(ex.options ? { options: ex.options } : {}) });
   expect(r.ruleErrors).toEqual([]);
   if (ex.expect.messageId === null) {
     expect(r.findings).toEqual([]);
