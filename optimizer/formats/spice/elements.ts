@@ -109,6 +109,12 @@ function splitArgs(tokens: Token[], ctx: ElementContext): Args {
   return { positional, keyed, ok: true };
 }
 
+/**
+ * The parameters of every device written without any: one shared, frozen object (a large deck
+ * has millions of such devices), so nothing downstream can change them for all at once.
+ */
+const NO_PARAMS = Object.freeze({}) as Record<string, ParamValue>;
+
 function keyedParams(args: Args, ctx: ElementContext): Record<string, ParamValue> {
   const p: Record<string, ParamValue> = {};
   for (const { key, value } of args.keyed) p[key.text.toUpperCase()] = valueOrText(value.text, ctx.params);
@@ -169,7 +175,7 @@ function passive(card: Card, cell: Cell, ctx: ElementContext, name: string, kind
     ctx.report('error', 'spice.node-count', `${name} needs 2 nodes, found ${p.length}`, loc);
     return;
   }
-  const params = keyedParams(args, ctx);
+  const params = args.keyed.length > 0 ? keyedParams(args, ctx) : NO_PARAMS;
   const key = kind === 'resistor' ? 'R' : 'C';
   let v: number | undefined;
   if (p.length >= 3) {
@@ -225,7 +231,7 @@ function semiconductor(card: Card, cell: Cell, ctx: ElementContext, name: string
     ctx.report('error', 'spice.model-type', `${name} needs ${spec.what}; ${model.name} is a ${model.type} model`, ctx.at(modelTok));
     return;
   }
-  const params = keyedParams(args, ctx);
+  const params = args.keyed.length > 0 || p.length > nodes + 1 ? keyedParams(args, ctx) : NO_PARAMS;
   const tail = p.slice(nodes + 1);
   for (const t of tail) {
     const upper = t.text.toUpperCase();
