@@ -124,8 +124,8 @@ export const twoLevelMinimise = defineRule({
       tables = [];
       words = 0;
     };
-    for (const cone of fanoutFreeCones(view, options.maxInputs, ports, readers)) {
-      if (cone.leaves.length < 2) continue;
+    // A block of one input is a wire or an inverter: nothing to minimise.
+    for (const cone of fanoutFreeCones(view, options.maxInputs, ports, readers, 2)) {
       const family = cone.root.family;
       if (!FAMILIES.includes(family) || cone.nodes.some((n) => n.family !== family)) continue;
       // New gates need a supply rail (emitContext's only refusal, checked before any work).

@@ -72,8 +72,9 @@ describe('fanoutFreeCones', () => {
     expect(byRoot.get('S')!.leaves).toEqual(['C']);
   });
 
-  it('leaves out cones with more leaves than the limit and makes protected nets roots', () => {
+  it('leaves out cones with more leaves than the limit, or fewer than asked for, and makes protected nets roots', () => {
     expect(fanoutFreeCones(view(), 2).map((c) => c.root.name).sort()).toEqual(['S', 'Z']);
+    expect(fanoutFreeCones(view(), 8, new Set(), undefined, 2).map((c) => c.root.name).sort()).toEqual(['Y', 'Z']);
     const cones = fanoutFreeCones(view(), 8, new Set(['T']));
     expect(cones.find((c) => c.root.name === 'Y')!.leaves).toEqual(['S', 'T']);
     expect(cones.find((c) => c.root.name === 'T')!.leaves).toEqual(['A', 'B']);

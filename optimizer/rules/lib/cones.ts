@@ -32,15 +32,17 @@ export function readersOf(view: LogicView): Map<string, number[]> {
 }
 
 /**
- * Every cone with at most `maxLeaves` leaves whose nodes own their devices alone. `protectedNets`
- * (ports, nets with readers outside the logic view) are always roots. Linear in the view: a node
- * that is not a root has exactly one reader, so it is walked inside exactly one cone.
+ * Every cone with at least `minLeaves` and at most `maxLeaves` leaves whose nodes own their devices
+ * alone. `protectedNets` (ports, nets with readers outside the logic view) are always roots.
+ * Linear in the view: a node that is not a root has exactly one reader, so it is walked inside
+ * exactly one cone.
  */
 export function fanoutFreeCones(
   view: LogicView,
   maxLeaves: number,
   protectedNets: ReadonlySet<string> = new Set(),
   readers: ReadonlyMap<string, readonly number[]> = readersOf(view),
+  minLeaves = 0,
 ): Cone[] {
   const nodes = view.nodes;
   // Last node of a name wins, as a name → node map built in view order would have it.
@@ -70,7 +72,7 @@ export function fanoutFreeCones(
   nodes.forEach((top, i) => {
     if (!combinational(top) || !root[i]) return;
     const walked = coneFrom(i, nodes, byName, root, seen, maxLeaves);
-    if (!walked) return;
+    if (!walked || walked.leaves.size < minLeaves) return;
     const devices: number[] = [];
     for (const n of walked.nodes) {
       mark++;
