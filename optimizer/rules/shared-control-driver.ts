@@ -115,12 +115,13 @@ function partMargins(
   loads: Map<number, DriverLoads>,
   s: MarginSettings,
 ): { marginsFor: (chunks: Chunk[]) => MarginResult[] } & Required<Pick<PartsSearch, 'atLeast' | 'monotone'>> {
+  const betaMemo = new Map<string | undefined, number>();
   const sigIds = new Map<string, number>();
   const sigOf = new Map<number, number>();
   let total = 0;
   let fanOutLimit = 0;
   for (const i of members) {
-    const sig = driverSignature(nl, view.nodes[i], loads.get(i)!, s);
+    const sig = driverSignature(nl, view.nodes[i], loads.get(i)!, s, betaMemo);
     if (!sigIds.has(sig)) sigIds.set(sig, sigIds.size);
     sigOf.set(i, sigIds.get(sig)!);
     total += loads.get(i)!.total;

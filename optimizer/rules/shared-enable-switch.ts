@@ -12,8 +12,9 @@ import { defineRule } from './define-rule';
 import { chunked, fewestParts, worstPerName, type Chunk } from './support/chunks';
 import { betaMinOfDevice } from './support/driver-margins';
 import { describePlaces } from './support/finding-words';
-import { deviceOwnerCounts } from './support/same-function';
-import { sneakCheck, sneakMargin } from './support/sneak-check';
+import { NetIndex } from './support/net-index';
+import { RegionSims } from './support/region-sim';
+import { sneakMargin } from './support/sneak-check';
 import { emptyEdit, type Edit, type RuleContext } from './types';
 
 const OptionsSchema = z.object({
@@ -49,11 +50,16 @@ function lowEnd(nl: Readonly<FlatNetlist>, lowRails: Set<number>, dev: number): 
 
 export function enableStacks(ctx: RuleContext): EnableStack[] {
   const { netlist: nl, view } = ctx;
-  const owners = deviceOwnerCounts(view, nl.devices.length);
+  // The shared per-design index: device owners and the terminals on each net (to see that a
+  // stack's internal net is its own), built once for every rule of a scan.
+  const index = NetIndex.of(nl, view);
+  const owners = index.ownerCount;
   const lowRails = new Set(nl.rails.filter((r) => r.volts <= 0).map((r) => r.net));
-  // Terminals per net, counted once, to see that a stack's internal net is its own.
-  const users = new Map<number, Set<number>>();
-  nl.devices.forEach((d, i) => d.terminals.forEach((t) => (users.get(t) ?? users.set(t, new Set()).get(t)!).add(i)));
+  const onlyOwn = (net: number, own: Set<number>): boolean => {
+    const { from, to } = index.termRange(net);
+    for (let at = from; at < to; at++) if (!own.has(index.termDevice(at))) return false;
+    return true;
+  };
   const out: EnableStack[] = [];
   view.nodes.forEach((node, ni) => {
     if (node.groups.length !== 1 || node.kind === 'tristate' || node.kind === 'latch' || node.kind === 'pass') return;
@@ -70,7 +76,7 @@ export function enableStacks(ctx: RuleContext): EnableStack[] {
       const devices = [last.device, ...(base?.devices ?? [])];
       if (!devices.every((d) => owners[d] === 1)) continue;
       const own = new Set(node.devices);
-      if (![...(users.get(end.internal) ?? [])].every((d) => own.has(d))) continue;
+      if (!onlyOwn(end.internal, own)) continue;
       const ohms = base?.baseResistors.map((r) => r.ohms).filter((x): x is number => x !== undefined);
       out.push({
         node: ni,
@@ -108,6 +114,47 @@ function switchMargins(ctx: RuleContext, stacks: EnableStack[], chunk: Chunk): M
   return out;
 }
 
+/**
+ * Margins of a split of the stacks, computed once per distinct part: a part's margins depend only
+ * on what switchMargins reads of its stacks, in order (their signatures), so identical bytes or
+ * slices cost one computation per part size. `monotone` when every stack is alike: the largest
+ * part is then the worst and shrinks as the count grows, and each check only worsens with more
+ * identical stacks on one switch (the sink current adds up, forced β rises with it, the stack
+ * depth stays), so once a count passes every larger count does.
+ */
+function partMargins(ctx: RuleContext, stacks: EnableStack[], members: number[]): { marginsFor: (chunks: Chunk[]) => MarginResult[]; monotone: boolean } {
+  const nl = ctx.netlist;
+  const sigIds = new Map<string, number>();
+  const sigOf = new Map<number, number>();
+  for (const i of members) {
+    const st = stacks[i];
+    const node = ctx.view.nodes[st.node];
+    const sig = `${nl.devices[st.switchDevice].kind}|${node.family}|${node.pullUp?.ohms}|${node.pullUp?.railVolts}|${st.baseOhms}|${betaMinOfDevice(nl, st.switchDevice, ctx.margins)}|${st.depth}`;
+    if (!sigIds.has(sig)) sigIds.set(sig, sigIds.size);
+    sigOf.set(i, sigIds.get(sig)!);
+  }
+  const memo = new Map<string, MarginResult[]>();
+  const chunkMargins = (ch: Chunk): MarginResult[] => {
+    let key = '';
+    let last = -1;
+    let count = 0;
+    for (const i of [ch.keep, ...ch.others]) {
+      const id = sigOf.get(i)!;
+      if (id !== last && count > 0) {
+        key += `${last}x${count},`;
+        count = 0;
+      }
+      last = id;
+      count++;
+    }
+    key += `${last}x${count}`;
+    let ms = memo.get(key);
+    if (!ms) memo.set(key, (ms = switchMargins(ctx, stacks, ch)));
+    return ms;
+  };
+  return { marginsFor: (chunks) => worstPerName(chunks.flatMap(chunkMargins)), monotone: sigIds.size === 1 };
+}
+
 function shareEdit(ctx: RuleContext, stacks: EnableStack[], chunks: Chunk[]): Edit {
   const nl = ctx.netlist;
   const edit = emptyEdit();
@@ -135,18 +182,26 @@ export const sharedEnableSwitch = defineRule({
   find(ctx, options) {
     const stacks = enableStacks(ctx);
     const byEnable = new Map<string, number[]>();
-    stacks.forEach((s, i) => byEnable.set(s.enable, [...(byEnable.get(s.enable) ?? []), i]));
+    stacks.forEach((s, i) => {
+      const list = byEnable.get(s.enable);
+      if (list) list.push(i);
+      else byEnable.set(s.enable, [i]);
+    });
     const nl = ctx.netlist;
+    // Regions of the same structure (every byte of a bus, every slice of a register) are
+    // simulated once: the runs are keyed on the region's canonical form, not on its names.
+    const sims = new RegionSims(nl, options.sneakExhaustiveLimit);
     for (const [enable, members] of byEnable) {
       if (members.length < options.minCopies) continue;
       const nodes = members.map((i) => ctx.view.nodes[stacks[i].node]);
-      const marginsFor = (chunks: Chunk[]) => worstPerName(chunks.flatMap((ch) => switchMargins(ctx, stacks, ch)));
-      let { parts, margins, passes } = fewestParts(members, marginsFor);
+      const { marginsFor, monotone } = partMargins(ctx, stacks, members);
+      let { parts, margins, passes } = fewestParts(members, marginsFor, { monotone });
       let chunks = chunked(members, parts);
       let edit = shareEdit(ctx, stacks, chunks);
       const region = nodes.flatMap((n) => n.devices);
       const inputs = [...new Set(nodes.flatMap((n) => n.inputs))].sort();
-      const sneakOf = (e: Edit) => sneakMargin(sneakCheck(nl, region, e, inputs, nodes.map((n) => n.name), options.sneakExhaustiveLimit));
+      const outputs = nodes.map((n) => n.name);
+      const sneakOf = (e: Edit) => sneakMargin(sims.region(region, e, inputs, outputs).sneak());
       let sneak = sneakOf(edit);
       if (sneak.status === 'fail' && parts > 1) {
         // a split does not cure a sneak path: show the one-switch rewrite and why it is refused

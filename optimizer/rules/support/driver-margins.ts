@@ -63,25 +63,31 @@ export function sharedDriverMargins(nl: FlatNetlist, driver: LogicNode, loads: D
 /**
  * Everything sharedDriverMargins reads of one driver and its loads, as text: two members with the
  * same signature give the same margins in the same place of a shared driver's load list, so a
- * part's margins can be keyed on its members' signatures (and identical members found).
+ * part's margins can be keyed on its members' signatures (and identical members found). Numbers
+ * are written as JavaScript prints them, so NaN, Infinity and absent values stay distinct.
+ * `betaMemo` keeps β_min per model name across calls (a design has a few models, many devices).
  */
-export function driverSignature(nl: FlatNetlist, driver: LogicNode, loads: DriverLoads, s: MarginSettings): string {
+export function driverSignature(
+  nl: FlatNetlist,
+  driver: LogicNode,
+  loads: DriverLoads,
+  s: MarginSettings,
+  betaMemo: Map<string | undefined, number> = new Map(),
+): string {
+  const beta = (device: number): number => {
+    const model = nl.devices[device].model;
+    let b = betaMemo.get(model);
+    if (b === undefined) betaMemo.set(model, (b = betaMinOfDevice(nl, device, s)));
+    return b;
+  };
   const drive = baseDriveOf(nl, driver, s);
-  return JSON.stringify(
-    [
-      driver.family,
-      driver.pullUp?.kind,
-      driver.pullUp?.ohms,
-      driver.pullUp?.railVolts,
-      drive ? [drive.ohms, drive.volts, betaMinOfDevice(nl, drive.transistor, s)] : undefined,
-      loads.total,
-      loads.direct,
-      loads.resistorBases.map((l) => [l.ohms, l.collectorPullUp, betaMinOfDevice(nl, l.transistor, s)]),
-      loads.diodeInputs.map((d) => d.pullUpOhms),
-    ],
-    // Numbers as their own text (NaN and Infinity stay distinct), absent values marked as such.
-    (_k, v: unknown) => (typeof v === 'number' ? String(v) : v === undefined ? '-' : v),
-  );
+  let text = `${driver.family}|${driver.pullUp?.kind}|${driver.pullUp?.ohms}|${driver.pullUp?.railVolts}|`;
+  text += drive ? `${drive.ohms},${drive.volts},${beta(drive.transistor)}` : '-';
+  text += `|${loads.total}|${loads.direct}|`;
+  for (const l of loads.resistorBases) text += `${l.ohms},${l.collectorPullUp},${beta(l.transistor)};`;
+  text += '|';
+  for (const d of loads.diodeInputs) text += `${d.pullUpOhms};`;
+  return text;
 }
 
 /** One load on a line: a base resistor (RTL) with what that base must saturate, or a plain input. */

@@ -90,15 +90,12 @@ export class NetIndex {
     this.termDev = this.cx.termDev;
     this.termIdx = this.cx.termIdx;
     const nNets = nl.nets.length;
+    // Terminals on a net run in device order, so the first base on a net is the lowest-numbered
+    // transistor whose base is there: one pass over the devices finds them all.
     this.baseOn = new Int32Array(nNets).fill(-1);
-    for (let net = 0; net < nNets; net++) {
-      for (let i = this.offsets[net]; i < this.offsets[net + 1]; i++) {
-        const k = nl.devices[this.termDev[i]].kind;
-        if ((k === 'npn' || k === 'pnp') && this.termIdx[i] === 1) {
-          this.baseOn[net] = this.termDev[i];
-          break;
-        }
-      }
+    for (let d = 0; d < nDev; d++) {
+      const dev = nl.devices[d];
+      if ((dev.kind === 'npn' || dev.kind === 'pnp') && this.baseOn[dev.terminals[1]] < 0) this.baseOn[dev.terminals[1]] = d;
     }
     this.ports = new Set(nl.ports);
     this.railNets = new Set(nl.rails.map((r) => r.net));
