@@ -26,13 +26,15 @@ export class Pairs {
     this.vals[this.size++] = v;
   }
   toCsr(n: number): Csr {
-    const off = new Int32Array(n + 1);
-    for (let i = 0; i < this.size; i++) off[this.keys[i] + 1]++;
-    for (let i = 0; i < n; i++) off[i + 1] += off[i];
-    const fill = off.slice(0, n);
-    const list = new Int32Array(this.size);
-    for (let i = 0; i < this.size; i++) list[fill[this.keys[i]]++] = this.vals[i];
-    return { off, list };
+    // Counts land one slot further right than the offsets, so the fill pass can advance the
+    // offsets in place and leave each one at its list's start (no cursor array beside them).
+    const at = new Int32Array(n + 2);
+    const { keys, vals, size } = this;
+    for (let i = 0; i < size; i++) at[keys[i] + 2]++;
+    for (let i = 2; i <= n + 1; i++) at[i] += at[i - 1];
+    const list = new Int32Array(size);
+    for (let i = 0; i < size; i++) list[at[keys[i] + 1]++] = vals[i];
+    return { off: at.subarray(0, n + 1), list };
   }
 }
 
