@@ -192,6 +192,18 @@ describe('batches of functions', () => {
     }
   });
 
+  it('fails the rest of a batch after children die one after another without answering', async () => {
+    const pool = new EspressoPool({ size: 1, workerPath: fixture('exiting-worker.cjs') });
+    try {
+      const answers = await pool.runEach(Array.from({ length: 10 }, (_, k) => `pla ${k}`), 5000);
+      expect(answers.every((a) => a instanceof MinimiserError && a.reason === 'crashed')).toBe(true);
+      // The batch, then two PLAs alone: three children, not one per PLA.
+      expect(pool.spawned).toBe(3);
+    } finally {
+      pool.close();
+    }
+  });
+
   it('splits a batch between children and keeps the answers in order', async () => {
     const pool = new EspressoPool({ size: 3, workerPath: fixture('picky-worker.cjs') });
     try {

@@ -33,6 +33,8 @@ interface Request {
   answers: (string | MinimiserError | undefined)[];
   left: number;
   timeoutMs: number;
+  /** Children that died serving this request since it last got an answer. */
+  crashes: number;
   resolve: (answers: (string | MinimiserError)[]) => void;
 }
 
@@ -56,6 +58,9 @@ interface Slot {
 
 /** Slack on a batch's timer: the child reports finished answers at least this often (worker.cjs). */
 const FLUSH_SLACK_MS = 100;
+
+/** Children in a row that may die on one request without answering anything before the rest of it fails too. */
+const MAX_CRASHES = 3;
 
 export interface PoolOptions {
   /** Children at most (default 2: the machines this runs on are small). */
@@ -119,7 +124,7 @@ export class EspressoPool {
     if (this.closed) return Promise.resolve(batch.map(() => new MinimiserError('closed', 'the minimiser pool is closed')));
     if (batch.length === 0) return Promise.resolve([]);
     return new Promise((resolve) => {
-      const req: Request = { texts: batch, answers: new Array(batch.length), left: batch.length, timeoutMs, resolve };
+      const req: Request = { texts: batch, answers: new Array(batch.length), left: batch.length, timeoutMs, crashes: 0, resolve };
       for (const items of this.split(batch)) this.queue.push({ id: this.nextId++, req, items, got: 0 });
       this.dispatch();
     });
@@ -215,7 +220,15 @@ export class EspressoPool {
       this.retire(slot);
       if (job) {
         const detail = slot.stderr.trim().split('\n').slice(-3).join(' | ');
-        this.failUnknown(job, new MinimiserError('crashed', `the minimiser process exited (${signal ?? `code ${code}`})${detail ? `: ${detail}` : ''}`));
+        const err = new MinimiserError('crashed', `the minimiser process exited (${signal ?? `code ${code}`})${detail ? `: ${detail}` : ''}`);
+        if (++job.req.crashes < MAX_CRASHES) this.failUnknown(job, err);
+        else {
+          // Children that die one after another without an answer (one that cannot start, say):
+          // fail what is left of the request instead of starting a child per PLA.
+          this.failRest(job, err);
+          for (const queued of this.queue.filter((q) => q.req === job.req)) this.failRest(queued, err);
+          this.queue.splice(0, this.queue.length, ...this.queue.filter((q) => q.req !== job.req));
+        }
       }
       this.dispatch();
     };
@@ -239,6 +252,7 @@ export class EspressoPool {
     if (wellFormed) {
       cubes.forEach((c, i) => this.answer(job.req, job.items[from + i], c as string));
       job.got = from + cubes.length;
+      if (cubes.length) job.req.crashes = 0;
     }
     if (msg.ok && wellFormed) {
       if (job.got === job.items.length) this.finish(slot);
