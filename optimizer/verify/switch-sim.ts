@@ -451,8 +451,12 @@ export class SwitchSimulator {
   }
 
   value(net: number): Level {
-    if (this.level[net] < BLEED) return 'Z';
-    return LEVELS[this.mask[net]];
+    return LEVELS[this.levelCode(net)];
+  }
+
+  /** The net's value as an index into LEVELS (0 = Z, else the value mask), for compact recording. */
+  levelCode(net: number): number {
+    return this.level[net] < BLEED ? 0 : this.mask[net];
   }
 }
 
@@ -462,19 +466,20 @@ export function simulate(nl: FlatNetlist, stimulus: Stimulus, options: SimOption
   const sim = new SwitchSimulator(nl, inputs, options);
   const watch =
     options.watch ??
-    (nl.nets.length <= 5000 ? nl.nets.filter((n) => !sim.model.railValue.has(n.id)).map((n) => n.name) : inputs);
+    (nl.nets.length <= 5000 ? nl.nets.filter((n) => sim.model.railVal[n.id] < 0).map((n) => n.name) : inputs);
   const ids = watch.map((n) => sim.model.netIdsOf(n));
-  const codes = ids.map(() => new Uint8Array(steps.length));
-  steps.forEach((vec, s) => {
-    sim.apply(vec);
-    ids.forEach((id, i) => {
-      const v = sim.value(id);
-      codes[i][s] = v === 'Z' ? 0 : v === 0 ? 1 : v === 1 ? 2 : 3;
-    });
-  });
+  // one row of level codes per step, read back per net below
+  const nIds = ids.length;
+  const codes = new Uint8Array(nIds * steps.length);
+  for (let s = 0; s < steps.length; s++) {
+    sim.apply(steps[s]);
+    for (let i = 0; i < nIds; i++) codes[s * nIds + i] = sim.levelCode(ids[i]);
+  }
   sim.result.steps = steps.length;
   watch.forEach((name, i) => {
-    sim.result.waveforms[name] = Array.from(codes[i], (c) => LEVELS[c]);
+    const wave: Level[] = new Array(steps.length);
+    for (let s = 0; s < steps.length; s++) wave[s] = LEVELS[codes[s * nIds + i]];
+    sim.result.waveforms[name] = wave;
   });
   return sim.result;
 }
