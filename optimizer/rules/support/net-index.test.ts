@@ -70,16 +70,20 @@ describe('NetIndex.driverLoads', () => {
 });
 
 describe('NetIndex.of', () => {
-  it('shares one index per frozen design and view, and builds afresh while they may change', () => {
+  it('shares its tables per frozen design and view, and builds afresh while they may change', () => {
     const nl = design();
     const view = extractLogic(nl);
-    expect(NetIndex.of(nl, view)).not.toBe(NetIndex.of(nl, view));
+    expect(NetIndex.of(nl, view).ownerOf).not.toBe(NetIndex.of(nl, view).ownerOf);
     deepFreeze(nl);
     deepFreeze(view);
     const first = NetIndex.of(nl, view);
-    expect(NetIndex.of(nl, view)).toBe(first);
+    expect(new NetIndex(nl, view).ownerOf).toBe(first.ownerOf);
     const other = extractLogic(nl);
     deepFreeze(other);
-    expect(NetIndex.of(nl, other)).not.toBe(first);
+    expect(NetIndex.of(nl, other).ownerOf).not.toBe(first.ownerOf);
+    // a shared index answers like a fresh one
+    const fresh = design();
+    const freshLoads = new NetIndex(fresh, extractLogic(fresh)).driverLoads(fresh.netByName.get('LDN')!);
+    expect(new NetIndex(nl, view).driverLoads(nl.netByName.get('LDN')!)).toEqual(freshLoads);
   });
 });

@@ -38,8 +38,58 @@ export interface Load {
   owner: number;
 }
 
-/** Indexes of frozen designs, so every rule of one scan shares one (a frozen design cannot change). */
-const shared = new WeakMap<object, WeakMap<object, NetIndex>>();
+/** The tables of an index: linear in the design's terminals, built once per frozen design. */
+interface Tables {
+  ownerOf: Int32Array;
+  ownerCount: Uint8Array;
+  cx: ExtractContext;
+  baseOn: Int32Array;
+  pullUpOhms: Map<number, number | null>;
+  ports: Set<number>;
+  railNets: Set<number>;
+}
+
+function buildTables(nl: Readonly<FlatNetlist>, view: Readonly<LogicView>): Tables {
+  const nDev = nl.devices.length;
+  const ownerOf = new Int32Array(nDev).fill(-1);
+  const ownerCount = new Uint8Array(nDev);
+  view.nodes.forEach((n, i) => {
+    for (const d of n.devices) {
+      if (ownerOf[d] < 0) ownerOf[d] = i;
+      if (ownerCount[d] < 255) ownerCount[d]++;
+    }
+  });
+  // Terminals on a net run in device order, so the first base on a net is the lowest-numbered
+  // transistor whose base is there: one pass over the devices finds them all.
+  const baseOn = new Int32Array(nl.nets.length).fill(-1);
+  for (let d = 0; d < nDev; d++) {
+    const dev = nl.devices[d];
+    if ((dev.kind === 'npn' || dev.kind === 'pnp') && baseOn[dev.terminals[1]] < 0) baseOn[dev.terminals[1]] = d;
+  }
+  return {
+    ownerOf,
+    ownerCount,
+    // The extraction context's per-net terminal index (devices in order, then terminals in order).
+    cx: makeContext(nl as FlatNetlist),
+    baseOn,
+    pullUpOhms: new Map(),
+    ports: new Set(nl.ports),
+    railNets: new Set(nl.rails.map((r) => r.net)),
+  };
+}
+
+/** Tables of frozen designs (netlist, then view): a frozen design cannot change, so every rule of a scan shares them. */
+const shared = new WeakMap<object, WeakMap<object, Tables>>();
+
+function tablesOf(nl: Readonly<FlatNetlist>, view: Readonly<LogicView>): Tables {
+  const frozen = Object.isFrozen(nl) && Object.isFrozen(view) && Object.isFrozen(nl.devices) && Object.isFrozen(view.nodes);
+  if (!frozen) return buildTables(nl, view);
+  let byView = shared.get(nl);
+  if (!byView) shared.set(nl, (byView = new WeakMap()));
+  let t = byView.get(view);
+  if (!t) byView.set(view, (t = buildTables(nl, view)));
+  return t;
+}
 
 export class NetIndex {
   /** First node owning each device (−1: none). */
@@ -52,53 +102,36 @@ export class NetIndex {
   /** First bipolar transistor (in terminal order) whose base is on each net (−1: none). */
   private readonly baseOn: Int32Array;
   /** Resistor pull-up ohms found on a net (null: none), asked per collector or diode node. */
-  private readonly pullUpOhms = new Map<number, number | null>();
+  private readonly pullUpOhms: Map<number, number | null>;
   private readonly cx: ExtractContext;
   readonly ports: Set<number>;
   readonly railNets: Set<number>;
 
-  /**
-   * The index of a design, shared by every caller while the netlist and view are frozen (as a
-   * scan freezes them); a fresh one otherwise, since an unfrozen design may still change.
-   */
+  /** The index of a design (its tables shared while the design is frozen; see the constructor). */
   static of(nl: Readonly<FlatNetlist>, view: Readonly<LogicView>): NetIndex {
-    if (!Object.isFrozen(nl) || !Object.isFrozen(view) || !Object.isFrozen(nl.devices) || !Object.isFrozen(view.nodes)) return new NetIndex(nl, view);
-    let byView = shared.get(nl);
-    if (!byView) shared.set(nl, (byView = new WeakMap()));
-    let idx = byView.get(view);
-    if (!idx) byView.set(view, (idx = new NetIndex(nl, view)));
-    return idx;
+    return new NetIndex(nl, view);
   }
 
+  /**
+   * Cheap for a frozen netlist and view (as a scan freezes them): the tables are built by the
+   * first rule that asks and shared by the rest. An unfrozen design gets tables of its own, since
+   * it may still change.
+   */
   constructor(
     readonly nl: Readonly<FlatNetlist>,
     readonly view: Readonly<LogicView>,
   ) {
-    const nDev = nl.devices.length;
-    this.ownerOf = new Int32Array(nDev).fill(-1);
-    this.ownerCount = new Uint8Array(nDev);
-    view.nodes.forEach((n, i) => {
-      for (const d of n.devices) {
-        if (this.ownerOf[d] < 0) this.ownerOf[d] = i;
-        if (this.ownerCount[d] < 255) this.ownerCount[d]++;
-      }
-    });
-    // The extraction context's terminal index is the same per-net layout (devices in order, then
-    // terminals in order), so it is built once and shared.
-    this.cx = makeContext(nl as FlatNetlist);
-    this.offsets = this.cx.offsets;
-    this.termDev = this.cx.termDev;
-    this.termIdx = this.cx.termIdx;
-    const nNets = nl.nets.length;
-    // Terminals on a net run in device order, so the first base on a net is the lowest-numbered
-    // transistor whose base is there: one pass over the devices finds them all.
-    this.baseOn = new Int32Array(nNets).fill(-1);
-    for (let d = 0; d < nDev; d++) {
-      const dev = nl.devices[d];
-      if ((dev.kind === 'npn' || dev.kind === 'pnp') && this.baseOn[dev.terminals[1]] < 0) this.baseOn[dev.terminals[1]] = d;
-    }
-    this.ports = new Set(nl.ports);
-    this.railNets = new Set(nl.rails.map((r) => r.net));
+    const t = tablesOf(nl, view);
+    this.ownerOf = t.ownerOf;
+    this.ownerCount = t.ownerCount;
+    this.cx = t.cx;
+    this.offsets = t.cx.offsets;
+    this.termDev = t.cx.termDev;
+    this.termIdx = t.cx.termIdx;
+    this.baseOn = t.baseOn;
+    this.pullUpOhms = t.pullUpOhms;
+    this.ports = t.ports;
+    this.railNets = t.railNets;
   }
 
   netId(name: string): number | undefined {
