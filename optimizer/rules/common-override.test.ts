@@ -274,7 +274,7 @@ describe('common-override: a node the lines already share', () => {
     expect(f.data).toMatchObject({ count: 3, control: 'CLR', node, via: o.via });
     expect(f.message).toContain('data sheets');
     const p = f.proposals[0];
-    const q = (k: number, d: string) => (o.flat ? `${d}${k}` : `XB${k}.${d}`);
+    const q = (k: number, d: string) => ('flat' in o && o.flat ? `${d}${k}` : `XB${k}.${d}`);
     expect(p.edit.reconnect).toEqual([{ device: q(0, 'QK'), terminal: 0, net: node }]);
     expect(p.edit.removeDevices).toEqual([q(1, 'QK'), q(1, 'RK'), q(2, 'QK'), q(2, 'RK')]);
     expect(p.edit.addDevices).toEqual([]);

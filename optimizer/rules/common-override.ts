@@ -255,36 +255,46 @@ function regions(ctx: RuleContext, cx: ExtractContext, ov: Override[], chunks: C
   for (const ch of chunks) for (const m of [ch.keep, ...ch.others]) keptOf.set(m, ch.keep);
   const linkOf = new Map<number, number>();
   node?.members.forEach((m, k) => linkOf.set(m, node.links[k]));
-  const drivers = new Map<number, number[]>();
-  const driversAt = (net: number) => {
-    let d = drivers.get(net);
-    if (!d) drivers.set(net, (d = driversOf(cx, net)));
-    return d;
+  // Per member, once: its line's devices, what else drives the line, its link to a shared node,
+  // and the MOS gates among them (rails aside) — a pair of lines and its override reuse them.
+  const gatesOf = (devs: Iterable<number>) => {
+    const out: number[] = [];
+    for (const d of devs) {
+      const dev = nl.devices[d];
+      if ((dev.kind === 'nmos' || dev.kind === 'pmos') && !isRail(cx, dev.terminals[1])) out.push(dev.terminals[1]);
+    }
+    return out;
   };
+  const parts = new Map<number, { devs: number[]; gates: number[] }>();
+  const partOf = (m: number) => {
+    let p = parts.get(m);
+    if (!p) {
+      const n = ctx.view.nodes[ov[m].node];
+      const devs = new Set<number>(n.devices);
+      for (const d of driversOf(cx, n.net)) devs.add(d);
+      const link = linkOf.get(m);
+      if (link !== undefined) devs.add(link);
+      parts.set(m, (p = { devs: [...devs], gates: gatesOf(devs) }));
+    }
+    return p;
+  };
+  const otherGates = node ? gatesOf(node.others) : [];
   return {
     lineOf: (m) => ctx.view.nodes[ov[m].node].name,
     regionOf: (at) => {
       const region = new Set<number>();
-      for (const i of at) {
-        const n = ctx.view.nodes[ov[i].node];
-        for (const d of n.devices) region.add(d);
-        for (const d of driversAt(n.net)) region.add(d);
-        const link = linkOf.get(i);
-        if (link !== undefined) region.add(link);
-      }
+      for (const i of at) for (const d of partOf(i).devs) region.add(d);
       if (node) for (const d of node.others) region.add(d);
       return [...region];
     },
-    inputsOf: (at, region) => {
-      // A load transistor's gate on its own line (depletion) or on a rail is not an input.
+    inputsOf: (at) => {
+      // A load transistor's gate on its own line (depletion) is not an input.
       const own = new Set(at.map((i) => ctx.view.nodes[ov[i].node].net));
-      const gates = region.flatMap((d) => {
-        const dev = nl.devices[d];
-        if (dev.kind !== 'nmos' && dev.kind !== 'pmos') return [];
-        const g = dev.terminals[1];
-        return own.has(g) || isRail(cx, g) ? [] : [nl.nets[g].name];
-      });
-      return [...new Set([...at.flatMap((i) => ctx.view.nodes[ov[i].node].inputs), ...gates])].sort();
+      const names = new Set<string>();
+      for (const i of at) for (const x of ctx.view.nodes[ov[i].node].inputs) names.add(x);
+      for (const i of at) for (const g of partOf(i).gates) if (!own.has(g)) names.add(nl.nets[g].name);
+      for (const g of otherGates) if (!own.has(g)) names.add(nl.nets[g].name);
+      return [...names].sort();
     },
     keptOf,
     // A pull-up node is pulled low on purpose (nothing else reads it); a diode node must keep its value.

@@ -35,16 +35,16 @@ export class RegionSims {
   private readonly shapes = new Map<string, Shape>();
   private readonly bitsByCount = new Map<number, Uint8Array[]>();
   /** Per device index: a small number standing for its content (equal content, equal number). */
-  private readonly formOf = new Map<number, number>();
+  private readonly formOf: Int32Array;
   private readonly formIds = new Map<string, number>();
 
   private formIdOf(i: number): number {
-    let id = this.formOf.get(i);
-    if (id === undefined) {
+    let id = this.formOf[i];
+    if (id < 0) {
       const f = deviceForm(this.nl.devices[i]);
-      id = this.formIds.get(f);
-      if (id === undefined) this.formIds.set(f, (id = this.formIds.size));
-      this.formOf.set(i, id);
+      id = this.formIds.get(f) ?? -1;
+      if (id < 0) this.formIds.set(f, (id = this.formIds.size));
+      this.formOf[i] = id;
     }
     return id;
   }
@@ -52,7 +52,9 @@ export class RegionSims {
   constructor(
     readonly nl: Readonly<FlatNetlist>,
     readonly limit: number,
-  ) {}
+  ) {
+    this.formOf = new Int32Array(nl.devices.length).fill(-1);
+  }
 
   private bits(count: number): Uint8Array[] {
     let b = this.bitsByCount.get(count);
