@@ -9,6 +9,8 @@ import type { FlatNetlist } from '../netlist/ir';
 import { operatingPoints } from '@/tests/support/ngspice';
 import { applied, atCorner, deckOf, levelTable, relativeDiff, roleSign } from '@/tests/support/rule-levels';
 import { commonOverride } from './common-override';
+import { DEFAULT_MARGIN_SETTINGS } from '../margins/defaults';
+import { nmosNodeVolts } from './support/override-margins';
 import { runOne } from './support/rule-test-kit';
 import type { Rule } from './types';
 
@@ -110,5 +112,137 @@ describe('common-override in ngspice', () => {
     // After: the lines sit above RTL V_IL and the readers turn on — their outputs go low.
     expect(after.volts[0]['XACC0.Y']).toBeGreaterThan(RTL.vil);
     expect(after.levels[0]).toMatchObject({ 'XACC0.Y': 'X', 'XACC1.Y': 'X', 'XACC0.Z': 0, 'XACC1.Z': 0 });
+  });
+});
+
+/**
+ * Lines whose pull-ups RC hang from S (RS 100 Ω from VCC), each with its own clear QK, read by a
+ * plain RTL input (or, with `dtl`, by a DTL input whose 4.7k pull-up feeds the line).
+ */
+function hungLines(n: number, o: { dtl?: boolean; rc?: number } = {}): FlatNetlist {
+  const b = new NetlistBuilder('Wren-8 flag register clear');
+  b.rail('VCC', 5);
+  b.model('QN', 'npn', { IS: 1e-14, BF: 100 });
+  b.model('DN', 'd', { IS: 1e-14 });
+  b.resistor('RS', 'VCC', 'S', 100);
+  for (let k = 0; k < n; k++) {
+    b.within([`XF${k}`], () => {
+      b.resistor('RC', '/S', 'Y', o.rc ?? 1000);
+      b.resistor('RD', `/D${k}`, 'BD', 4700);
+      b.npn('QD', 'Y', 'BD', '0', { model: 'QN' });
+      b.resistor('RK', '/CLR', 'BK', 2200);
+      b.npn('QK', 'Y', 'BK', '0', { model: 'QN' });
+      if (o.dtl) {
+        b.resistor('RP', 'VCC', 'P', 4700);
+        b.diode('DI', 'P', 'Y', { model: 'DN' });
+        b.diode('DL1', 'P', 'M', { model: 'DN' });
+        b.diode('DL2', 'M', 'BR', { model: 'DN' });
+        b.resistor('RBL', 'BR', '0', 5000);
+      } else b.resistor('RR', 'Y', 'BR', 4700);
+      b.resistor('RZ', 'VCC', 'Z', 2000);
+      b.npn('QR', 'Z', 'BR', '0', { model: 'QN' });
+    });
+  }
+  return b.build();
+}
+
+describe('common-override on a shared node, in ngspice', () => {
+  const options = { sharedNode: true };
+
+  it('pull-ups hanging from S: one override on S keeps every level; sink current and forced β within 15 %', async () => {
+    const nl = hungLines(3);
+    const f = (await runOne(rule, nl, { options })).findings[0];
+    expect(f.messageId).toBe('shareNode');
+    const p = f.proposals[0];
+    const after = applied(nl, p);
+    const inputs = ['CLR', 'D0', 'D1', 'D2'];
+    const nets = ['XF0.Y', 'XF1.Y', 'XF2.Y', 'XF0.Z', 'XF1.Z', 'XF2.Z'];
+    const lb = levelTable(nl, { inputs, nets, high: 5, thresholds: RTL });
+    const la = levelTable(after, { inputs, nets, high: 5, thresholds: RTL });
+    expect(lb.levels.flatMap(Object.values)).not.toContain('X');
+    expect(la.levels).toEqual(lb.levels);
+    for (const name of ['sink current', 'forced β']) {
+      const m = p.margins.find((x) => x.name === name)!;
+      const corner = atCorner(after, m.corner, { 'R_pull-up': ['RS'], R_B: ['XF0.RK'] });
+      const [row] = operatingPoints(deckOf(corner), { combinations: [{ CLR: m.corner.supply, D0: 0, D1: 0, D2: 0 }], probe: ['S', 'XF0.BK'] });
+      const ic = (m.corner.supply - row.S) / (100 * (1 + roleSign(m.corner, 'R_pull-up') * 0.05));
+      if (name === 'sink current') expect(relativeDiff(m.value, ic)).toBeLessThan(0.15);
+      else {
+        const ib = (m.corner.supply - row['XF0.BK']) / (2200 * (1 + roleSign(m.corner, 'R_B') * 0.05));
+        expect(relativeDiff(m.value, ic / ib)).toBeLessThan(0.15);
+      }
+    }
+  });
+
+  it('DTL inputs through 10k line resistors: ngspice shows the cleared lines staying high, and the rule marks it failing', async () => {
+    const nl = hungLines(2, { dtl: true, rc: 10000 });
+    const f = (await runOne(rule, nl, { options })).findings[0];
+    expect(f.messageId).toBe('failingNode');
+    const low = f.proposals[0].margins.find((m) => m.name === 'low level through the shared node')!;
+    expect(low.status).toBe('fail');
+    const cleared = [{ CLR: 1, D0: 0, D1: 0 } as const];
+    const nets = ['XF0.Y', 'XF1.Y', 'XF0.Z', 'XF1.Z'];
+    const before = levelTable(nl, { inputs: ['CLR', 'D0', 'D1'], nets, high: 5, thresholds: DTL, points: cleared });
+    const after = levelTable(applied(nl, f.proposals[0]), { inputs: ['CLR', 'D0', 'D1'], nets, high: 5, thresholds: DTL, points: cleared });
+    expect(before.levels[0]).toEqual({ 'XF0.Y': 0, 'XF1.Y': 0, 'XF0.Z': 1, 'XF1.Z': 1 });
+    // After: the inputs hold the lines above V_IL; the rule's clamped figure is within 15 % of ngspice.
+    expect(after.volts[0]['XF0.Y']).toBeGreaterThan(DTL.vil);
+    expect(relativeDiff(low.value, after.volts[0]['XF0.Y'])).toBeLessThan(0.15);
+    // The readers turn on: their outputs go low where the cleared lines had kept them high.
+    expect(after.levels[0]).toMatchObject({ 'XF0.Z': 0, 'XF1.Z': 0 });
+  });
+});
+
+/** NMOS lines with 47k pull-ups, NMOS drivers and clears (W/L 10), read by CMOS inverters. */
+function nmosLines(n: number): FlatNetlist {
+  const b = new NetlistBuilder('Wren-8 NMOS accumulator clear');
+  b.rail('VCC', 5);
+  b.model('NE', 'nmos', { VTO: 0.8, KP: 2e-5 });
+  b.model('PE', 'pmos', { VTO: -0.8, KP: 1e-5 });
+  b.model('DN', 'd', { IS: 1e-14 });
+  for (let k = 0; k < n; k++) {
+    b.within([`XN${k}`], () => {
+      b.resistor('RL', 'VCC', 'Y', 47000);
+      b.nmos('MD', 'Y', `/D${k}`, '0', { model: 'NE', bulk: '0', params: { W: 20e-6, L: 10e-6 } });
+      b.nmos('MK', 'Y', '/CLR', '0', { model: 'NE', bulk: '0', params: { W: 100e-6, L: 10e-6 } });
+      b.pmos('MRP', 'Z', 'Y', 'VCC', { model: 'PE', bulk: 'VCC', params: { W: 20e-6, L: 10e-6 } });
+      b.nmos('MRN', 'Z', 'Y', '0', { model: 'NE', bulk: '0', params: { W: 10e-6, L: 10e-6 } });
+    });
+  }
+  return b.build();
+}
+
+describe('common-override with NMOS lines, in ngspice', () => {
+  it('one NMOS override through steering diodes keeps every level; sink current and its node voltage within 15 %', async () => {
+    const nl = nmosLines(3);
+    const f = (await runOne(rule, nl, { options: { mosLines: true } })).findings[0];
+    expect(f.messageId).toBe('share');
+    const p = f.proposals[0];
+    const after = applied(nl, p);
+    const inputs = ['CLR', 'D0', 'D1', 'D2'];
+    const nets = ['XN0.Y', 'XN1.Y', 'XN2.Y', 'XN0.Z', 'XN1.Z', 'XN2.Z'];
+    const CMOS = { vil: 1.5, vih: 3.5 }; // 30 % / 70 % of 5 V (common practice; the margin defaults)
+    const lb = levelTable(nl, { inputs, nets, high: 5, thresholds: CMOS });
+    const la = levelTable(after, { inputs, nets, high: 5, thresholds: CMOS });
+    expect(lb.levels.flatMap(Object.values)).not.toContain('X');
+    expect(la.levels).toEqual(lb.levels);
+    const lines = ['XN0.Y', 'XN1.Y', 'XN2.Y'];
+    const sink = p.margins.find((m) => m.name === 'sink current')!;
+    const low = p.margins.find((m) => m.name === 'diode-steered low level')!;
+    expect(low.status).not.toBe('fail');
+    for (const m of [sink, low]) {
+      const corner = atCorner(after, m.corner, { 'R_pull-up': lines.map((y) => y.replace('.Y', '.RL')) });
+      const [row] = operatingPoints(deckOf(corner), { combinations: [{ CLR: m.corner.supply, D0: 0, D1: 0, D2: 0 }], probe: [...lines, 'CLR_OVR'] });
+      const rUp = 47000 * (1 + roleSign(m.corner, 'R_pull-up') * 0.05);
+      if (m === sink) expect(relativeDiff(m.value, lines.reduce((s, y) => s + (m.corner.supply - row[y]) / rUp, 0))).toBeLessThan(0.15);
+      else {
+        // The lines stay under the rule's bound; the override's own node (level-1 channel against
+        // the pull-ups through the diodes) is within 15 % of ngspice's.
+        for (const y of lines) expect(row[y]).toBeLessThan(m.value);
+        const load = { lineSiemens: 3 / rUp, lines: 3, inputSiemens: 0, inputs: 0, directSiemens: 0, loadAmps: 0 };
+        const vn = nmosNodeVolts(m.corner.supply, load, { beta: 2e-5 * 10, vt: 0.8 }, DEFAULT_MARGIN_SETTINGS);
+        expect(relativeDiff(vn, row.CLR_OVR)).toBeLessThan(0.15);
+      }
+    }
   });
 });

@@ -160,8 +160,9 @@ export interface HungLine {
 /**
  * Low level of lines whose pull-ups hang from the node the override pulls: each line sits at the
  * node's voltage plus what its DTL inputs push through its own resistor, solved as a divider
- * V = (V_S + R·G_in·(V_CC − V_D)) / (1 + R·G_in) (circuit law). The line with the least margin
- * to its receivers' V_IL is reported.
+ * V = (V_S + R·G_in·(V_CC − V_D)) / (1 + R·G_in) (circuit law), at most V_D + V_BE where the DTL
+ * input's own base clamps it (common practice). The line with the least margin to its receivers'
+ * V_IL is reported.
  */
 export function hungLowLevel(input: { vcc: number; load: OverrideLoad; sw: OverrideSwitch; lines: readonly HungLine[] }, s: MarginSettings): MarginResult {
   const points = corners(input.vcc, ['R_pull-up'] as const, s);
@@ -170,7 +171,9 @@ export function hungLowLevel(input: { vcc: number; load: OverrideLoad; sw: Overr
     const vs = nodeVolts(p.supply, input.load, input.sw, s, p.r['R_pull-up'], true);
     for (const l of input.lines) {
       const rg = l.ohms * l.inputSiemens; // the ratio is unchanged when every resistor moves together
-      const v = (vs + rg * (p.supply - s.vDiode)) / (1 + rg);
+      // A DTL input's diode node is clamped by its level-shift diodes and base at 2·V_D + V_BE,
+      // so the line it feeds rises no higher than V_D + V_BE — where that receiver reads a 1.
+      const v = rg > 0 ? Math.min((vs + rg * (p.supply - s.vDiode)) / (1 + rg), Math.max(vs, s.vDiode + s.vbe)) : vs;
       const r = lowestVil(l.receivers, p.supply, s);
       if (!worst || v - r.vil > worst.value - worst.limit) worst = { value: v, limit: r.vil, family: r.family, point: p };
     }
