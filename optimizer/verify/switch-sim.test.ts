@@ -147,6 +147,17 @@ describe('switch-level simulation', () => {
     expect(r.contention.some((c) => c.net === 'BUS' && c.step === 6)).toBe(true);
   });
 
+  it('a long transmission line between two drivers: all of it follows agreeing drivers and goes X when they fight', () => {
+    // one switch group of 60 nets: per-evaluation scratch is sized by the widest group
+    const b = netlist().rail('VDD', 5);
+    cmosInverter(b, 'A', 'L0', 'A');
+    cmosInverter(b, 'B', 'L59', 'B');
+    for (let i = 0; i < 59; i++) b.nmos(`T${i}`, `L${i}`, 'VDD', `L${i + 1}`).pmos(`U${i}`, `L${i}`, '0', `L${i + 1}`, { bulk: 'VDD' });
+    const r = simulate(b.build(), { kind: 'vectors', vectors: [{ A: 0, B: 0 }, { A: 0, B: 1 }, { A: 1, B: 1 }] });
+    for (let i = 0; i < 60; i++) expect(r.waveforms[`L${i}`]).toEqual([1, 'X', 0]);
+    expect(r.contention.map((c) => c.step)).toContain(1);
+  });
+
   it('refuses a stimulus that names a net the design lacks', () => {
     const nl = netlist().gate('G', 'not', ['Y', 'A']).build();
     expect(() => simulate(nl, { kind: 'vectors', vectors: [{ NOPE: 1 }] })).toThrow(/"NOPE"/);

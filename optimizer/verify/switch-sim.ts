@@ -80,7 +80,13 @@ export class SwitchSimulator {
     for (const gi of this.model.gates) if (nl.devices[gi].op === 'dff') this.gateOut[gi] = 3;
     this.evalCount = new Int32Array(this.model.groupCount);
     this.evalStep = new Int32Array(this.model.groupCount).fill(-1);
-    this.changed = new Int32Array(n);
+    // Per-evaluation scratch is bounded by the largest group, not the design: an evaluation
+    // touches only its own group's nets.
+    const off = this.model.groupNets.off;
+    let widest = 0;
+    for (let g = 0; g < this.model.groupCount; g++) widest = Math.max(widest, off[g + 1] - off[g]);
+    this.widestGroup = widest;
+    this.changed = new Int32Array(widest);
   }
 
   /** Value a control terminal sees: a driven net's value, a floating net's stored charge. */
@@ -186,6 +192,8 @@ export class SwitchSimulator {
   /** Nets whose value or strength the last group evaluation changed. */
   private readonly changed: Int32Array;
   private nChanged = 0;
+  /** Nets in the largest group. */
+  private readonly widestGroup: number;
   private stack!: Int32Array;
   private top = 0;
   private queue?: LowestFirstQueue;
@@ -196,7 +204,9 @@ export class SwitchSimulator {
     if (this.stack) return;
     const n = this.model.nl.nets.length;
     this.edgeSt = new Uint8Array(this.model.edgeCount);
-    this.pureTouched = new Int32Array(2 * n);
+    // a net enters pureTouched once per pure value, and the stack once per rise in strength or
+    // growth of its value mask: at most twice per net of the group in one strength pass
+    this.pureTouched = new Int32Array(2 * this.widestGroup);
     this.evalStack = new Uint8Array(this.model.code.length + 1);
     this.sureLevel = new Uint8Array(n);
     this.sureMask = new Uint8Array(n);
@@ -204,7 +214,7 @@ export class SwitchSimulator {
     this.oldMask = new Uint8Array(n);
     this.pure0 = new Int32Array(n);
     this.pure1 = new Int32Array(n);
-    this.stack = new Int32Array(n + 1);
+    this.stack = new Int32Array(2 * this.widestGroup + 1);
   }
 
   private deliver(n: number, mk: Mask, dev: number, pure: boolean): void {
