@@ -31,7 +31,6 @@ export function flatten(design: Design, limits: Partial<Limits> = {}): FlatNetli
   }
 
   const nets: FlatNet[] = [];
-  const netByName = new Map<string, number>();
   const devices: FlatDevice[] = new Array(total);
   let nDev = 0;
   const newNet = (name: string, kind: FlatNet['kind']): number => {
@@ -39,7 +38,6 @@ export function flatten(design: Design, limits: Partial<Limits> = {}): FlatNetli
     const net: FlatNet = { id, name };
     if (kind) net.kind = kind;
     nets.push(net);
-    netByName.set(name, id);
     return id;
   };
   newNet(GROUND, undefined);
@@ -109,7 +107,31 @@ export function flatten(design: Design, limits: Partial<Limits> = {}): FlatNetli
   }
   devices.length = nDev;
 
-  return { title: design.title, devices, nets, netByName, rails: rails(devices, nets), ports, models: design.models };
+  const railList = rails(devices, nets);
+  // The name index is built on first use: extraction and simulation walk nets by id and never ask,
+  // and on a large design it is one of the costliest structures to build.
+  let netByName: Map<string, number> | undefined;
+  return {
+    title: design.title,
+    devices,
+    nets,
+    get netByName(): Map<string, number> {
+      return (netByName ??= nameIndex(nets));
+    },
+    set netByName(m: Map<string, number>) {
+      netByName = m;
+    },
+    rails: railList,
+    ports,
+    models: design.models,
+  };
+}
+
+/** Net name → id, in id order (a later net of the same name wins, as when nets were added one by one). */
+function nameIndex(nets: readonly FlatNet[]): Map<string, number> {
+  const m = new Map<string, number>();
+  for (let i = 0; i < nets.length; i++) m.set(nets[i].name, i);
+  return m;
 }
 
 interface CompiledCell {

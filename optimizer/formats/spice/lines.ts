@@ -13,8 +13,53 @@ export interface Card {
   line: number;
   col: number;
   /** Physical lines the card was written on, joined by newlines (for cards kept verbatim). */
-  raw: string;
+  readonly raw: string;
 }
+
+/**
+ * The one card forEachCard fills and hands out, again and again: a large deck has millions of
+ * cards, and none outlives its visit, so neither the card, its token list nor the tokens are
+ * allocated per card. `raw` is built only when asked for (few cards are kept verbatim).
+ */
+class ReusedCard implements Card {
+  tokens: Token[] = [];
+  line = 0;
+  col = 0;
+  /** Start and end offsets in `text` of each physical line of the card. */
+  spans: number[] = [];
+  constructor(private readonly text: string) {}
+
+  get raw(): string {
+    let s = this.text.slice(this.spans[0], this.spans[1]);
+    for (let i = 2; i < this.spans.length; i += 2) s += '\n' + this.text.slice(this.spans[i], this.spans[i + 1]);
+    return s;
+  }
+}
+
+/** Token objects reused card after card: entry k is the card's k-th token. */
+class TokenPool {
+  private readonly pool: Token[] = [];
+
+  emit(out: Token[], text: string, line: number, col: number): void {
+    const k = out.length;
+    let t = this.pool[k];
+    if (t === undefined) {
+      t = { text, line, col };
+      this.pool.push(t);
+    } else {
+      t.text = text;
+      t.line = line;
+      t.col = col;
+    }
+    out.push(t);
+  }
+}
+
+const FRESH: Pick<TokenPool, 'emit'> = {
+  emit(out, text, line, col) {
+    out.push({ text, line, col });
+  },
+};
 
 export interface TokenizeProblem {
   message: string;
@@ -36,14 +81,23 @@ function isSeparator(c: number): boolean {
 
 /** Tokenizes one physical line (after comment removal) starting at column offset `from`. */
 export function tokenizeLine(text: string, lineNo: number, from: number, out: Token[], problems: TokenizeProblem[]): void {
-  tokenizeRange(text, 0, from, text.length, lineNo, out, problems);
+  tokenizeRange(text, 0, from, text.length, lineNo, out, problems, FRESH);
 }
 
 /**
  * Tokenizes text[lineStart + from, end) of a line that starts at lineStart in a larger text, so a
  * deck is read in place: only the tokens become strings, never the lines they sit on.
  */
-function tokenizeRange(text: string, lineStart: number, from: number, end: number, lineNo: number, out: Token[], problems: TokenizeProblem[]): void {
+function tokenizeRange(
+  text: string,
+  lineStart: number,
+  from: number,
+  end: number,
+  lineNo: number,
+  out: Token[],
+  problems: TokenizeProblem[],
+  tokens: Pick<TokenPool, 'emit'>,
+): void {
   let i = lineStart + from;
   while (i < end) {
     const c = text.charCodeAt(i);
@@ -53,7 +107,7 @@ function tokenizeRange(text: string, lineStart: number, from: number, end: numbe
     }
     if (c === 40 || c === 41 || c === 61) {
       // ( ) =
-      out.push({ text: text[i], line: lineNo, col: i - lineStart + 1 });
+      tokens.emit(out, text[i], lineNo, i - lineStart + 1);
       i++;
       continue;
     }
@@ -66,7 +120,7 @@ function tokenizeRange(text: string, lineStart: number, from: number, end: numbe
         problems.push({ message: `unterminated ${c === 123 ? '{' : "'"} expression`, line: lineNo, col: i - lineStart + 1 });
         return;
       }
-      out.push({ text: text.slice(i, stop + 1), line: lineNo, col: i - lineStart + 1 });
+      tokens.emit(out, text.slice(i, stop + 1), lineNo, i - lineStart + 1);
       i = stop + 1;
       continue;
     }
@@ -76,7 +130,7 @@ function tokenizeRange(text: string, lineStart: number, from: number, end: numbe
       if (isSeparator(d) || d === 40 || d === 41 || d === 61 || d === 123) break;
       i++;
     }
-    out.push({ text: text.slice(start, i), line: lineNo, col: start - lineStart + 1 });
+    tokens.emit(out, text.slice(start, i), lineNo, start - lineStart + 1);
   }
 }
 
@@ -97,6 +151,7 @@ function commentStart(text: string, from: number, end: number): number {
 }
 
 export interface CardVisitor {
+  /** The card and its tokens are reused for the next card once this returns: copy what is kept. */
   card(card: Card): void;
   /** Raw lines of a `.control` block from the `.control` line through `.endc` (kept verbatim). */
   controlBlock(raw: string, line: number, terminated: boolean): void;
@@ -117,12 +172,13 @@ export function forEachCard(
   problems: TokenizeProblem[],
   only?: (firstChar: string) => boolean,
 ): void {
-  let current: Card | null = null;
+  const card = new ReusedCard(text);
+  const pool = new TokenPool();
+  let open = false;
   let keep = true;
   const flush = (): void => {
-    const c = current;
-    current = null;
-    if (c && c.tokens.length > 0) visit.card(c);
+    if (open && card.tokens.length > 0) visit.card(card);
+    open = false;
   };
   const n = text.length;
   let lineNo = 1;
@@ -142,13 +198,12 @@ export function forEachCard(
     if (c0 === STAR) continue;
     if (c0 === PLUS) {
       if (!keep) continue;
-      if (!current) {
+      if (!open) {
         problems.push({ message: 'continuation line (+) with no card before it', line: lineNo, col: at - lineStart + 1 });
         continue;
       }
-      const cur: Card = current;
-      tokenizeRange(text, lineStart, at - lineStart + 1, commentStart(text, lineStart, end), lineNo, cur.tokens, problems);
-      cur.raw += '\n' + text.slice(lineStart, end);
+      tokenizeRange(text, lineStart, at - lineStart + 1, commentStart(text, lineStart, end), lineNo, card.tokens, problems, pool);
+      card.spans.push(lineStart, end);
       continue;
     }
     flush();
@@ -160,9 +215,13 @@ export function forEachCard(
       lineNo += after.lines;
       continue;
     }
-    const card: Card = { tokens: [], line: lineNo, col: at - lineStart + 1, raw: text.slice(lineStart, end) };
-    tokenizeRange(text, lineStart, at - lineStart, commentStart(text, lineStart, end), lineNo, card.tokens, problems);
-    current = card;
+    card.tokens.length = 0;
+    card.spans.length = 0;
+    card.spans.push(lineStart, end);
+    card.line = lineNo;
+    card.col = at - lineStart + 1;
+    tokenizeRange(text, lineStart, at - lineStart, commentStart(text, lineStart, end), lineNo, card.tokens, problems, pool);
+    open = true;
   }
   flush();
 }
