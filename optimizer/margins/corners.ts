@@ -130,6 +130,19 @@ export function statusAtLeast(value: number, limit: number, s: MarginSettings): 
   return value < limit * (1 + s.warnBand) ? 'warn' : 'pass';
 }
 
+/** Math.min / Math.max over a list of any length (spreading a long list overflows the call stack). */
+export function minOf(xs: readonly number[]): number {
+  let m = Infinity;
+  for (const x of xs) m = Math.min(m, x);
+  return m;
+}
+
+export function maxOf(xs: readonly number[]): number {
+  let m = -Infinity;
+  for (const x of xs) m = Math.max(m, x);
+  return m;
+}
+
 export function round(x: number, digits = 4): number {
   if (x === 0 || !Number.isFinite(x)) return x;
   const scale = 10 ** (digits - 1 - Math.floor(Math.log10(Math.abs(x))));

@@ -2,7 +2,7 @@
 // of pull-ups held low, and fan-out. Rise time of one RC: t_r(10–90 %) = ln 9 · RC ≈ 2.2 RC
 // (Elmore 1948; Rubinstein, Penfield, Horowitz 1983); power (V_CC − V_CE(sat))²/R is a circuit law.
 import type { MapFamily } from '../logic/family-parts';
-import { corners, describeCorner, type MarginResult, round, statusAtMost, worstCorner } from './corners';
+import { corners, describeCorner, type MarginResult, minOf, round, statusAtMost, worstCorner } from './corners';
 import type { MarginSettings } from './defaults';
 
 export const RISE_FACTOR = Math.log(9);
@@ -34,7 +34,7 @@ export function riseTime(
 /** Worst static power in one pull-up held low; warned above the derated rating, failed above it. */
 export function staticPower(input: { vcc: number; pullUps: number[] }, s: MarginSettings): MarginResult {
   const points = corners(input.vcc, ['R_pull-up'] as const, s);
-  const smallest = Math.min(...input.pullUps);
+  const smallest = minOf(input.pullUps);
   const at = (p: (typeof points)[number]) => (p.supply - s.vceSat) ** 2 / (smallest * p.r['R_pull-up']);
   const w = worstCorner(points, at, 'high');
   const total = input.pullUps.reduce((sum, r) => sum + (w.point.supply - s.vceSat) ** 2 / (r * w.point.r['R_pull-up']), 0);

@@ -2,7 +2,7 @@
 // statuses follow the stated limits.
 import { describe, expect, it } from 'vitest';
 import { diodeSteeredLowLevel, forcedBeta, loadBaseCurrent, loadedHighLevel, loadedHighLevelAt, sinkCurrent, stackedLowLevel } from './bipolar';
-import { corners, formatCorner, worstOf } from './corners';
+import { corners, formatCorner, maxOf, minOf, worstOf } from './corners';
 import { betaMinOf, DEFAULT_MARGIN_SETTINGS as S, marginSettings } from './defaults';
 import { fanOut, riseTime, staticPower } from './line';
 
@@ -126,5 +126,18 @@ describe('corner tables', () => {
     expect(wide).not.toBe(t);
     expect(wide[1].r).toEqual({ R_C: 1.1, R_B: 0.9 });
     expect(corners(3.6, ['R_C', 'R_B'] as const, S)[0].supply).toBeCloseTo(3.42, 12);
+  });
+});
+
+describe('minOf / maxOf', () => {
+  it('agree with Math.min / Math.max and take lists too long to spread into a call', () => {
+    expect([minOf([3, 1, 2]), maxOf([3, 1, 2]), minOf([]), maxOf([])]).toEqual([1, 3, Infinity, -Infinity]);
+    expect(minOf([1, NaN])).toBeNaN();
+    const long = Array.from({ length: 500_000 }, (_, i) => 1000 + ((i * 7919) % 100_003));
+    long[123_456] = 470;
+    expect(minOf(long)).toBe(470);
+    expect(maxOf(long)).toBe(1000 + 100_002);
+    // and a line of that many pull-ups sizes its static power without overflowing
+    expect(staticPower({ vcc: 5, pullUps: long }, S).inputs).toMatchObject({ check: 'static-power' });
   });
 });

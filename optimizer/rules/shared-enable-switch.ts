@@ -6,7 +6,7 @@ import { z } from 'zod';
 import type { LogicNode, SwitchNetwork } from '../extract/types';
 import { exprToString } from '../logic/expr';
 import { forcedBeta, sinkCurrent, stackedLowLevel } from '../margins/bipolar';
-import type { MarginResult } from '../margins/corners';
+import { maxOf, type MarginResult } from '../margins/corners';
 import type { FlatNetlist } from '../netlist/ir';
 import { defineRule } from './define-rule';
 import { chunked, fewestParts, worstPerName, type Chunk } from './support/chunks';
@@ -85,7 +85,7 @@ export function enableStacks(ctx: RuleContext): EnableStack[] {
         internal: end.internal,
         enable: `${node.family}|${exprToString(last.on)}`,
         depth: br.parts.length,
-        ...(ohms && ohms.length ? { baseOhms: Math.max(...ohms) } : {}),
+        ...(ohms && ohms.length ? { baseOhms: maxOf(ohms) } : {}),
       });
       break;
     }
@@ -107,7 +107,7 @@ function switchMargins(ctx: RuleContext, stacks: EnableStack[], chunk: Chunk): M
   if (kept.baseOhms !== undefined) {
     out.push(forcedBeta({ vcc, pullUps, baseResistor: kept.baseOhms, betaMin: betaMinOfDevice(nl, kept.switchDevice, ctx.margins) }, ctx.margins));
   }
-  const low = stackedLowLevel({ vcc, stack: Math.max(...[chunk.keep, ...chunk.others].map((i) => stacks[i].depth)), receiver: node.family }, ctx.margins);
+  const low = stackedLowLevel({ vcc, stack: maxOf([chunk.keep, ...chunk.others].map((i) => stacks[i].depth)), receiver: node.family }, ctx.margins);
   // The stacks keep their depth: a worst-case low level the design already has is flagged, but it
   // is not this rewrite's failing.
   out.push(low.status === 'fail' ? { ...low, status: 'warn', note: `${low.note}; the stacks are this deep before the rewrite too` } : low);

@@ -5,7 +5,7 @@
 import type { LogicNode } from '../../extract/types';
 import type { MapFamily } from '../../logic/family-parts';
 import { forcedBeta, loadBaseCurrent, loadedHighLevel, sinkCurrent } from '../../margins/bipolar';
-import type { MarginResult } from '../../margins/corners';
+import { maxOf, minOf, type MarginResult } from '../../margins/corners';
 import { betaMinOf, type MarginSettings } from '../../margins/defaults';
 import { fanOut } from '../../margins/line';
 import type { FlatNetlist } from '../../netlist/ir';
@@ -30,7 +30,7 @@ export function baseDriveOf(nl: FlatNetlist, node: LogicNode, s: MarginSettings)
   }
   const r = b.baseResistors.map((x) => x.ohms).filter((x): x is number => x !== undefined);
   if (r.length === 0) return undefined;
-  return { ohms: Math.max(...r), volts: vcc, transistor: b.transistor };
+  return { ohms: maxOf(r), volts: vcc, transistor: b.transistor };
 }
 
 export function sharedDriverMargins(nl: FlatNetlist, driver: LogicNode, loads: DriverLoads, s: MarginSettings): MarginResult[] {
@@ -44,8 +44,8 @@ export function sharedDriverMargins(nl: FlatNetlist, driver: LogicNode, loads: D
     out.push(loadedHighLevel({ vcc, rc, rb, loads: loads.resistorBases.length, receiver: 'rtl' }, s));
     const pulled = loads.resistorBases.filter((l) => l.collectorPullUp !== undefined);
     if (pulled.length) {
-      const loadPullUp = Math.min(...pulled.map((l) => l.collectorPullUp!));
-      const betaMin = Math.min(...pulled.map((l) => betaMinOfDevice(nl, l.transistor, s)));
+      const loadPullUp = minOf(pulled.map((l) => l.collectorPullUp!));
+      const betaMin = minOf(pulled.map((l) => betaMinOfDevice(nl, l.transistor, s)));
       out.push(loadBaseCurrent({ vcc, rc, rb, loads: loads.resistorBases.length, loadPullUp, betaMin }, s));
     }
   }
@@ -138,7 +138,7 @@ export function lineMargins(driver: LogicNode | undefined, loads: LineLoad[], fa
   const bases = loads.filter((l) => l.rb !== undefined);
   if (rc === undefined || bases.length === 0 || bases.length !== loads.length) return out;
   const vcc = driver.pullUp!.railVolts;
-  const rb = Math.min(...bases.map((l) => l.rb!));
+  const rb = minOf(bases.map((l) => l.rb!));
   out.push(loadedHighLevel({ vcc, rc, rb, loads: bases.length, receiver: family === 'dtl' ? 'dtl' : 'rtl' }, s));
   const withLoad = bases.filter((l) => l.loadPullUp !== undefined);
   if (withLoad.length) {
@@ -149,8 +149,8 @@ export function lineMargins(driver: LogicNode | undefined, loads: LineLoad[], fa
           rc,
           rb,
           loads: bases.length,
-          loadPullUp: Math.min(...withLoad.map((l) => l.loadPullUp!)),
-          betaMin: Math.min(...withLoad.map((l) => l.betaMin ?? s.defaultBetaMin)),
+          loadPullUp: minOf(withLoad.map((l) => l.loadPullUp!)),
+          betaMin: minOf(withLoad.map((l) => l.betaMin ?? s.defaultBetaMin)),
         },
         s,
       ),
