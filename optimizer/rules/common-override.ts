@@ -183,7 +183,9 @@ function steeringEdit(ctx: RuleContext, ov: Override[], chunks: Chunk[], control
   const nl = ctx.netlist;
   const edit = emptyEdit();
   const diodeModel = Object.values(nl.models).find((m) => m.type.toLowerCase() === 'd');
-  const deviceNames = new Set(nl.devices.map((d) => d.name));
+  // Only names that could collide with an added diode's (…DOVR…) need remembering.
+  const deviceNames = new Set<string>();
+  for (const d of nl.devices) if (d.name.includes('DOVR')) deviceNames.add(d.name);
   const tag = control.replace(/[^A-Za-z0-9_]/g, '_');
   chunks.forEach((ch, ci) => {
     const members = [ch.keep, ...ch.others];
@@ -327,7 +329,7 @@ export const commonOverride = defineRule({
       if (g) g.push(i);
       else byControl.set(o.control, [i]);
     });
-    const readers = readersByName(ctx.view.nodes);
+    const readers = readersByName(ctx.view.nodes, new Set(ov.map((o) => ctx.view.nodes[o.node].name)));
     const infos = new Map<number, LineInfo>();
     const info = (m: number) => {
       let li = infos.get(m);

@@ -122,11 +122,12 @@ export interface LineInfo {
   receivers: MapFamily[];
 }
 
-/** Readers of every net, by name (built once). */
-export function readersByName(nodes: readonly LogicNode[]): Map<string, LogicNode[]> {
+/** Readers of the given nets (all when absent), by name, in one pass. */
+export function readersByName(nodes: readonly LogicNode[], only?: ReadonlySet<string>): Map<string, LogicNode[]> {
   const readers = new Map<string, LogicNode[]>();
   for (const n of nodes) {
     for (const i of n.inputs) {
+      if (only && !only.has(i)) continue;
       const r = readers.get(i);
       if (r) r.push(n);
       else readers.set(i, [n]);
