@@ -131,15 +131,19 @@ export class BaseResolver {
     const terms: Expr[] = [];
     let direct = false;
     let diodeAnd = false;
-    eachTerminal(cx, base, (d, t) => {
+    // a plain loop over the terminal index: a closure here would be allocated per transistor
+    const { offsets, termDev, termIdx } = cx;
+    for (let i = offsets[base], end = offsets[base + 1]; i < end; i++) {
+      const d = termDev[i];
+      const t = termIdx[i];
       const dev = cx.nl.devices[d];
-      if (dev.kind === 'npn' && t === B) return; // this or a paralleled base
+      if (dev.kind === 'npn' && t === B) continue; // this or a paralleled base
       if (dev.kind === 'resistor') {
         const from = otherEnd(cx, d, t);
         if (isLowRail(cx, from)) {
           drive.bleed = d;
           drive.devices.push(d);
-          return;
+          continue;
         }
         drive.baseResistors.push({ device: d, ohms: dev.value, from });
         drive.devices.push(d);
@@ -148,19 +152,19 @@ export class BaseResolver {
           drive.inputs.push(from);
           terms.push(varOf(cx, from));
         }
-        return;
+        continue;
       }
       if (dev.kind === 'diode' && t === 1) {
         const dtl = this.diodeInputs(d, base, drive);
         if (dtl) {
           terms.push(dtl);
           diodeAnd = true;
-          return;
+          continue;
         }
       }
-      if (dev.kind === 'capacitor') return; // speed-up capacitors do not change the logic
+      if (dev.kind === 'capacitor') continue; // speed-up capacitors do not change the logic
       direct = true;
-    });
+    }
     if (!direct && terms.length === 0 && drive.bleed !== undefined) {
       // only a resistor to ground (or a base tied low through one): the transistor stays off
       drive.kind = 'resistor';
@@ -174,7 +178,8 @@ export class BaseResolver {
       drive.kind = 'direct';
     } else if (diodeAnd) drive.kind = 'diode-and';
     else drive.kind = drive.baseResistors.length > 1 ? 'resistor-sum' : 'resistor';
-    drive.on = or(...terms);
+    // one variable is its own OR (what or() would return), without the argument lists
+    drive.on = terms.length === 1 && terms[0].op === 'var' ? terms[0] : or(...terms);
     return drive;
   }
 

@@ -89,8 +89,7 @@ export function flatten(design: Design, limits: Partial<Limits> = {}): FlatNetli
       const d = cell.devices[k];
       const from = devTermStart[k];
       const n = devTermStart[k + 1] - from;
-      const terminals = new Array<number>(n);
-      for (let i = 0; i < n; i++) terminals[i] = ids[devTermIds[from + i]];
+      const terminals = terminalList(ids, devTermIds, from, n);
       devices[nDev++] = flatDevice(d, f.prefix + d.name, terminals, f.path, cell.name);
     }
     // Children pushed in reverse so devices come out in file order.
@@ -167,6 +166,27 @@ function flatDevice(d: Device, name: string, terminals: number[], path: string[]
   if (d.waveform !== undefined) fd.waveform = d.waveform;
   if (loc !== undefined) fd.loc = loc;
   return fd;
+}
+
+/**
+ * A device's flat terminal ids. The usual two-, three- and four-terminal lists are written as
+ * literals: packed arrays (no holes for every later read to check) that the engine can allocate
+ * straight into long-lived memory once it sees they all survive.
+ */
+function terminalList(ids: Int32Array, local: Int32Array, from: number, n: number): number[] {
+  switch (n) {
+    case 2:
+      return [ids[local[from]], ids[local[from + 1]]];
+    case 3:
+      return [ids[local[from]], ids[local[from + 1]], ids[local[from + 2]]];
+    case 4:
+      return [ids[local[from]], ids[local[from + 1]], ids[local[from + 2]], ids[local[from + 3]]];
+    default: {
+      const out: number[] = [];
+      for (let i = 0; i < n; i++) out.push(ids[local[from + i]]);
+      return out;
+    }
+  }
 }
 
 /** Local net indices of some name lists, packed into one array with start offsets. */

@@ -243,8 +243,8 @@ function semiconductor(card: Card, cell: Cell, ctx: ElementContext, name: string
     }
   }
   const kind: DeviceKind = letter === 'D' ? 'diode' : (model.type as DeviceKind);
-  const terminals = new Array<string>(nodes);
-  for (let i = 0; i < nodes; i++) terminals[i] = net(p[i], ctx);
+  // literals, not new Array(n): packed lists, one allocation site the engine can keep long-lived
+  const terminals = nodes === 3 ? [net(p[0], ctx), net(p[1], ctx), net(p[2], ctx)] : nodes === 4 ? [net(p[0], ctx), net(p[1], ctx), net(p[2], ctx), net(p[3], ctx)] : [net(p[0], ctx), net(p[1], ctx)];
   const device: Device = { name, kind, terminals, model: model.name, params, loc };
   keep(ctx);
   cell.devices.push(device);
