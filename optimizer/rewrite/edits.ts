@@ -45,7 +45,7 @@ export function touched(edit: Edit): Touched {
 /** Shared devices and nets of two touched sets (empty when they do not overlap). */
 export function overlapOf(a: Touched, b: Touched): { devices: string[]; nets: string[] } {
   const devices = [...a.devices].filter((d) => b.devices.has(d));
-  devices.push(...[...a.added].filter((d) => b.added.has(d)));
+  for (const d of a.added) if (b.added.has(d)) devices.push(d);
   const nets = [...a.nets].filter((n) => b.nets.has(n));
   return { devices, nets };
 }

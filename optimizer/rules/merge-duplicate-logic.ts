@@ -87,7 +87,8 @@ export const mergeDuplicateLogic = defineRule({
         }
       }
       const keptSet = new Set(keptNames);
-      removedNames.push(...members.filter((m) => !keptSet.has(m.name)).map((m) => m.name));
+      // a loop, not push(...list): a class can hold more members than a call has room for arguments
+      for (const m of members) if (!keptSet.has(m.name)) removedNames.push(m.name);
       const places = listWords([...new Set(members.map((m) => placeOf(m.groups[0].path)))], 3);
       const messageId = !chosen ? 'failing' : plan.bins.length === 1 ? 'merge' : 'split';
       ctx.report({

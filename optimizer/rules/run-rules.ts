@@ -111,7 +111,7 @@ export async function runRules(netlist: FlatNetlist, view: LogicView, options: R
       const location = { devices: r.location.devices ?? [], instances: r.location.instances ?? [], nets: r.location.nets ?? [] };
       const bad = r.proposals.flatMap((p) => editProblems(netlist, p.edit));
       const knownAssumptions = new Set(assumptions.map((a) => a.id));
-      bad.push(...r.proposals.flatMap((p) => (p.assumptions ?? []).filter((a) => !knownAssumptions.has(a)).map((a) => `relies on unknown assumption ${a}`)));
+      for (const p of r.proposals) for (const a of p.assumptions ?? []) if (!knownAssumptions.has(a)) bad.push(`relies on unknown assumption ${a}`);
       if (bad.length) {
         const element = location.devices[0] ?? location.nets[0];
         ruleErrors.push({ ruleId: rule.id, message: new RuleError(rule.id, `proposal does not fit the design: ${bad.slice(0, 3).join('; ')}`, element).message, ...(element ? { element } : {}) });
