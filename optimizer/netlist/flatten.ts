@@ -5,6 +5,7 @@ import { own } from './own';
 import { InputError } from '../errors';
 import { GROUND, type Cell, type Design, type Device, type FlatDevice, type FlatNet, type FlatNetlist, type Rail } from './ir';
 import { hierarchyStats } from './hierarchy';
+import { NameTable } from './name-table';
 import { withDefaults, type Limits } from './limits';
 import { solveRails, type RailSource } from './rails';
 
@@ -200,19 +201,11 @@ function pack(lists: string[][], idx: (n: string) => number): { ids: Int32Array;
 }
 
 function compileCell(cell: Cell, globals: Map<string, number>): CompiledCell {
-  const index = new Map<string, number>();
-  const nets: string[] = [];
-  const idx = (n: string): number => {
-    let i = index.get(n);
-    if (i === undefined) {
-      i = nets.length;
-      index.set(n, i);
-      nets.push(n);
-    }
-    return i;
-  };
+  // a typed-array table: a large flat cell looks up every terminal's net here
+  const index = new NameTable();
+  const idx = (n: string): number => index.add(n);
   for (const p of cell.ports) idx(p);
-  const portCount = nets.length;
+  const portCount = index.size;
   if (portCount !== cell.ports.length) {
     const dup = cell.ports.find((p, i) => cell.ports.indexOf(p) !== i);
     throw InputError.at('netlist.duplicate-port', `port ${dup} is listed twice in ${cell.name}`, cell.loc);
@@ -225,6 +218,7 @@ function compileCell(cell: Cell, globals: Map<string, number>): CompiledCell {
     cell.instances.map((i) => i.connections),
     idx,
   );
+  const nets = index.names;
   const globalOf = new Int32Array(nets.length);
   for (let i = 0; i < nets.length; i++) globalOf[i] = globals.get(nets[i]) ?? -1;
   const kinds = cell.netKinds === undefined ? new Array<FlatNet['kind']>(nets.length).fill(undefined) : nets.map((n) => own(cell.netKinds, n));

@@ -6,6 +6,7 @@ import type { Diagnostic } from '../errors';
 import { GROUND, type Cell, type Design } from './ir';
 import { solveRails, type RailSource } from './rails';
 import { NetUse } from './net-use';
+import { NameTable } from './name-table';
 
 export interface ValidateOptions {
   /** What the format calls a cell: "subcircuit" (SPICE) or "module" (Verilog). */
@@ -61,10 +62,10 @@ export function validateDesign(design: Design, opts: ValidateOptions = {}): Diag
 }
 
 function checkNames(cell: Cell, out: Diagnostic[]): void {
-  const seen = new Set<string>();
+  const seen = new NameTable();
   // Exact comparison: deck readers have already upper-cased names, and Verilog names are case-sensitive.
-  // One set operation per name (a repeat leaves the size unchanged): large flat cells have
-  // millions of names, and each hash probe of a big table is a cache miss.
+  // One table operation per name (a repeat leaves the size unchanged): large flat cells have
+  // millions of names, and a typed-array table probes far faster than a Set of that size.
   const check = (x: { name: string; loc?: Diagnostic['loc'] }) => {
     const before = seen.size;
     seen.add(x.name);
@@ -94,7 +95,8 @@ function singleTerminalNets(cell: Cell, globals: Set<string>, isTop: boolean, ou
   }
   const counts = use.counts;
   const lonely = new Set<string>();
-  for (const [net, i] of use.index) if (counts[i] === 1 && !globals.has(net)) lonely.add(net);
+  const names = use.names;
+  for (let i = 0; i < names.length; i++) if (counts[i] === 1 && !globals.has(names[i])) lonely.add(names[i]);
   if (lonely.size === 0) return;
   const ports = new Set(cell.ports);
   // A second walk finds where each lonely net is used; lonely nets are few, so this stays cheap.
