@@ -8,6 +8,7 @@ import { BaseResolver, extractBipolar } from './bipolar';
 import { extractMos } from './mos';
 import { extractGates } from './gates';
 import { markLoops, successors } from './loops';
+import { NameTable } from '../netlist/name-table';
 import type { DesignFamily, Family, LogicNode, LogicView } from './types';
 
 export type * from './types';
@@ -37,8 +38,9 @@ export function extractLogic(nl: FlatNetlist): LogicView {
   // One node per net: the first extractor to claim a net wins; a clash is reported.
   const nodes: LogicNode[] = [];
   const nodeByNet = new Map<number, number>();
+  const claimed = new Uint8Array(nNets);
   for (const node of chain(gates, bip, mos)) {
-    if (nodeByNet.has(node.net)) {
+    if (claimed[node.net] === 1) {
       cx.diagnostics.push({
         severity: 'warning',
         code: 'extract.mixed-drivers',
@@ -46,10 +48,14 @@ export function extractLogic(nl: FlatNetlist): LogicView {
       });
       continue;
     }
+    claimed[node.net] = 1;
     nodeByNet.set(node.net, nodes.length);
     nodes.push(node);
   }
-  const nodeByName = new Map<string, number>();
+  // node names numbered in a typed-array table; nodeOfName[name number] = the node (the last one
+  // of that name, as a Map set node by node would keep)
+  const names = new NameTable();
+  const nodeOfName = new Int32Array(nodes.length);
   // one support set reused for every node: a Set per node is most of a large design's garbage
   const s = new Set<string>();
   for (let i = 0; i < nodes.length; i++) {
@@ -58,12 +64,16 @@ export function extractLogic(nl: FlatNetlist): LogicView {
     support(n.fn, s);
     if (n.enable) support(n.enable, s);
     n.inputs = [...s];
-    nodeByName.set(n.name, i);
+    nodeOfName[names.add(n.name)] = i;
   }
   // one name lookup per fan-in: the loop search's successor lists and the design's inputs together
   const inputs = new Set<string>();
-  const succ = successors(nodes, nodeByName, (name) => inputs.add(name));
-  cx.diagnostics.push(...markLoops(nodes, nodeByName, succ));
+  const nodeOf = (name: string): number => {
+    const k = names.get(name);
+    return k < 0 ? -1 : nodeOfName[k];
+  };
+  const succ = successors(nodes, nodeOf, (name) => inputs.add(name));
+  cx.diagnostics.push(...markLoops(nodes, succ));
 
   const railNames = new Set(nl.rails.map((r) => nl.nets[r.net].name));
   for (const r of railNames) inputs.delete(r);

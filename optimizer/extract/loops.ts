@@ -8,14 +8,17 @@ function isInverting(n: LogicNode): boolean {
   return n.fn.op === 'not';
 }
 
-/** Each node's fan-in as node indices (inputs that are not nodes left out), in `inputs` order. */
-export function successors(nodes: LogicNode[], nodeByName: Map<string, number>, notNodes?: (name: string) => void): number[][] {
+/**
+ * Each node's fan-in as node indices (inputs that are not nodes left out), in `inputs` order.
+ * `nodeOf` gives the node a name drives, -1 for none.
+ */
+export function successors(nodes: LogicNode[], nodeOf: (name: string) => number, notNodes?: (name: string) => void): number[][] {
   const succ: number[][] = new Array(nodes.length);
   for (let i = 0; i < nodes.length; i++) {
     const list: number[] = [];
     for (const nm of nodes[i].inputs) {
-      const x = nodeByName.get(nm);
-      if (x !== undefined) list.push(x);
+      const x = nodeOf(nm);
+      if (x >= 0) list.push(x);
       else notNodes?.(nm);
     }
     succ[i] = list;
@@ -23,11 +26,8 @@ export function successors(nodes: LogicNode[], nodeByName: Map<string, number>, 
   return succ;
 }
 
-/**
- * Marks latch nets in place; returns the diagnostics for loops that are not simple latches.
- * `succ` is successors(nodes, nodeByName) when the caller has it already.
- */
-export function markLoops(nodes: LogicNode[], nodeByName: Map<string, number>, succ: number[][] = successors(nodes, nodeByName)): Diagnostic[] {
+/** Marks latch nets in place; returns the diagnostics for loops that are not simple latches. */
+export function markLoops(nodes: LogicNode[], succ: number[][]): Diagnostic[] {
   const n = nodes.length;
   const index = new Int32Array(n).fill(-1);
   const low = new Int32Array(n);
