@@ -14,6 +14,7 @@ import {
   varOf,
   type ExtractContext,
 } from './context';
+import { nodePullUp, withNodePullUp } from './node-pull-ups';
 
 // Shared empty lists for the common (non-DTL) base drive: most transistors have none of these.
 const NONE: number[] = Object.freeze([]) as unknown as number[];
@@ -466,7 +467,9 @@ function collectorNode(cx: ExtractContext, bases: BaseResolver, net: number, ded
   const pullsLow = groups.length === 1 ? groups[0].pullsLow : or(...groups.map((g) => g.pullsLow));
   const wired = groups.length > 1 || pullUps.length > 1;
   const kind = wired ? 'wired' : groups[0].openCollector ? 'open-collector' : 'static';
-  if (pullUps.length === 0) {
+  // a line pulled up through a resistor from a pulled-up node, not a rail (node-pull-ups.ts)
+  const fromNode = pullUps.length === 0 ? nodePullUp(cx, net) : undefined;
+  if (pullUps.length === 0 && !fromNode) {
     cx.diagnostics.push({
       severity: 'warning',
       code: 'extract.no-pull-up',
@@ -478,7 +481,8 @@ function collectorNode(cx: ExtractContext, bases: BaseResolver, net: number, ded
   dedup.begin();
   for (const g of groups) for (const d of g.devices) dedup.add(devices, d);
   for (const u of pullUps) dedup.add(devices, u.device);
-  const fn = not(pullsLow);
+  if (fromNode) for (const d of fromNode.devices) dedup.add(devices, d);
+  const fn = fromNode ? withNodePullUp(fromNode, not(pullsLow)) : not(pullsLow);
   return {
     net,
     name: netName(cx, net),

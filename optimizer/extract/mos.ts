@@ -5,6 +5,7 @@
 import { and, evaluateWords, not, or, support, c, type Expr } from '../logic/expr';
 import type { DriverGroup, Family, LogicNode, NodeKind, PullUp, SwitchNetwork } from './types';
 import { commonPath, controlOf, eachTerminal, isHighRail, isRail, netName, otherEnd, varOf, type ExtractContext } from './context';
+import { isMosSteeringNode, withMosSteering } from './mos-steering';
 
 const D = 0;
 const G = 1;
@@ -156,7 +157,7 @@ export function extractMos(cx: ExtractContext, driven: Set<number>, isControlRea
   for (const i of mosDevs) {
     for (const t of [D, S]) {
       const n = nl.devices[i].terminals[t];
-      if (isSource[n] || observed[n]) continue;
+      if (isSource[n] || observed[n] || isMosSteeringNode(cx, n)) continue;
       let other = false;
       eachTerminal(cx, n, (di, ti) => {
         const k = nl.devices[di].kind;
@@ -179,7 +180,7 @@ export function extractMos(cx: ExtractContext, driven: Set<number>, isControlRea
       continue;
     }
     const node = analyseNet(cx, n, isSource, observed, loads.get(n) ?? [], loadDevs);
-    if (node) nodes.push(node);
+    if (node) nodes.push(withMosSteering(cx, node));
   }
   return nodes;
 }
