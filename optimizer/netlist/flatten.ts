@@ -55,17 +55,23 @@ export function flatten(design: Design, limits: Partial<Limits> = {}): FlatNetli
     return c;
   };
 
-  /** Gives an instance's local nets their flat ids: ports from the parent, globals shared, the rest new. */
-  const bind = (c: CompiledCell, prefix: string, portIds: ArrayLike<number> | null): Int32Array => {
-    const ids = new Int32Array(c.nets.length);
+  /**
+   * Gives an instance's local nets their flat ids: ports from the parent (the first `portLen`
+   * entries of portIds), globals shared, the rest new. Plain arrays: a typed array per instance
+   * costs several times more to allocate, and a large design has hundreds of thousands.
+   */
+  const bind = (c: CompiledCell, prefix: string, portIds: readonly number[] | null, portLen: number): number[] => {
+    const ids: number[] = [];
     for (let i = 0; i < c.nets.length; i++) {
       const g = c.globalOf[i];
-      if (g >= 0) ids[i] = g;
-      else if (portIds && i < c.portCount) ids[i] = portIds[i];
-      else ids[i] = newNet(prefix + c.nets[i], c.kinds[i]);
+      if (g >= 0) ids.push(g);
+      else if (portIds && i < c.portCount) ids.push(i < portLen ? portIds[i] : 0);
+      else ids.push(newNet(prefix + c.nets[i], c.kinds[i]));
     }
     return ids;
   };
+  /** Flat ids of the instance being bound, reused instance after instance (bind copies them). */
+  const portScratch: number[] = [];
 
   // Explicit stack instead of recursion: depth is bounded by the limit, but this keeps the walk
   // independent of the engine's call-stack size. Each cell's local nets are numbered once
@@ -75,11 +81,11 @@ export function flatten(design: Design, limits: Partial<Limits> = {}): FlatNetli
     c: CompiledCell;
     prefix: string;
     path: string[];
-    ids: Int32Array;
+    ids: number[];
   }
   const top = design.cells[design.top];
   const topC = compiledOf(top);
-  const frames: Frame[] = [{ cell: top, c: topC, prefix: '', path: [], ids: bind(topC, '', null) }];
+  const frames: Frame[] = [{ cell: top, c: topC, prefix: '', path: [], ids: bind(topC, '', null, 0) }];
   const ports = top.ports.map((_, i) => frames[0].ids[i]);
 
   while (frames.length > 0) {
@@ -99,10 +105,11 @@ export function flatten(design: Design, limits: Partial<Limits> = {}): FlatNetli
       const child = design.cells[inst.cell];
       const cc = compiledOf(child);
       const from = c.instConnStart[k];
-      const portIds = new Int32Array(c.instConnStart[k + 1] - from);
-      for (let i = 0; i < portIds.length; i++) portIds[i] = ids[c.instConnIds[from + i]];
+      const portLen = c.instConnStart[k + 1] - from;
+      portScratch.length = 0;
+      for (let i = 0; i < portLen; i++) portScratch.push(ids[c.instConnIds[from + i]]);
       const prefix = f.prefix + inst.name + '.';
-      frames.push({ cell: child, c: cc, prefix, path: [...f.path, inst.name], ids: bind(cc, prefix, portIds) });
+      frames.push({ cell: child, c: cc, prefix, path: [...f.path, inst.name], ids: bind(cc, prefix, portScratch, portLen) });
     }
   }
   devices.length = nDev;
@@ -174,7 +181,7 @@ function flatDevice(d: Device, name: string, terminals: number[], path: string[]
  * literals: packed arrays (no holes for every later read to check) that the engine can allocate
  * straight into long-lived memory once it sees they all survive.
  */
-function terminalList(ids: Int32Array, local: Int32Array, from: number, n: number): number[] {
+function terminalList(ids: readonly number[], local: Int32Array, from: number, n: number): number[] {
   switch (n) {
     case 2:
       return [ids[local[from]], ids[local[from + 1]]];
