@@ -15,6 +15,7 @@ import {
   type ExtractContext,
 } from './context';
 import { nodePullUp, withNodePullUp } from './node-pull-ups';
+import { eachDiodeTap, isBleed } from './diode-taps';
 
 // Shared empty lists for the common (non-DTL) base drive: most transistors have none of these.
 const NONE: number[] = Object.freeze([]) as unknown as number[];
@@ -315,7 +316,7 @@ function steeringNode(cx: ExtractContext, net: number): boolean {
     const t = termIdx[i];
     if (dev.kind === 'npn' && t === C) collectors++;
     else if (dev.kind === 'diode' && t === 1) diodes++;
-    else return false;
+    else if (!isBleed(cx, termDev[i], t)) return false; // a diode-OR node's bleed may stay (diode-taps.ts)
   }
   if (collectors === 0 || diodes === 0) return false;
   for (let i = offsets[net], end = offsets[net + 1]; i < end; i++) {
@@ -350,8 +351,11 @@ export function networkCondition(n: SwitchNetwork): Expr {
   }
 }
 
-/** Every collector node of the design with its groups; stack nodes and rails are left out. */
-export function extractBipolar(cx: ExtractContext, bases: BaseResolver): LogicNode[] {
+/**
+ * Every collector node of the design with its groups; stack nodes and rails are left out.
+ * @param only when given, just the collector nets marked 1 are analysed (an edited design's changed nets)
+ */
+export function extractBipolar(cx: ExtractContext, bases: BaseResolver, only?: Uint8Array): LogicNode[] {
   const nodes: LogicNode[] = [];
   const seen = new Uint8Array(cx.nl.nets.length);
   const dedup = new DeviceSet(cx.nl.devices.length);
@@ -360,7 +364,7 @@ export function extractBipolar(cx: ExtractContext, bases: BaseResolver): LogicNo
     const dev = devices[di];
     if (dev.kind !== 'npn') continue;
     const net = dev.terminals[C];
-    if (seen[net] || isRail(cx, net) || isStackNode(cx, net) || isSteeringNode(cx, net)) continue;
+    if ((only && !only[net]) || seen[net] || isRail(cx, net) || isStackNode(cx, net) || isSteeringNode(cx, net)) continue;
     seen[net] = 1;
     const node = collectorNode(cx, bases, net, dedup);
     if (node) nodes.push(node);
@@ -482,6 +486,7 @@ function collectorNode(cx: ExtractContext, bases: BaseResolver, net: number, ded
   for (const g of groups) for (const d of g.devices) dedup.add(devices, d);
   for (const u of pullUps) dedup.add(devices, u.device);
   if (fromNode) for (const d of fromNode.devices) dedup.add(devices, d);
+  eachDiodeTap(cx, net, (d) => dedup.add(devices, d));
   const fn = fromNode ? withNodePullUp(fromNode, not(pullsLow)) : not(pullsLow);
   return {
     net,

@@ -6,6 +6,7 @@ import { and, not, or, type Expr } from '../logic/expr';
 import type { LogicNode, SwitchNetwork } from './types';
 import { controlOf, isLowRail, isRail, otherEnd, type ExtractContext } from './context';
 import { nodePullUp, withNodePullUp } from './node-pull-ups';
+import { eachDiodeTap } from './diode-taps';
 
 interface Steering {
   /** Per net: 0 not asked yet, 1 a steering node, 2 not. */
@@ -78,16 +79,19 @@ function pullDownOf(cx: ExtractContext, net: number): { switches: SwitchNetwork[
   let hit = s.down.get(net);
   if (hit) return hit;
   const switches: SwitchNetwork[] = [];
+  const ons: Expr[] = [];
   const devices: number[] = [];
   const { offsets, termDev, termIdx } = cx;
   for (let i = offsets[net], end = offsets[net + 1]; i < end; i++) {
     const d = termDev[i];
     const dev = cx.nl.devices[d];
     if (dev.kind !== 'nmos' || (termIdx[i] !== 0 && termIdx[i] !== 2)) continue;
-    switches.push({ type: 'switch', device: d, on: controlOf(cx, dev.terminals[1]) });
+    const on = controlOf(cx, dev.terminals[1]);
+    switches.push({ type: 'switch', device: d, on });
+    ons.push(on);
     devices.push(d);
   }
-  hit = { switches, on: switches.length === 1 ? switches[0].on : or(...switches.map((w) => w.on)), devices };
+  hit = { switches, on: ons.length === 1 ? ons[0] : or(...ons), devices };
   s.down.set(net, hit);
   return hit;
 }
@@ -115,7 +119,12 @@ export function withMosSteering(cx: ExtractContext, node: LogicNode): LogicNode 
     (devs ??= []).push(d, ...down.devices);
   }
   const up = node.pullUps.length === 0 && group && group.openCollector ? nodePullUp(cx, node.net) : undefined;
-  if (!extra && !up) return node;
+  // diode-OR taps a later override could steer through belong to the line (diode-taps.ts)
+  let taps: number[] | undefined;
+  eachDiodeTap(cx, node.net, (d) => {
+    if (!devs?.includes(d)) (taps ??= []).push(d);
+  });
+  if (!extra && !up && !taps) return node;
   let fn = node.fn;
   if (extra && on && devs) {
     const steered = on.length === 1 ? on[0] : or(...on);
@@ -133,6 +142,7 @@ export function withMosSteering(cx: ExtractContext, node: LogicNode): LogicNode 
     fn = withNodePullUp(up, fn);
     node.devices = [...node.devices, ...up.devices];
   }
+  if (taps) node.devices = [...node.devices, ...taps];
   node.fn = fn;
   return node;
 }
