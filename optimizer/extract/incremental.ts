@@ -1,0 +1,261 @@
+// Logic view of an edited design without extracting it whole: only the driven nets whose groups the
+// edit can change are extracted again (from a small cut of the edited netlist around them); every
+// other node is the unedited view's, with device indices moved to the edited netlist's numbering.
+import { support } from '../logic/expr';
+import type { FlatDevice, FlatNetlist } from '../netlist/ir';
+import { extractLogic } from './index';
+import { BaseResolver, extractBipolar } from './bipolar';
+import { makeContext } from './context';
+import { markLoops, successors } from './loops';
+import { NameTable } from '../netlist/name-table';
+import type { BaseDrive, DesignFamily, DriverGroup, Family, LogicNode, LogicView, PullUp, SwitchNetwork } from './types';
+
+/** The parts of a rewrite the view depends on (the shape of a proposal's edit). */
+export interface EditShape {
+  removeDevices: readonly string[];
+  reconnect: readonly { device: string; net: string }[];
+  addDevices: readonly { name: string; terminals: readonly string[] }[];
+  mergeNets: readonly { keep: string; remove: string }[];
+}
+
+/** Devices on each net of a design, in compressed rows (built once per frozen design). */
+const onNetCache = new WeakMap<FlatNetlist, { start: Int32Array; list: Int32Array }>();
+
+function devicesOnNets(nl: FlatNetlist): { start: Int32Array; list: Int32Array } {
+  let idx = onNetCache.get(nl);
+  if (idx) return idx;
+  const start = new Int32Array(nl.nets.length + 1);
+  for (const d of nl.devices) for (const t of d.terminals) start[t + 1]++;
+  for (let n = 0; n < nl.nets.length; n++) start[n + 1] += start[n];
+  const fill = start.slice(0, nl.nets.length);
+  const list = new Int32Array(start[nl.nets.length]);
+  nl.devices.forEach((d, i) => {
+    for (const t of d.terminals) list[fill[t]++] = i;
+  });
+  idx = { start, list };
+  if (Object.isFrozen(nl.devices)) onNetCache.set(nl, idx);
+  return idx;
+}
+
+const mapNet = (s: SwitchNetwork, dev: (d: number) => number): SwitchNetwork =>
+  s.type === 'switch' ? { ...s, device: dev(s.device) } : { ...s, parts: s.parts.map((p) => mapNet(p, dev)) };
+
+/** A node with every device index and net id passed through the maps (a fresh, unfrozen object). */
+function remapNode(n: LogicNode, dev: (d: number) => number, net: (x: number) => number): LogicNode {
+  const pu = (p: PullUp): PullUp => ({ ...p, device: dev(p.device), rail: net(p.rail) });
+  const base = (b: BaseDrive): BaseDrive => ({
+    ...b,
+    transistor: dev(b.transistor),
+    inputs: b.inputs.map(net),
+    baseResistors: b.baseResistors.map((r) => ({ ...r, device: dev(r.device), from: net(r.from) })),
+    inputDiodes: b.inputDiodes.map(dev),
+    levelShiftDiodes: b.levelShiftDiodes.map(dev),
+    ...(b.diodePullUp ? { diodePullUp: pu(b.diodePullUp) } : {}),
+    ...(b.bleed !== undefined ? { bleed: dev(b.bleed) } : {}),
+    devices: b.devices.map(dev),
+  });
+  const group = (g: DriverGroup): DriverGroup => ({
+    ...g,
+    ...(g.pullDown ? { pullDown: mapNet(g.pullDown, dev) } : {}),
+    ...(g.pullUp ? { pullUp: mapNet(g.pullUp, dev) } : {}),
+    bases: g.bases.map(base),
+    devices: g.devices.map(dev),
+  });
+  return {
+    ...n,
+    net: net(n.net),
+    inputs: [...n.inputs],
+    devices: n.devices.map(dev),
+    ...(n.pullUp ? { pullUp: pu(n.pullUp) } : {}),
+    pullUps: n.pullUps.map(pu),
+    groups: n.groups.map(group),
+    ...(n.partner !== undefined ? { partner: net(n.partner) } : {}),
+  };
+}
+
+/**
+ * @param before the unedited design and its view
+ * @param after `applyProposals(before.nl, [proposal], { share: true })`: the same net ids, the
+ *   devices in order less the removed ones, then the added ones
+ * @returns the view extractLogic(after) gives, in the same node order (its diagnostics excepted:
+ *   the unedited view's extractor warnings are kept, loop warnings found anew)
+ */
+export function extractEdited(before: { nl: FlatNetlist; view: LogicView }, after: FlatNetlist, edit: EditShape): LogicView {
+  const nl = before.nl;
+  const removed = new Set(edit.removeDevices);
+  // Old device index → new (−1 when removed); new → old (−1 when added).
+  const toNew = new Int32Array(nl.devices.length);
+  let k = 0;
+  for (let i = 0; i < nl.devices.length; i++) toNew[i] = removed.has(nl.devices[i].name) ? -1 : k++;
+  const shareLike =
+    after.nets.length >= nl.nets.length &&
+    after.devices.length === k + edit.addDevices.length &&
+    nl.nets.every((n, i) => after.nets[i].name === n.name);
+  if (!shareLike) return extractLogic(after);
+  // Old net id → its id after the edit (itself, or the kept net of a merge): one name lookup a net.
+  const canonOf = new Int32Array(nl.nets.length);
+  for (let i = 0; i < nl.nets.length; i++) canonOf[i] = after.netByName.get(nl.nets[i].name) ?? i;
+  const canon = (oldNet: number): number => canonOf[oldNet];
+  const isRail = new Uint8Array(after.nets.length);
+  for (const r of after.rails) isRail[r.net] = 1;
+
+  // Nets the edit touches (in the edited numbering): every terminal of a removed, reconnected or
+  // added device, before and after, and both sides of every merge.
+  const touched = new Set<number>();
+  const touch = (n: number) => {
+    if (!isRail[n]) touched.add(n);
+  };
+  const byName = new Map<string, number>();
+  const moved = new Set([...edit.reconnect.map((r) => r.device), ...edit.addDevices.map((d) => d.name)]);
+  for (let i = 0; i < nl.devices.length; i++) {
+    const name = nl.devices[i].name;
+    if (removed.has(name) || moved.has(name)) for (const t of nl.devices[i].terminals) touch(canon(t));
+  }
+  for (let i = 0; i < after.devices.length; i++) {
+    const d = after.devices[i];
+    if (moved.has(d.name)) {
+      byName.set(d.name, i);
+      for (const t of d.terminals) touch(t);
+    }
+  }
+  const mergedAway: number[] = [];
+  for (const m of edit.mergeNets) {
+    const gone = nl.netByName.get(m.remove);
+    if (gone !== undefined) mergedAway.push(gone);
+    for (const name of [m.keep, m.remove]) {
+      const id = after.netByName.get(name);
+      if (id !== undefined) touch(id);
+    }
+  }
+
+  // Devices on a net of the edited design, from the unedited index, the merges and the moved parts.
+  const old = devicesOnNets(nl);
+  const mergedInto = new Map<number, number[]>();
+  for (const g of mergedAway) (mergedInto.get(canon(g)) ?? mergedInto.set(canon(g), []).get(canon(g))!).push(g);
+  const movedOn = new Map<number, number[]>();
+  for (const i of byName.values()) for (const t of new Set(after.devices[i].terminals)) (movedOn.get(t) ?? movedOn.set(t, []).get(t)!).push(i);
+  const fromOld = (o: number, into: Set<number>) => {
+    for (let j = old.start[o]; j < old.start[o + 1]; j++) if (toNew[old.list[j]] >= 0) into.add(toNew[old.list[j]]);
+  };
+  const onAfterNet = (n: number, into: Set<number>) => {
+    if (n < nl.nets.length) fromOld(n, into);
+    for (const g of mergedInto.get(n) ?? []) fromOld(g, into);
+    for (const i of movedOn.get(n) ?? []) into.add(i);
+  };
+
+  // Nodes the edit can change: those on a touched net or holding a device on one; latches too,
+  // since a loop the edit opens or closes changes them and their kind before loop marking is gone.
+  const oldView = before.view;
+  const dirtyNets = new Set<number>(touched);
+  const dirty = new Uint8Array(oldView.nodes.length);
+  oldView.nodes.forEach((n, i) => {
+    let hit = n.kind === 'latch' || touched.has(canon(n.net));
+    for (let j = 0; !hit && j < n.devices.length; j++) {
+      const d = n.devices[j];
+      if (toNew[d] < 0) hit = true;
+      else for (const t of nl.devices[d].terminals) if (touched.has(canon(t))) hit = true;
+    }
+    if (hit) {
+      dirty[i] = 1;
+      dirtyNets.add(canon(n.net));
+    }
+  });
+  // The cut: every net of a changed node's devices and of the parts on touched nets, then every
+  // device on those nets, so each changed net sees its full neighbourhood as the whole design does.
+  const ring = new Set<number>(dirtyNets);
+  const addTerms = (d: FlatDevice) => {
+    for (const t of d.terminals) if (!isRail[t]) ring.add(t);
+  };
+  oldView.nodes.forEach((n, i) => {
+    if (dirty[i]) for (const d of n.devices) if (toNew[d] >= 0) addTerms(after.devices[toNew[d]]);
+  });
+  const onTouched = new Set<number>();
+  for (const n of touched) onAfterNet(n, onTouched);
+  for (const d of onTouched) addTerms(after.devices[d]);
+  const picked = new Set<number>();
+  for (const n of ring) onAfterNet(n, picked);
+  after.devices.forEach((d, i) => {
+    if (d.kind === 'vsource' || d.kind === 'isource') picked.add(i);
+  });
+  const cut = [...picked].sort((a, b) => a - b);
+
+  // The cut as a netlist of its own: the edited design's nets (same ids) and device objects, so the
+  // extractor's walks see the same shapes and no net needs renumbering.
+  const devices = cut.map((i) => after.devices[i]);
+  const cutNl: FlatNetlist = { ...after, devices };
+  // A cut of bipolar parts only needs its changed collector nets analysed; with gates or MOS parts
+  // the claims between extractors and the MOS drive analysis read every net, so it is extracted whole.
+  let localNodes: LogicNode[];
+  if (devices.every((d) => d.kind !== 'gate' && d.kind !== 'nmos' && d.kind !== 'pmos')) {
+    const only = new Uint8Array(after.nets.length);
+    for (const n of dirtyNets) only[n] = 1;
+    const cx = makeContext(cutNl);
+    localNodes = extractBipolar(cx, new BaseResolver(cx), only);
+  } else localNodes = extractLogic(cutNl).nodes;
+
+  // Kept nodes from the unedited view, changed ones from the cut, in extractLogic's order: gate
+  // level by first driving gate, bipolar by first transistor collected on the net, MOS by net id.
+  const nodes: LogicNode[] = [];
+  oldView.nodes.forEach((n, i) => {
+    if (!dirty[i]) nodes.push(remapNode(n, (d) => toNew[d], (x) => x));
+  });
+  for (const n of localNodes) {
+    if (dirtyNets.has(n.net)) nodes.push(remapNode(n, (d) => cut[d], (x) => x));
+  }
+  const cls = (f: Family) => (f === 'gate' ? 0 : f === 'rtl' || f === 'dtl' ? 1 : 2);
+  const keyOf = (n: LogicNode): number => {
+    if (cls(n.family) === 2) return n.net;
+    let best = Infinity;
+    for (const d of n.devices) {
+      const dev = after.devices[d];
+      if (dev.terminals[0] !== n.net) continue;
+      if (n.family === 'gate' ? dev.kind === 'gate' && dev.op !== 'pullup' && dev.op !== 'pulldown' : dev.kind === 'npn') best = Math.min(best, d);
+    }
+    return best;
+  };
+  const order = nodes.map((n, i) => ({ c: cls(n.family), k: keyOf(n), i }));
+  order.sort((x, y) => x.c - y.c || x.k - y.k);
+  const sorted = order.map((o) => nodes[o.i]);
+  return finish(after, oldView, sorted);
+}
+
+/** The whole-view steps of extractLogic on the combined nodes: fan-in lists, loops, inputs, family. */
+function finish(after: FlatNetlist, oldView: LogicView, nodes: LogicNode[]): LogicView {
+  const nodeByNet = new Map<number, number>();
+  const names = new NameTable();
+  const nodeOfName = new Int32Array(nodes.length);
+  const s = new Set<string>();
+  nodes.forEach((n, i) => {
+    nodeByNet.set(n.net, i);
+    s.clear();
+    support(n.fn, s);
+    if (n.enable) support(n.enable, s);
+    n.inputs = [...s];
+    nodeOfName[names.add(n.name)] = i;
+  });
+  const inputs = new Set<string>();
+  const nodeOf = (name: string): number => {
+    const k = names.get(name);
+    return k < 0 ? -1 : nodeOfName[k];
+  };
+  const succ = successors(nodes, nodeOf, (name) => inputs.add(name));
+  const loops = markLoops(nodes, succ);
+  for (const r of after.rails) inputs.delete(after.nets[r.net].name);
+  const familyCounts: Partial<Record<Family, number>> = {};
+  for (const n of nodes) familyCounts[n.family] = (familyCounts[n.family] ?? 0) + 1;
+  const fams = Object.keys(familyCounts) as Family[];
+  const family: DesignFamily = fams.length === 0 ? 'none' : fams.length === 1 ? fams[0] : 'mixed';
+  const rails = new Map<number, number>();
+  for (const r of after.rails) rails.set(r.net, r.volts);
+  return {
+    title: after.title,
+    nodes,
+    nodeByNet,
+    inputs: [...inputs].sort(),
+    stateBits: nodes.filter((n) => n.kind === 'latch').map((n) => n.name),
+    rails,
+    family,
+    familyCounts,
+    diagnostics: [...oldView.diagnostics.filter((d) => d.code !== 'extract.loop'), ...loops],
+  };
+}
