@@ -12,7 +12,7 @@ const examples = deckExamples(path.join(__dirname, 'common-override.md'));
 /** The verdict a doc example's expected message implies: share forms are ready, failing forms fail on margins. */
 const VERDICT: Record<string, string> = { share: 'ready', shareNode: 'ready', failing: 'failing-margins', failingNode: 'failing-margins' };
 
-describe('common-override: scan verdicts of the doc examples', () => {
+describe('common-override: scan verdicts of the doc examples (default options)', () => {
   it.each(examples.filter((e) => e.expect.messageId !== null).map((e) => [e.label, e] as const))('%s', async (_l, ex) => {
     const r = await scanOne(rule, deckNetlist(ex.deck), { assumptions: ex.assumptions, ...(ex.options ? { options: ex.options } : {}) });
     expect(r.ruleErrors).toEqual([]);

@@ -286,11 +286,12 @@ describe('common-override: a node the lines already share', () => {
     expect(d.actual).toEqual(d.stated);
   });
 
-  it('is off by default (the scan cannot yet prove an override acting on a shared node)', async () => {
-    const r = await runOne(rule, sharedBits(3, { via: 'diode', receiver: 'dtl' }));
-    // Without the option only the steering form is looked for.
+  it('is on by default, and switched off only the steering form is looked for', async () => {
+    expect((await runOne(rule, sharedBits(3, { via: 'pull-up', receiver: 'rtl' }))).findings.map((f) => f.messageId)).toEqual(['shareNode']);
+    const off = { sharedNode: false };
+    const r = await runOne(rule, sharedBits(3, { via: 'diode', receiver: 'dtl' }), { options: off });
     expect(r.findings.map((f) => f.messageId)).not.toContain('shareNode');
-    expect((await runOne(rule, sharedBits(3, { via: 'pull-up', receiver: 'rtl' }))).findings).toEqual([]);
+    expect((await runOne(rule, sharedBits(3, { via: 'pull-up', receiver: 'rtl' }), { options: off })).findings).toEqual([]);
   });
 
   it('pull-ups hanging from S read by DTL inputs through 10k: the inputs hold the lines above V_IL, refused', async () => {
@@ -394,8 +395,9 @@ describe('common-override: NMOS overrides', () => {
     expect(p.margins.find((m) => m.name === 'back-feed between lines')!.note).toContain('on 32 input vectors');
   });
 
-  it('is off by default (the scan cannot yet prove an NMOS steering node)', async () => {
-    expect((await runOne(rule, mosBits(3, { load: 'resistor', receiver: 'cmos' }))).findings).toEqual([]);
+  it('is on by default, and switched off NMOS lines are left alone', async () => {
+    expect((await runOne(rule, mosBits(3, { load: 'resistor', receiver: 'cmos' }))).findings.map((f) => f.messageId)).toEqual(['share']);
+    expect((await runOne(rule, mosBits(3, { load: 'resistor', receiver: 'cmos' }), { options: { mosLines: false } })).findings).toEqual([]);
   });
 
   it('lines read by NMOS inverters (V_IL 0.8 V): the steered low level fails, refused', async () => {

@@ -35,10 +35,10 @@ const OptionsSchema = z.object({
   /** Inputs simulated exhaustively by the switch-level checks; beyond, a seeded sample of 2^limit. */
   sneakExhaustiveLimit: z.number().int().min(1).max(14),
   /**
-   * Also propose one override on a node the lines already share, and take NMOS overrides. Off by
-   * default: the scan proves a rewrite by extracting the rewritten design, and the extractor does
-   * not yet recognise an NMOS steering node or an override acting on a shared node, so the scan
-   * would refute these proposals although the rule's switch-level checks and ngspice keep them.
+   * Also propose one override on a node the lines already share, and take NMOS overrides. On by
+   * default: extraction reads a line hung from a pulled-up node, diode-OR nodes and NMOS steering
+   * nodes (extract/node-pull-ups.ts, extract/mos-steering.ts), so the scan proves these rewrites;
+   * switch either off to keep to the bipolar steering form.
    */
   sharedNode: z.boolean(),
   mosLines: z.boolean(),
@@ -316,7 +316,7 @@ export const commonOverride = defineRule({
       failingNode: '{count} override transistors on {control} ({where}) could be one override on {node}, the node the lines already share, but it fails {failed}',
     },
     optionsSchema: OptionsSchema,
-    defaultOptions: { minCopies: 2, sneakExhaustiveLimit: 10, sharedNode: false, mosLines: false },
+    defaultOptions: { minCopies: 2, sneakExhaustiveLimit: 10, sharedNode: true, mosLines: true },
   },
   find(ctx, options) {
     const nl = ctx.netlist;
