@@ -48,7 +48,8 @@ async function checkAll(nl: FlatNetlist, assumptions: Assumption[]): Promise<num
   for (const f of run.findings) {
     for (const p of f.proposals) {
       const after = applyProposals(nl, [p], { share: true });
-      const edited = extractEdited({ nl, view }, after, p.edit);
+      // every share allowed, so the incremental path runs even where most of a small design changes
+      const edited = extractEdited({ nl, view }, after, p.edit, { maxChangedShare: 1 });
       expect(comparable(edited), `${f.ruleId} ${p.id}`).toEqual(comparable(extractLogic(after)));
       checked++;
     }
@@ -86,13 +87,24 @@ describe('extractEdited', () => {
     });
   }
 
+  it('extracts the edited design whole when most of it changed, with the same result', async () => {
+    const nl = flatten(generateBitSliced({ slices: 4, family: 'rtl' }));
+    const view = extractLogic(nl);
+    const run = await runRules(nl, view, {});
+    const p = run.findings[0].proposals[0];
+    const after = applyProposals(nl, [p], { share: true });
+    const whole = extractEdited({ nl, view }, after, p.edit, { maxChangedShare: 0 });
+    expect(whole.diagnostics).toEqual(extractLogic(after).diagnostics);
+    expect(comparable(whole)).toEqual(comparable(extractEdited({ nl, view }, after, p.edit, { maxChangedShare: 1 })));
+  });
+
   it('leaves the unedited view untouched', async () => {
     const nl = flatten(generateBitSliced({ slices: 4, family: 'rtl' }));
     const view = extractLogic(nl);
     const snapshot = JSON.stringify(comparable(view));
     const run = await runRules(nl, view, {});
     const p = run.findings[0].proposals[0];
-    extractEdited({ nl, view }, applyProposals(nl, [p], { share: true }), p.edit);
+    extractEdited({ nl, view }, applyProposals(nl, [p], { share: true }), p.edit, { maxChangedShare: 1 });
     expect(JSON.stringify(comparable(view))).toBe(snapshot);
   });
 });

@@ -2,6 +2,7 @@
 // equivalent under the assumptions it relies on, take the rule's margin checks and price its
 // savings, and give a verdict: ready, failing-margins, refuted (or unproved when no proof ran).
 import { extractLogic } from '../extract';
+import { extractEdited } from '../extract/incremental';
 import type { LogicView } from '../extract/types';
 import { combinationalModel, ENABLE_SUFFIX, NEXT_SUFFIX } from '../extract/compose';
 import { and, evaluate, v, type Expr } from '../logic/expr';
@@ -146,8 +147,9 @@ type Problem =
   | { done: Verification }
   | { done?: undefined; compared: string[]; beforeFns: Record<string, Expr>; afterFns: Record<string, Expr>; inputs: string[] };
 
-function problemOf(nl: FlatNetlist, view: LogicView, after: FlatNetlist, changed: string[], used: Assumption[]): Problem {
-  const afterView = extractLogic(after);
+function problemOf(nl: FlatNetlist, view: LogicView, after: FlatNetlist, edit: Proposal['edit'], changed: string[], used: Assumption[]): Problem {
+  // Only the groups the edit touches are extracted again; every other node is the region's own.
+  const afterView = extractEdited({ nl, view }, after, edit);
   const driven = (view: LogicView, nl: FlatNetlist, name: string) => {
     const id = nl.netByName.get(name);
     return id !== undefined && view.nodeByNet.has(id);
@@ -255,7 +257,7 @@ export function verifyProposal(
   const after = applyProposals(nl, [p], { share: true });
   const used = assumptions.filter((a) => p.assumptions.includes(a.id));
   let problem: Problem | undefined;
-  const problemNow = () => (problem ??= problemOf(nl, nl === before.nl ? before.view : extractLogic(nl), after, changed, used));
+  const problemNow = () => (problem ??= problemOf(nl, nl === before.nl ? before.view : extractLogic(nl), after, p.edit, changed, used));
   const key = cache ? proofKey(nl, after, changed, used, `simulate:${nl.devices.length <= simulateUpTo}`) : undefined;
   const hit = key && cache!.get(key.key);
   if (hit) {
