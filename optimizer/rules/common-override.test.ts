@@ -427,3 +427,43 @@ describe('common-override: doc examples', () => {
   it('has examples', () => expect(examples.length).toBeGreaterThanOrEqual(3));
   it.each(examples.map((e) => [e.label, e] as const))('%s', (_l, ex) => checkDeckExample(rule, ex));
 });
+
+describe('common-override: switches that are no override (options on by default)', () => {
+  it('an NMOS NOR whose inputs are held at 0 V: no finding (a constant control is no override, one line is not two)', async () => {
+    const nl = deckNetlist(
+      ['Wren-8 spare NOR-2, inputs strapped low', 'VDD VDD 0 DC 5', 'VA A 0 DC 0', 'VB B 0 DC 0', 'RL VDD Y 20k', 'MA Y A 0 0 NM', 'MB Y B 0 0 NM', '.model NM NMOS (LEVEL=1 VTO=0.7 KP=110u)', '.end', ''].join('\n'),
+    );
+    const r = await runOne(rule, nl);
+    expect(r.ruleErrors).toEqual([]);
+    expect(r.findings).toEqual([]);
+  });
+
+  it('two paralleled clears on each line count that line once', async () => {
+    // Each line has QK and a paralleled QK2 from the same CLR: still two lines, one finding of two.
+    const b = new NetlistBuilder('Wren-8 register clear lines, doubled clears');
+    b.rail('VCC', 5);
+    b.model('QN', 'npn', { IS: 1e-14, BF: 100 });
+    b.model('DN', 'd', { IS: 1e-14 });
+    for (let k = 0; k < 2; k++) {
+      b.within([`XB${k}`], () => {
+        b.resistor('RC', 'VCC', 'Y', 1000);
+        b.resistor('RD', `/D${k}`, 'BD', 4700);
+        b.npn('QD', 'Y', 'BD', '0', { model: 'QN' });
+        b.resistor('RK', '/CLR', 'BK', 4700);
+        b.npn('QK', 'Y', 'BK', '0', { model: 'QN' });
+        b.resistor('RK2', '/CLR', 'BK2', 4700);
+        b.npn('QK2', 'Y', 'BK2', '0', { model: 'QN' });
+        b.resistor('RP', 'VCC', 'P', 4700);
+        b.diode('DI', 'P', 'Y', { model: 'DN' });
+        b.diode('DL1', 'P', 'M', { model: 'DN' });
+        b.diode('DL2', 'M', 'BR', { model: 'DN' });
+        b.resistor('RBL', 'BR', '0', 5000);
+        b.resistor('RZ', 'VCC', 'Z', 2000);
+        b.npn('QR', 'Z', 'BR', '0', { model: 'QN' });
+      });
+    }
+    const r = await runOne(rule, b.build());
+    expect(r.ruleErrors).toEqual([]);
+    expect(r.findings.map((f) => f.data.count)).toEqual([2]);
+  });
+});

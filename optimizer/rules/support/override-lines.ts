@@ -58,6 +58,7 @@ export function findOverrides(ctx: RuleContext, cx: ExtractContext, min = 1, mos
   type Candidate = { ni: number; br: { device: number; on: Expr }; control: string; vcc: number; hung?: ReturnType<typeof hungFrom> };
   const candidates: Candidate[] = [];
   const perControl = new Map<string, number>();
+  const seenOnLine = new Set<string>();
   view.nodes.forEach((node, ni) => {
     const bipolar = node.family === 'rtl' || node.family === 'dtl';
     if (!bipolar && !(mos && node.family === 'nmos')) return;
@@ -77,7 +78,13 @@ export function findOverrides(ctx: RuleContext, cx: ExtractContext, min = 1, mos
       const q = nl.devices[br.device];
       if (q.terminals[0] !== node.net || !lowRails.has(q.terminals[2])) continue;
       if (q.kind !== (bipolar ? 'npn' : 'nmos')) continue;
+      // a switch whose control is a constant (a gate or base tied to a rail) is never an override
+      if (br.on.op === 'const') continue;
       const control = `${node.family}|${exprToString(br.on)}`;
+      // a second override of the same control on the same line is paralleled, not another line
+      const key = `${control}#${ni}`;
+      if (seenOnLine.has(key)) continue;
+      seenOnLine.add(key);
       candidates.push({ ni, br, control, vcc, ...(hung ? { hung } : {}) });
       perControl.set(control, (perControl.get(control) ?? 0) + 1);
     }
