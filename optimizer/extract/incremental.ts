@@ -95,6 +95,10 @@ export function extractEdited(
   options: { maxChangedShare?: number } = {},
 ): LogicView {
   const nl = before.nl;
+  // An edit of more parts than the allowance of nodes changes at least about as many: extract whole.
+  if (edit.removeDevices.length + edit.reconnect.length > (options.maxChangedShare ?? DEFAULT_MAX_CHANGED_SHARE) * before.view.nodes.length) {
+    return extractLogic(after);
+  }
   const removed = new Set(edit.removeDevices);
   // Old device index → new (−1 when removed); new → old (−1 when added).
   const toNew = new Int32Array(nl.devices.length);
@@ -161,7 +165,11 @@ export function extractEdited(
   const oldView = before.view;
   const dirtyNets = new Set<number>(touched);
   const dirty = new Uint8Array(oldView.nodes.length);
-  oldView.nodes.forEach((n, i) => {
+  // Past the allowance the whole extraction is cheaper: stop counting there.
+  const allowed = (options.maxChangedShare ?? DEFAULT_MAX_CHANGED_SHARE) * oldView.nodes.length;
+  let changedCount = 0;
+  for (let i = 0; i < oldView.nodes.length; i++) {
+    const n = oldView.nodes[i];
     let hit = n.kind === 'latch' || touched.has(canon(n.net));
     for (let j = 0; !hit && j < n.devices.length; j++) {
       const d = n.devices[j];
@@ -171,11 +179,9 @@ export function extractEdited(
     if (hit) {
       dirty[i] = 1;
       dirtyNets.add(canon(n.net));
+      if (++changedCount > allowed) return extractLogic(after);
     }
-  });
-  let changedCount = 0;
-  for (let i = 0; i < dirty.length; i++) changedCount += dirty[i];
-  if (changedCount > (options.maxChangedShare ?? DEFAULT_MAX_CHANGED_SHARE) * oldView.nodes.length) return extractLogic(after);
+  }
   // The cut: every net of a changed node's devices and of the parts on touched nets, then every
   // device on those nets, so each changed net sees its full neighbourhood as the whole design does.
   const ring = new Set<number>(dirtyNets);
