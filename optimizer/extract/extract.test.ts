@@ -2,27 +2,12 @@
 // checks the function by truth table, the kind and family, and the part counts of the group.
 import { describe, expect, it } from 'vitest';
 import { netlist } from '../netlist/build';
-import { evaluate, support, type Expr } from '../logic/expr';
-import { parseExpr } from '../logic/expr-parse';
+import { evaluate } from '../logic/expr';
+import { nodeNamed, sameFunction } from './test-helpers';
 import { extractLogic } from './index';
 import type { LogicView } from './types';
 
-/** Same truth table over the union of the supports (a wrong function fails on some row). */
-function sameFunction(got: Expr, want: string): boolean {
-  const w = parseExpr(want);
-  const vars = [...new Set([...support(got), ...support(w)])];
-  for (let m = 0; m < 1 << vars.length; m++) {
-    const env = Object.fromEntries(vars.map((n, i) => [n, ((m >> i) & 1) as 0 | 1]));
-    if (evaluate(got, env) !== evaluate(w, env)) return false;
-  }
-  return true;
-}
-
-const node = (view: LogicView, name: string) => {
-  const n = view.nodes.find((x) => x.name === name);
-  if (!n) throw new Error(`no node ${name}; have ${view.nodes.map((x) => x.name).join(', ')}`);
-  return n;
-};
+const node = nodeNamed;
 
 const kinds = (view: LogicView, devs: number[], nl: ReturnType<ReturnType<typeof netlist>['build']>) => {
   const out: Record<string, number> = {};

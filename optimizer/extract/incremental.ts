@@ -1,14 +1,12 @@
 // Logic view of an edited design without extracting it whole: only the driven nets whose groups the
 // edit can change are extracted again (from a small cut of the edited netlist around them); every
 // other node is the unedited view's, with device indices moved to the edited netlist's numbering.
-import { support } from '../logic/expr';
 import type { FlatDevice, FlatNetlist } from '../netlist/ir';
 import { extractLogic } from './index';
 import { BaseResolver, extractBipolar } from './bipolar';
 import { makeContext } from './context';
-import { markLoops, successors } from './loops';
-import { NameTable } from '../netlist/name-table';
-import type { BaseDrive, DesignFamily, DriverGroup, Family, LogicNode, LogicView, PullUp, SwitchNetwork } from './types';
+import { summariseNodes } from './summary';
+import type { BaseDrive, DriverGroup, Family, LogicNode, LogicView, PullUp, SwitchNetwork } from './types';
 
 /** The parts of a rewrite the view depends on (the shape of a proposal's edit). */
 export interface EditShape {
@@ -243,41 +241,11 @@ export function extractEdited(
 
 /** The whole-view steps of extractLogic on the combined nodes: fan-in lists, loops, inputs, family. */
 function finish(after: FlatNetlist, oldView: LogicView, nodes: LogicNode[]): LogicView {
-  const nodeByNet = new Map<number, number>();
-  const names = new NameTable();
-  const nodeOfName = new Int32Array(nodes.length);
-  const s = new Set<string>();
-  nodes.forEach((n, i) => {
-    nodeByNet.set(n.net, i);
-    s.clear();
-    support(n.fn, s);
-    if (n.enable) support(n.enable, s);
-    n.inputs = [...s];
-    nodeOfName[names.add(n.name)] = i;
-  });
-  const inputs = new Set<string>();
-  const nodeOf = (name: string): number => {
-    const k = names.get(name);
-    return k < 0 ? -1 : nodeOfName[k];
-  };
-  const succ = successors(nodes, nodeOf, (name) => inputs.add(name));
-  const loops = markLoops(nodes, succ);
-  for (const r of after.rails) inputs.delete(after.nets[r.net].name);
-  const familyCounts: Partial<Record<Family, number>> = {};
-  for (const n of nodes) familyCounts[n.family] = (familyCounts[n.family] ?? 0) + 1;
-  const fams = Object.keys(familyCounts) as Family[];
-  const family: DesignFamily = fams.length === 0 ? 'none' : fams.length === 1 ? fams[0] : 'mixed';
-  const rails = new Map<number, number>();
-  for (const r of after.rails) rails.set(r.net, r.volts);
+  const { view, loops } = summariseNodes(after, nodes);
   return {
     title: after.title,
     nodes,
-    nodeByNet,
-    inputs: [...inputs].sort(),
-    stateBits: nodes.filter((n) => n.kind === 'latch').map((n) => n.name),
-    rails,
-    family,
-    familyCounts,
+    ...view,
     diagnostics: [...oldView.diagnostics.filter((d) => d.code !== 'extract.loop'), ...loops],
   };
 }

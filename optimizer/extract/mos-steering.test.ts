@@ -2,29 +2,14 @@
 // (truth table), the steering node left out of the view, the devices each line takes, and the
 // look-alikes (an LED on an open drain) that stay as they were.
 import { describe, expect, it } from 'vitest';
-import { evaluate, support, type Expr } from '../logic/expr';
-import { parseExpr } from '../logic/expr-parse';
 import { netlist } from '../netlist/build';
 import type { FlatNetlist } from '../netlist/ir';
+import { nodeNamed, sameFunction } from './test-helpers';
 import { extractLogic } from './index';
 import type { LogicView } from './types';
 
-function sameFunction(got: Expr, want: string): boolean {
-  const w = parseExpr(want);
-  const vars = [...new Set([...support(got), ...support(w)])];
-  for (let m = 0; m < 1 << vars.length; m++) {
-    const env = Object.fromEntries(vars.map((n, i) => [n, ((m >> i) & 1) as 0 | 1]));
-    if (evaluate(got, env) !== evaluate(w, env)) return false;
-  }
-  return true;
-}
-
 const find = (view: LogicView, name: string) => view.nodes.find((x) => x.name === name);
-const node = (view: LogicView, name: string) => {
-  const n = find(view, name);
-  if (!n) throw new Error(`no node ${name}; have ${view.nodes.map((x) => x.name).join(', ')}`);
-  return n;
-};
+const node = nodeNamed;
 const names = (nl: FlatNetlist, devs: number[]) => devs.map((d) => nl.devices[d].name);
 
 describe('NMOS steering node', () => {

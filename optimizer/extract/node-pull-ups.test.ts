@@ -1,28 +1,14 @@
 // Lines pulled up from a pulled-up node: the function (node ∧ ¬pull-downs, checked by truth table),
 // the devices the line's high level rests on, chains of nodes, and the structures left unread.
 import { describe, expect, it } from 'vitest';
-import { evaluate, support, type Expr } from '../logic/expr';
-import { parseExpr } from '../logic/expr-parse';
+import { support } from '../logic/expr';
 import { netlist } from '../netlist/build';
 import type { FlatNetlist } from '../netlist/ir';
+import { nodeNamed, sameFunction } from './test-helpers';
 import { extractLogic } from './index';
 import type { LogicView } from './types';
 
-function sameFunction(got: Expr, want: string): boolean {
-  const w = parseExpr(want);
-  const vars = [...new Set([...support(got), ...support(w)])];
-  for (let m = 0; m < 1 << vars.length; m++) {
-    const env = Object.fromEntries(vars.map((n, i) => [n, ((m >> i) & 1) as 0 | 1]));
-    if (evaluate(got, env) !== evaluate(w, env)) return false;
-  }
-  return true;
-}
-
-const node = (view: LogicView, name: string) => {
-  const n = view.nodes.find((x) => x.name === name);
-  if (!n) throw new Error(`no node ${name}; have ${view.nodes.map((x) => x.name).join(', ')}`);
-  return n;
-};
+const node = nodeNamed;
 const names = (nl: FlatNetlist, devs: number[]) => devs.map((d) => nl.devices[d].name).sort();
 const noPullUp = (view: LogicView, net: string) => view.diagnostics.some((d) => d.code === 'extract.no-pull-up' && d.message.includes(`net ${net} `));
 
