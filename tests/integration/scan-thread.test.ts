@@ -9,7 +9,7 @@ import path from 'node:path';
 import { afterAll, afterEach, beforeAll, describe, expect, it } from 'vitest';
 import { startWorker, type RunningWorker, type WorkerOptions } from '@/server/jobs/worker';
 import { roleEmail, signIn, startHarness, TEST_DATABASE_URL, type Client, type Harness } from './support/harness';
-import { demoDeck, settle, upload } from './support/workflow';
+import { demoDeck, settle, until, upload } from './support/workflow';
 
 const ROOT = path.resolve(__dirname, '../..');
 const MISBEHAVING_ENGINE = path.join(__dirname, 'support/misbehaving-engine.cjs');
@@ -21,16 +21,6 @@ const RULES = ['constant-input', 'double-inversion'];
 function markedDeck(marker: string): string {
   const [title, ...rest] = demoDeck(DECK).toString('utf8').split('\n');
   return [title, `* engine-test: ${marker}`, ...rest].join('\n');
-}
-
-async function until<T>(read: () => Promise<T>, ok: (v: T) => boolean, ms: number, what: string): Promise<T> {
-  const end = Date.now() + ms;
-  for (;;) {
-    const v = await read();
-    if (ok(v)) return v;
-    if (Date.now() > end) throw new Error(`timed out waiting for ${what}: ${JSON.stringify(v)}`);
-    await new Promise((r) => setTimeout(r, 50));
-  }
 }
 
 describe('scan engine thread', () => {

@@ -8,7 +8,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { RunningWorker } from '@/server/jobs/worker';
 import { sweepStaleScans } from '@/server/jobs/sweeper';
 import { roleEmail, signIn, startHarness, TEST_DATABASE_URL, type Client, type Harness } from './support/harness';
-import { inProcessWorker, settle, upload } from './support/workflow';
+import { inProcessWorker, settle, until, upload } from './support/workflow';
 
 const ROOT = path.resolve(__dirname, '../..');
 
@@ -19,16 +19,6 @@ function childWorker(extra: Record<string, string>): ChildProcess {
     stdio: 'ignore',
     env: { ...process.env, NODE_ENV: 'test', DATABASE_URL: TEST_DATABASE_URL, SMTP_URL: 'smtp://127.0.0.1:1', TRIMWIRE_SCAN_SWEEP_MS: '600000', ...extra },
   });
-}
-
-async function until<T>(read: () => Promise<T>, ok: (v: T) => boolean, ms: number, what: string): Promise<T> {
-  const end = Date.now() + ms;
-  for (;;) {
-    const v = await read();
-    if (ok(v)) return v;
-    if (Date.now() > end) throw new Error(`timed out waiting for ${what}: ${JSON.stringify(v)}`);
-    await new Promise((r) => setTimeout(r, 150));
-  }
 }
 
 describe('scan worker crash and cancel', () => {
@@ -61,10 +51,10 @@ describe('scan worker crash and cancel', () => {
     child = childWorker({ TRIMWIRE_SCAN_STAGE_DELAY_MS: '1500', TRIMWIRE_SCAN_HEARTBEAT_MS: '300' });
     const started = await designer.agent.post(`/api/designs/${designId}/scans`).set('X-CSRF-Token', designer.csrf).send({}).expect(202);
     const id = started.body.id as string;
-    const running = await until(() => h.db.models.Scan.findByPk(id), (s) => s?.status === 'running' && s.stage !== 'starting', 60_000, 'the child worker to start the scan');
+    const running = await until(() => h.db.models.Scan.findByPk(id), (s) => s?.status === 'running' && s.stage !== 'starting', 60_000, 'the child worker to start the scan', 150);
     expect(running!.attempts).toBe(1);
     process.kill(-child.pid!, 'SIGKILL');
-    await until(async () => child!.exitCode !== null || child!.signalCode !== null, (x) => x, 10_000, 'the child to die');
+    await until(async () => child!.exitCode !== null || child!.signalCode !== null, (x) => x, 10_000, 'the child to die', 150);
     // Nothing heartbeats any more: after the timeout the scan is stale, never "running" for good.
     worker = await inProcessWorker({ heartbeatTimeoutS: 2, sweepMs: 500 });
     const done = await settle(designer, id, 60_000);
@@ -101,7 +91,7 @@ describe('scan worker crash and cancel', () => {
     await worker?.stop();
     worker = await inProcessWorker({ stageDelayMs: 700 });
     const started = await designer.agent.post(`/api/designs/${designId}/scans`).set('X-CSRF-Token', designer.csrf).send({}).expect(202);
-    await until(() => h.db.models.Scan.findByPk(started.body.id), (s) => s?.status === 'running', 30_000, 'the scan to run');
+    await until(() => h.db.models.Scan.findByPk(started.body.id), (s) => s?.status === 'running', 30_000, 'the scan to run', 150);
     const c = await designer.agent.post(`/api/scans/${started.body.id}/cancel`).set('X-CSRF-Token', designer.csrf).expect(200);
     expect(c.body.cancelRequested).toBe(true);
     const end = await settle(designer, started.body.id, 30_000);

@@ -55,3 +55,14 @@ export async function waitForMail<T extends { subject: string }>(read: () => Pro
     await new Promise((r) => setTimeout(r, 200));
   }
 }
+
+/** Polls `read` until `ok` holds, failing with what it last read after `ms` (poll every `everyMs`). */
+export async function until<T>(read: () => Promise<T>, ok: (v: T) => boolean, ms: number, what: string, everyMs = 50): Promise<T> {
+  const end = Date.now() + ms;
+  for (;;) {
+    const v = await read();
+    if (ok(v)) return v;
+    if (Date.now() > end) throw new Error(`timed out waiting for ${what}: ${JSON.stringify(v)}`);
+    await new Promise((r) => setTimeout(r, everyMs));
+  }
+}
