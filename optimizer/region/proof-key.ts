@@ -1,7 +1,7 @@
 // Canonical key of a proposal's proof: the cut-out region before and after the edit, with nets,
 // instance paths and sources numbered by position and net names reduced to the order they sort in,
 // so a region repeated in every slice of a design is proved once and the verdict reused.
-import type { Expr } from '../logic/expr';
+import { support, type Expr } from '../logic/expr';
 import type { FlatNetlist } from '../netlist/ir';
 
 /** Regions above this many devices are not keyed: they are unique and keying them costs time. */
@@ -49,26 +49,6 @@ function exprKey(e: Expr, pos: (name: string) => number, out: string[]): void {
         out.push(',');
       }
       out.push(')');
-  }
-}
-
-function collectVars(e: Expr, into: string[]): void {
-  switch (e.op) {
-    case 'const':
-      return;
-    case 'var':
-      into.push(e.name);
-      return;
-    case 'not':
-      collectVars(e.arg, into);
-      return;
-    case 'implies':
-    case 'iff':
-      collectVars(e.left, into);
-      collectVars(e.right, into);
-      return;
-    default:
-      for (const a of e.args) collectVars(a, into);
   }
 }
 
@@ -122,8 +102,9 @@ export function proofKey(
 
   // Every name the proof can see, with what it denotes; names outside both regions (assumption
   // variables, nets of the wider design) are told apart by first appearance.
-  const vars: string[] = [];
-  for (const a of assumptions) collectVars(a.expr, vars);
+  const varSet = new Set<string>();
+  for (const a of assumptions) support(a.expr, varSet);
+  const vars = [...varSet];
   const all = new Set<string>([...before.netByName.keys(), ...after.netByName.keys(), ...changed, ...vars]);
   const outside = new Map<string, number>();
   for (const n of [...changed, ...vars]) if (!before.netByName.has(n) && !after.netByName.has(n) && !outside.has(n)) outside.set(n, outside.size);
