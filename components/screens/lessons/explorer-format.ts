@@ -34,3 +34,12 @@ export function formatSetting(key: SettingKey, value: number): string {
   if (key === 'loads') return `${value} load${value === 1 ? '' : 's'}`;
   return formatSi(value, SETTING_LABELS[key].unit);
 }
+
+/** Kinds of part the explorer counts, with their row labels. */
+export const PART_ROWS = [
+  ['transistors', 'Transistors'],
+  ['resistors', 'Resistors'],
+  ['diodes', 'Diodes'],
+  ['capacitors', 'Capacitors'],
+  ['gates', 'Gates'],
+] as const;

@@ -10,15 +10,9 @@ import { bandScale, valueScale } from '@/components/charts/chart-data';
 import { useTheme } from '@/components/theme/use-theme';
 import { Card, Text } from '@/components/ui';
 import { changedRegionGraphs } from '@/optimizer/region/changed-region';
+import { PART_ROWS } from './explorer-format';
 import type { ExplorerData, ExplorerProposal, WhatIfResult } from '@/optimizer/whatif';
 
-const PART_KINDS = [
-  ['transistors', 'Transistors'],
-  ['resistors', 'Resistors'],
-  ['diodes', 'Diodes'],
-  ['capacitors', 'Capacitors'],
-  ['gates', 'Gates'],
-] as const;
 const LABEL = 96;
 
 /** Part counts before and after the proposals switched on, one pair of bars per kind of part. */
@@ -26,7 +20,7 @@ export function WhatIfPartsChart({ result, testID = 'explorer-chart-parts' }: { 
   const { colours, fonts, opacity, spacing, sizes } = useTheme();
   const [width, setWidth] = useState<number>(sizes.form);
   const { before, after } = result.parts;
-  const rows = PART_KINDS.filter(([k]) => before[k] > 0 || after[k] > 0);
+  const rows = PART_ROWS.filter(([k]) => before[k] > 0 || after[k] > 0);
   const summary = rows.map(([k, label]) => `${label}: ${before[k]} before, ${after[k]} after`).join('; ') || 'No parts';
   const height = Math.max(40, rows.length * 34 + 20);
   const x = valueScale(rows.flatMap(([k]) => [before[k], after[k]]), Math.max(1, width - LABEL - 40));

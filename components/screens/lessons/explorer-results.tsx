@@ -4,16 +4,9 @@ import { View } from 'react-native';
 import type { ExplorerData, WhatIfResult } from '@/optimizer/whatif';
 import { useTheme } from '@/components/theme/use-theme';
 import { Card, DataTable, Notice, ProgressBar, Text } from '@/components/ui';
-import { formatMoney, formatSi } from './explorer-format';
+import { formatMoney, formatSi, PART_ROWS } from './explorer-format';
 import { MarginBadge } from './margin-badge';
 
-const PART_ROWS = [
-  ['transistors', 'Transistors'],
-  ['resistors', 'Resistors'],
-  ['diodes', 'Diodes'],
-  ['capacitors', 'Capacitors'],
-  ['gates', 'Gates'],
-] as const;
 
 export function PartsCard({ result, explorer }: { result: WhatIfResult; explorer: ExplorerData }) {
   const { parts, currency } = result;
