@@ -2,6 +2,7 @@
 // rails, and that proofs on the region agree with proofs on the whole design.
 import { describe, expect, it } from 'vitest';
 import { extractLogic } from '../extract';
+import { NetlistBuilder } from '../netlist/build';
 import { regionOf } from './region';
 import { verifyProposal } from './scan';
 import { sliceInverters } from './test-helpers';
@@ -27,5 +28,28 @@ describe('regionOf', () => {
     const refuted = verifyProposal({ nl, view }, bad, []);
     expect(refuted.status).toBe('refuted');
     expect(refuted.counterexample!.LOAD).not.toBe(refuted.counterexample!.CLR);
+  });
+
+  it('keeps the driver of a net a rail-tied input folded out of the function', () => {
+    // Q = NOR(D, EN) with D tied to VCC is constant 0: its function reads no net, but QE's base
+    // resistor still reads EN, and EN left undriven would float in the region's simulation.
+    //   LD ─RB─┤QN├─ EN ─RE─┤QE├─┐
+    //                     VCC─RD─┤QD├─┴─ Q (RC to VCC)
+    const b = new NetlistBuilder('Wren-8 tied data bit');
+    b.rail('VCC', 5);
+    b.model('QN', 'npn', { IS: 1e-14, BF: 100 });
+    b.resistor('RB', 'LD', 'B', 4700);
+    b.npn('QN', 'EN', 'B', '0', { model: 'QN' });
+    b.resistor('RCN', 'VCC', 'EN', 1000);
+    b.resistor('RE', 'EN', 'BE', 4700);
+    b.npn('QE', 'Q', 'BE', '0', { model: 'QN' });
+    b.resistor('RD', 'VCC', 'BD', 4700);
+    b.npn('QD', 'Q', 'BD', '0', { model: 'QN' });
+    b.resistor('RC', 'VCC', 'Q', 1000);
+    const nl = b.build();
+    const view = extractLogic(nl);
+    expect(view.nodes[view.nodeByNet.get(nl.netByName.get('Q')!)!].inputs).toEqual([]);
+    const r = regionOf(nl, view, ['Q'], { ...emptyEdit(), removeDevices: ['QD', 'RD'] });
+    expect(r.devices.map((d) => d.name)).toEqual(expect.arrayContaining(['QN', 'RB', 'RCN', 'QE', 'RE']));
   });
 });

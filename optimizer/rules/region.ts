@@ -74,9 +74,19 @@ export function regionOf(nl: FlatNetlist, view: LogicView, seeds: string[], edit
     if (take.has(i)) continue;
     take.add(i);
     if (take.size > MAX_REGION_NODES) return nl;
-    for (const x of view.nodes[i].inputs) {
+    const node = view.nodes[i];
+    for (const x of node.inputs) {
       const j = nodeByName.get(x);
       if (j !== undefined && !take.has(j)) stack.push(j);
+    }
+    // A net the node's parts read but its function no longer names (a rail-tied input folded the
+    // term away) keeps its driver too: cut out, it would float in the region's simulation.
+    for (const d of node.devices) {
+      for (const t of nl.devices[d].terminals) {
+        if (t === node.net) continue;
+        const j = view.nodeByNet.get(t);
+        if (j !== undefined && !take.has(j)) stack.push(j);
+      }
     }
   }
   const deviceIds = new Set<number>();
