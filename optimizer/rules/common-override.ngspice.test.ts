@@ -1,7 +1,9 @@
 // ngspice (Debian package, generic NPN IS=1e-14 BF=100, diode IS=1e-14) against common-override:
 // lines read by DTL inputs keep every logic level after the steering-diode rewrite, and the rule's
 // sink current and forced β agree with the operating point at its corner within 15 %; lines read
-// by plain RTL inputs get a low level that turns the readers on, which the rule marks failing.
+// by plain RTL inputs get a low level that turns the readers on, which the rule marks failing;
+// on the register slice with rail-tied data the levels the assumption allows are kept, and the
+// clear acting alone shows the steered low level the rule refuses.
 import { describe, expect, it } from 'vitest';
 import { DEFAULT_MARGIN_SETTINGS as S } from '../margins/defaults';
 import { NetlistBuilder } from '../netlist/build';
@@ -11,7 +13,8 @@ import { applied, atCorner, deckOf, levelTable, relativeDiff, roleSign } from '@
 import { commonOverride } from './common-override';
 import { DEFAULT_MARGIN_SETTINGS } from '../margins/defaults';
 import { nmosNodeVolts } from './support/override-margins';
-import { runOne } from './support/rule-test-kit';
+import { tiedRegister } from './common-override.fixtures';
+import { deckNetlist, runOne } from './support/rule-test-kit';
 import type { Rule } from './types';
 
 const rule = commonOverride as unknown as Rule;
@@ -244,5 +247,41 @@ describe('common-override with NMOS lines, in ngspice', () => {
         expect(relativeDiff(vn, row.CLR_OVR)).toBeLessThan(0.15);
       }
     }
+  });
+});
+
+describe('common-override on the register slice with rail-tied data, in ngspice', () => {
+  it('every level kept where !(CLR & LD) allows; the clear acting alone shows the steered low level the rule refuses', async () => {
+    // LD and CLR as plain inputs (ngspice drives them); D0, D2 tied low, D1, D3 tied high.
+    const nl = deckNetlist(tiedRegister({ sources: false }));
+    const f = (await runOne(rule, nl, { assumptions: ['!(CLR & LD)'] })).findings[0];
+    expect(f.messageId).toBe('failing');
+    const p = f.proposals[0];
+    const low = p.margins.find((m) => m.name === 'diode-steered low level')!;
+    expect(low.status).toBe('fail');
+    const inputs = ['CLR', 'LD'];
+    const lines = ['Q0', 'Q1', 'Q2', 'Q3'];
+    const allowed = [{ CLR: 0, LD: 0 }, { CLR: 0, LD: 1 }, { CLR: 1, LD: 0 }] as const;
+    const lb = levelTable(nl, { inputs, nets: lines, high: 3.6, thresholds: RTL, points: [...allowed] });
+    const la = levelTable(applied(nl, p), { inputs, nets: lines, high: 3.6, thresholds: RTL, points: [...allowed] });
+    expect(lb.levels.flatMap(Object.values)).not.toContain('X');
+    expect(la.levels).toEqual(lb.levels);
+    // The clear alone (LD high turns every QE off): before, the D-low lines sit at the override's
+    // V_CE(sat); after, one diode drop above it — over RTL V_IL, as the rule says, and under its
+    // worst-case bound (V_CE(sat) 0.3 V + V_D 0.75 V). ngspice's level is within 15 % of the
+    // cleared level before plus V_D 0.7 V (common practice); the generic model's V_CE(sat) is far
+    // below the 0.2–0.3 V of real parts, so the bound sits about 30 % above ngspice here.
+    const alone = [{ CLR: 1, LD: 1 } as const];
+    const cb = levelTable(nl, { inputs, nets: lines, high: 3.6, thresholds: RTL, points: alone });
+    const ca = levelTable(applied(nl, p), { inputs, nets: lines, high: 3.6, thresholds: RTL, points: alone });
+    expect(cb.levels[0]).toEqual({ Q0: 0, Q1: 0, Q2: 0, Q3: 0 });
+    for (const y of ['Q0', 'Q2']) {
+      expect(ca.volts[0][y]).toBeGreaterThan(RTL.vil);
+      expect(ca.volts[0][y]).toBeLessThan(low.value);
+      expect(relativeDiff(cb.volts[0][y] + S.vDiode, ca.volts[0][y])).toBeLessThan(0.15);
+      expect(ca.levels[0][y]).toBe('X');
+    }
+    // The D-high lines keep their own data transistor on: still low.
+    expect(ca.levels[0]).toMatchObject({ Q1: 0, Q3: 0 });
   });
 });

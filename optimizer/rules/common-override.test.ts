@@ -1,6 +1,7 @@
 // common-override: valid cases (no finding) and invalid ones (message id, data, part delta), DTL
 // and RTL receivers, the split into the fewest common overrides, contention with a normal driver
-// pulling high (with and without the assumption that rules it out), hierarchy, the doc examples.
+// pulling high (with and without the assumption that rules it out), hierarchy, the doc examples,
+// and the scan's verdict on the register slice whose rail-tied data fold its lines' functions.
 import path from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { extractLogic } from '../extract';
@@ -9,6 +10,7 @@ import { NetlistBuilder } from '../netlist/build';
 import type { FlatNetlist } from '../netlist/ir';
 import { applyProposals } from '../rewrite/apply';
 import { commonOverride } from './common-override';
+import { tiedRegister } from './common-override.fixtures';
 import { scan } from './scan';
 import { assumption, checkDeckExample, countDelta, deckExamples, deckNetlist, runOne } from './support/rule-test-kit';
 import type { Rule } from './types';
@@ -259,6 +261,35 @@ function sharedBits(n: number, o: SharedBits): FlatNetlist {
   }
   return b.build();
 }
+
+describe('common-override: register slice with rail-tied data and a pulsed clear', () => {
+  it('the steered clear is proved (the diodes give the same logic) and refused on its low level only', async () => {
+    const nl = deckNetlist(tiedRegister());
+    const s = await scan(nl, { rules: { [rule.id]: rule }, assumptions: [assumption('A1', '!(CLR & LD)')] });
+    expect(s.ruleErrors).toEqual([]);
+    expect(s.findings).toHaveLength(1);
+    const { finding: f, proposals } = s.findings[0];
+    expect(f.messageId).toBe('failing');
+    expect(f.data).toMatchObject({ count: 4, control: 'CLR', failed: 'diode-steered low level' });
+    const sp = proposals[0];
+    expect(sp.proposal.edit.removeDevices).toEqual(['XB1.QCLR', 'XB1.RBC', 'XB2.QCLR', 'XB2.RBC', 'XB3.QCLR', 'XB3.RBC']);
+    expect(sp.proposal.edit.addDevices.map((d) => d.terminals)).toEqual([0, 1, 2, 3].map((k) => [`Q${k}`, 'CLR_OVR']));
+    // Every line is compared, and the switch-level check ran on the region with each enable
+    // stage still driving its QE (before the region kept them, bits 1 and 3 read a floating ENB).
+    expect(sp.verification).toMatchObject({ status: 'proved', method: 'exhaustive' });
+    expect(sp.verification.note).toBeUndefined();
+    expect(sp.verification.compared).toEqual(expect.arrayContaining(['Q0', 'Q1', 'Q2', 'Q3']));
+    expect(sp.verification.simulatedVectors).toBeGreaterThan(0);
+    // 0.3 V + 0.75 V worst case against the lines' own RTL V_IL 0.5 V (common practice; margin defaults)
+    const low = sp.margins.find((m) => m.name === 'diode-steered low level')!;
+    expect([low.value, low.limit, low.status]).toEqual([expect.closeTo(1.05, 5), 0.5, 'fail']);
+    expect(sp.margins.filter((m) => m.status === 'fail').map((m) => m.name)).toEqual(['diode-steered low level']);
+    expect(sp.verdict).toBe('failing-margins');
+    const d = countDelta(nl, sp.proposal);
+    expect(d.actual).toEqual({ transistors: 3, resistors: 3, diodes: -4 });
+    expect(d.actual).toEqual(d.stated);
+  });
+});
 
 describe('common-override: a node the lines already share', () => {
   it.each([
