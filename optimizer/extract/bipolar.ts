@@ -109,6 +109,15 @@ export class BaseResolver {
     return hit;
   }
 
+  /**
+   * The base drive without keeping it: its lists are the resolver's scratch, valid until the next
+   * call. For a caller that reads each drive once and keeps only what it derives (the switch model
+   * compiles it), so a million transistors leave no million cached drives behind.
+   */
+  transient(transistor: number): BaseDrive {
+    return this.cache[transistor] ?? this.resolve(transistor);
+  }
+
   private resolve(transistor: number): BaseDrive {
     const cx = this.cx;
     const base = cx.nl.devices[transistor].terminals[B];

@@ -89,11 +89,35 @@ function find(p: Int32Array, x: number): number {
   return x;
 }
 
+/**
+ * Ids of the named nets that exist. A netlist whose name index is a plain map answers from it; a
+ * flattened one builds its index on first use (flatten.ts), and that index is the nets in id order
+ * with a later name winning, which one pass over the nets reproduces without building it.
+ */
+function netsNamed(nl: FlatNetlist, names: readonly string[]): Map<string, number> {
+  const found = new Map<string, number>();
+  if (names.length === 0) return found;
+  if (!Object.getOwnPropertyDescriptor(nl, 'netByName')?.get) {
+    for (const n of names) {
+      const id = nl.netByName.get(n);
+      if (id !== undefined) found.set(n, id);
+    }
+    return found;
+  }
+  const wanted = new Set(names);
+  const nets = nl.nets;
+  for (let i = 0; i < nets.length; i++) if (wanted.has(nets[i].name)) found.set(nets[i].name, i);
+  return found;
+}
+
 export function buildSwitchModel(nl: FlatNetlist, inputNames: string[]): SwitchModel {
   const cx = makeContext(nl);
   const nNets = nl.nets.length;
+  // The stimulus inputs are found in one pass over the nets: the netlist's name index would be
+  // built for them otherwise, and on a large design it is one of its costliest structures.
+  const inputIds = netsNamed(nl, inputNames);
   const netIdsOf = (name: string): number => {
-    const id = nl.netByName.get(name);
+    const id = inputIds.get(name) ?? nl.netByName.get(name);
     if (id === undefined) throw InputError.at('simulate.unknown-net', `the stimulus names net "${name}", which the design does not have`);
     return id;
   };
@@ -105,20 +129,73 @@ export function buildSwitchModel(nl: FlatNetlist, inputNames: string[]): SwitchM
   for (const [net, v] of railValue) railVal[net] = v;
   const isSource = (n: number) => isInput[n] === 1 || isRail(cx, n);
 
+  // Each transistor's base drive is resolved once and compiled on the spot into `code`; only the
+  // program's start (per device, until edges are numbered) and the base-network marks are kept.
   const bases = new BaseResolver(cx);
   const nDev = nl.devices.length;
   const baseNet = new Uint8Array(nNets);
   const inBaseNetwork = new Uint8Array(nDev);
+  const programOfDevice = new Int32Array(nDev).fill(-1);
   const gates: number[] = [];
   let npnCount = 0;
+  for (let i = 0; i < nDev; i++) if (nl.devices[i].kind === 'npn') npnCount++;
+  // a resistor-fed base is one net: (net, end) per program; wider drives grow the buffer
+  let code = new Int32Array(4 * npnCount + 64);
+  let codeLen = 0;
+  const emit = (op: number, arg: number): void => {
+    if (codeLen + 2 > code.length) code = grow(code);
+    code[codeLen++] = op;
+    code[codeLen++] = arg;
+  };
+  /** Net of a variable of the drive being compiled: its inputs carry the context's shared nodes. */
+  let driveInputs: readonly number[] = [];
+  const netOfVar = (e: Expr & { op: 'var' }): number | undefined => {
+    for (const n of driveInputs) if (cx.vars[n] === e) return n;
+    return nl.netByName.get(e.name);
+  };
+  const compile = (e: Expr): void => {
+    switch (e.op) {
+      case 'const':
+        return emit(OP_CONST, e.value ? 2 : 1);
+      case 'var': {
+        const id = netOfVar(e);
+        return id === undefined ? emit(OP_CONST, 3) : emit(OP_NET, id);
+      }
+      case 'not':
+        compile(e.arg);
+        return emit(OP_NOT, 0);
+      case 'and':
+      case 'or':
+      case 'xor':
+        for (const a of e.args) compile(a);
+        return emit(e.op === 'and' ? OP_AND : e.op === 'or' ? OP_OR : OP_XOR, e.args.length);
+      case 'implies':
+        compile(e.left);
+        emit(OP_NOT, 0);
+        compile(e.right);
+        return emit(OP_OR, 2);
+      case 'iff':
+        compile(e.left);
+        compile(e.right);
+        emit(OP_XOR, 2);
+        return emit(OP_NOT, 0);
+    }
+  };
   for (let i = 0; i < nDev; i++) {
     const d = nl.devices[i];
     if (d.kind === 'npn' || d.kind === 'pnp') {
-      for (const x of bases.drive(i).devices) inBaseNetwork[x] = 1;
+      const drive = bases.transient(i);
+      for (const x of drive.devices) inBaseNetwork[x] = 1;
       baseNet[d.terminals[1]] = 1;
-      if (d.kind === 'npn') npnCount++;
+      if (d.kind === 'npn') {
+        programOfDevice[i] = codeLen;
+        driveInputs = drive.inputs;
+        compile(drive.on);
+        emit(OP_END, 0);
+      }
     }
   }
+  driveInputs = [];
   /** Whether a device is a switch-level edge (at most one per device). */
   const hasEdge = (i: number): boolean => {
     const d = nl.devices[i];
@@ -151,42 +228,6 @@ export function buildSwitchModel(nl: FlatNetlist, inputNames: string[]): SwitchM
   const edgeGate = new Int32Array(edgeTotal);
   const edgeOneWay = new Uint8Array(edgeTotal);
   const programAt = new Int32Array(edgeTotal).fill(-1);
-  // a resistor-fed base is one net: (net, end) per program; wider drives grow the buffer
-  let code = new Int32Array(4 * npnCount + 64);
-  let codeLen = 0;
-  const emit = (op: number, arg: number): void => {
-    if (codeLen + 2 > code.length) code = grow(code);
-    code[codeLen++] = op;
-    code[codeLen++] = arg;
-  };
-  const compile = (e: Expr): void => {
-    switch (e.op) {
-      case 'const':
-        return emit(OP_CONST, e.value ? 2 : 1);
-      case 'var': {
-        const id = nl.netByName.get(e.name);
-        return id === undefined ? emit(OP_CONST, 3) : emit(OP_NET, id);
-      }
-      case 'not':
-        compile(e.arg);
-        return emit(OP_NOT, 0);
-      case 'and':
-      case 'or':
-      case 'xor':
-        for (const a of e.args) compile(a);
-        return emit(e.op === 'and' ? OP_AND : e.op === 'or' ? OP_OR : OP_XOR, e.args.length);
-      case 'implies':
-        compile(e.left);
-        emit(OP_NOT, 0);
-        compile(e.right);
-        return emit(OP_OR, 2);
-      case 'iff':
-        compile(e.left);
-        compile(e.right);
-        emit(OP_XOR, 2);
-        return emit(OP_NOT, 0);
-    }
-  };
   let nEdges = 0;
   const edge = (device: number, a: number, b: number, cap: number, control: number, gate: number, oneWay: boolean): void => {
     edgeDevice[nEdges] = device;
@@ -212,9 +253,7 @@ export function buildSwitchModel(nl: FlatNetlist, inputNames: string[]): SwitchM
         else edge(i, t[0], t[2], DRIVEN, d.kind === 'nmos' ? CTL_NMOS : CTL_PMOS, t[1], false);
         break;
       case 'npn':
-        programAt[nEdges] = codeLen;
-        compile(bases.drive(i).on);
-        emit(OP_END, 0);
+        programAt[nEdges] = programOfDevice[i];
         edge(i, t[0], t[2], DRIVEN, CTL_EXPR, -1, false);
         break;
       case 'pnp':
