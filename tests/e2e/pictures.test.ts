@@ -42,7 +42,13 @@ beforeAll(async () => {
     };
     for (const d of DEMO_DESIGNS) {
       const buffer = fs.readFileSync(path.join(ROOT, 'server/db/demo', d.file));
-      const design = await createDesign(db, designer, membership.teamId, { buffer, name: d.file }, { name: `${d.name} (pictures ${stamp})`, family: d.family });
+      const design = await createDesign(db, designer, membership.teamId, { buffer, name: d.file }, {
+        name: `${d.name} (pictures ${stamp})`,
+        family: d.family,
+        ...(d.clockPeriodNs ? { clockPeriodNs: d.clockPeriodNs } : {}),
+      });
+      // With its assumption, as the seed loads it (the data bus's rewrite is proved only under it).
+      if (d.assumption) await createAssumption(db, design, designer, d.assumption);
       const proposals = await scanDesign(design.id);
       for (const p of proposals) if (!byRule.has(p.ruleId)) byRule.set(p.ruleId, p.id);
       if (proposals.length && !designId) designId = design.id;
