@@ -251,7 +251,7 @@ describe('batches of functions', () => {
 
 describe('table payloads (the child writes the PLA rows)', () => {
   const requireCjs = createRequire(__filename);
-  const { tableLines } = requireCjs('./pla-rows.cjs') as { tableLines(p: unknown): string[] };
+  const { tableLines, tableText } = requireCjs('./pla-rows.cjs') as { tableLines(p: unknown): string[]; tableText(p: unknown): string };
 
   it('gives exactly the lines of the PLA text for any table', () => {
     fc.assert(
@@ -267,6 +267,7 @@ describe('table payloads (the child writes the PLA rows)', () => {
             return;
           }
           expect(typeof p).toBe('object');
+          expect(tableText(p)).toBe(buildPlaText(t.outputs[0], n));
           expect(tableLines(p)).toEqual(buildPla(t.outputs[0], n));
           expect(plaProblem(tableLines(p))).toBeUndefined();
         },

@@ -1,25 +1,27 @@
-// Berkeley PLA lines of one output, built inside the minimiser child from the output's truth-table
+// Berkeley PLA of one output, written inside the minimiser child from the output's truth-table
 // words (a few bytes each way instead of one text row per minterm). Plain CommonJS: the child runs
-// under bare node. The lines are the ones pla.ts's buildPla gives for the same table, row for row.
+// under bare node. The text is pla.ts's buildPlaText for the same table, byte for byte.
 'use strict';
 
 const MAX_INPUTS = 16;
+const C0 = 48;
+const C1 = 49;
+const NL = 10;
 
 /**
- * Row text of minterm m (n binary digits, input 0 first, then the output mark), per input count
- * and mark, built on first use and kept: later PLAs of that size allocate no row strings.
+ * The input digits of every minterm of an n-input table (n bytes per minterm, input 0 first),
+ * built on first use and kept: later PLAs of that size copy bytes and allocate no row strings.
  */
-const rowCache = new Map();
-function rowsFor(n, mark) {
-  const key = `${n}${mark}`;
-  let rows = rowCache.get(key);
-  if (!rows) {
+const digitCache = new Map();
+function digitsFor(n) {
+  let digits = digitCache.get(n);
+  if (!digits) {
     const size = 2 ** n;
-    rows = new Array(size);
-    for (let m = 0; m < size; m++) rows[m] = m.toString(2).padStart(n, '0') + mark;
-    rowCache.set(key, rows);
+    digits = new Uint8Array(size * n);
+    for (let m = 0, at = 0; m < size; m++) for (let i = 0; i < n; i++) digits[at++] = (m >>> (n - 1 - i)) & 1 ? C1 : C0;
+    digitCache.set(n, digits);
   }
-  return rows;
+  return digits;
 }
 
 /** Little-endian 32-bit words from base64 text, exactly `count` of them, or an error. */
@@ -27,15 +29,14 @@ function decodeWords(text, count, what) {
   if (typeof text !== 'string') throw new Error(`the ${what} words are missing`);
   const buf = Buffer.from(text, 'base64');
   if (buf.length !== count * 4) throw new Error(`the ${what} words are ${buf.length} bytes, expected ${count * 4}`);
-  const words = new Array(count);
+  const words = new Uint32Array(count);
   for (let w = 0; w < count; w++) words[w] = buf.readUInt32LE(w * 4);
   return words;
 }
 
-/** Appends a row per set bit (ascending minterms) with `mark` as the output column. */
-function pushRows(lines, words, n, mark) {
+/** Set bits of the words (minterms below 2^n) or an error for one past it. */
+function countRows(words, n) {
   const size = 2 ** n;
-  const text = rowsFor(n, mark);
   let rows = 0;
   for (let w = 0; w < words.length; w++) {
     let word = words[w];
@@ -44,19 +45,38 @@ function pushRows(lines, words, n, mark) {
       const m = w * 32 + (31 - Math.clz32(low));
       word ^= low;
       if (m >= size) throw new Error(`minterm ${m} is outside 0..${size - 1}`);
-      lines.push(text[m]);
       rows++;
     }
   }
   return rows;
 }
 
+/** Writes a row per set bit (ascending minterms): the digits, a space, `mark`, a line break. */
+function writeRows(buf, at, words, n, mark) {
+  const digits = digitsFor(n);
+  for (let w = 0; w < words.length; w++) {
+    let word = words[w];
+    while (word !== 0) {
+      const low = word & -word;
+      const m = w * 32 + (31 - Math.clz32(low));
+      word ^= low;
+      for (let i = 0, d = m * n; i < n; i++) buf[at++] = digits[d + i];
+      buf[at++] = 32;
+      buf[at++] = mark;
+      buf[at++] = NL;
+    }
+  }
+  return at;
+}
+
 /**
- * Type-fd PLA lines of a table payload { n, on, dc } (words as base64, little-endian). Throws on
- * anything but a well-formed table with at least one on-set minterm and no minterm both on and
- * don't-care, so the native code only ever sees rows this function wrote.
+ * Type-fd PLA text (lines joined by "\n", ".e" last) of a table payload { n, on, dc } (words as
+ * base64, little-endian). Throws on anything but a well-formed table with at least one on-set
+ * minterm and no minterm both on and don't-care, so the native code only sees text written here.
+ * One string, not a line per row: the native bridge copies and writes each array element
+ * separately, and the file it reads back is the same either way.
  */
-function tableLines(p) {
+function tableText(p) {
   if (!p || typeof p !== 'object') throw new Error('a table payload must be an object');
   const n = p.n;
   if (!Number.isInteger(n) || n < 1 || n > MAX_INPUTS) throw new Error(`.i ${n} is outside 1..${MAX_INPUTS}`);
@@ -64,12 +84,23 @@ function tableLines(p) {
   const on = decodeWords(p.on, count, 'on-set');
   const dc = decodeWords(p.dc, count, "don't-care");
   for (let w = 0; w < count; w++) if ((on[w] & dc[w]) !== 0) throw new Error('a minterm is both on and don\'t-care');
-  const lines = [`.i ${n}`, '.o 1', '.type fd'];
+  const onRows = countRows(on, n);
   // A PLA with no on-set rows corrupts the next call inside the native code.
-  if (pushRows(lines, on, n, ' 1') === 0) throw new Error('a PLA with no on-set rows is never run (the function is constant)');
-  pushRows(lines, dc, n, ' -');
-  lines.push('.e');
-  return lines;
+  if (onRows === 0) throw new Error('a PLA with no on-set rows is never run (the function is constant)');
+  const rows = onRows + countRows(dc, n);
+  const head = `.i ${n}\n.o 1\n.type fd\n`;
+  const buf = Buffer.allocUnsafe(head.length + rows * (n + 3) + 2);
+  let at = buf.latin1Write(head, 0);
+  at = writeRows(buf, at, on, n, C1);
+  at = writeRows(buf, at, dc, n, 45); // '-'
+  buf[at++] = 46; // ".e"
+  buf[at++] = 101;
+  return buf.latin1Slice(0, at);
 }
 
-module.exports = { tableLines, MAX_INPUTS };
+/** The same PLA as lines. */
+function tableLines(p) {
+  return tableText(p).split('\n');
+}
+
+module.exports = { tableText, tableLines, MAX_INPUTS };

@@ -3,7 +3,7 @@
 // native code may call exit() on input it rejects; the parent sees the exit and restarts us.
 'use strict';
 const espresso = require('kuzzle-espresso-logic-minimizer');
-const { tableLines } = require('./pla-rows.cjs');
+const { tableText } = require('./pla-rows.cjs');
 
 /** Answers already computed are sent at least this often, so the parent's per-function timer can restart. */
 const FLUSH_MS = 50;
@@ -15,8 +15,11 @@ const cpuMicros = () => {
 
 // One message carries a batch of PLAs, each as one text (lines joined by "\n": one string to
 // serialise instead of thousands) or as a table payload { n, on, dc } whose rows are written here
-// (pla-rows.cjs). Answers (one text of cube lines per PLA) go back in order, in
-// as few messages as the flush interval allows: { from, cubes } covers PLAs from..from+len-1.
+// (pla-rows.cjs). Either way the native call gets the whole text as one array element: the bridge
+// copies each element and writes it to the file Espresso reads followed by a line break, so the
+// file is the same as with a line per element, without a string per row to make and copy.
+// Answers (one text of cube lines per PLA) go back in order, in as few messages as the flush
+// interval allows: { from, cubes } covers PLAs from..from+len-1.
 // Every message also carries this process's processor time so far (benchmarks read it).
 process.on('message', (msg) => {
   if (!msg || typeof msg.id !== 'number' || !Array.isArray(msg.batch)) return;
@@ -26,8 +29,8 @@ process.on('message', (msg) => {
   for (let k = 0; k < msg.batch.length; k++) {
     try {
       const item = msg.batch[k];
-      const lines = typeof item === 'string' ? item.split('\n') : tableLines(item);
-      cubes.push(espresso.minimize(lines).join('\n'));
+      const text = typeof item === 'string' ? item : tableText(item);
+      cubes.push(espresso.minimize([text]).join('\n'));
     } catch (err) {
       process.send({ id: msg.id, ok: false, from, cubes, at: k, error: String((err && err.message) || err), cpu: cpuMicros() });
       return;
