@@ -1,7 +1,9 @@
 // ngspice (Debian package; scripts/test.sh installs it) on small RTL decks: the applied rewrite of
 // a ready double-inversion finding gives the original's logic levels on every input combination,
 // its loaded-high-level margin agrees with ngspice's operating point within 15 %, and a rewrite
-// that overloads the line is both marked failing-margins and seen breaking the levels in ngspice.
+// that overloads the line is both marked failing-margins and seen breaking the levels in ngspice;
+// a NOR whose other inputs are strapped to 0 V, removed as the second inverter with its tied-off
+// parts, keeps its reader's levels.
 // Generic textbook model NPN IS=1e-14 BF=100. RTL thresholds V_IL 0.5 V, V_IH 1.0 V (common practice).
 import { describe, expect, it } from 'vitest';
 import { marginSettings } from '../margins/defaults';
@@ -61,5 +63,30 @@ describe('double-inversion in ngspice', () => {
     expect(level(before[0].Y)).toBe(1);
     expect(level(after[0].S)).not.toBe(1); // the loads' line is no longer a valid high
     expect(Math.abs(margin.value - after[0].S) / after[0].S).toBeLessThan(0.15);
+  });
+});
+
+describe('double-inversion on a NOR with strapped inputs, in ngspice', () => {
+  it('QEN and the NOR (with QD, QCLR) go; the reader of Q keeps its levels for both values of LD', async () => {
+    // Q = NOR(D = 0 V, ENB, CLR = 0 V) = !ENB = LD, read by an RTL inverter Z = !Q.
+    const b = new NetlistBuilder('Wren-8 register bit, data and clear strapped').rail('VCC', 3.6).rail('D', 0).rail('CLR', 0).model('QN', 'npn', { IS: 1e-14, BF: 100 });
+    b.resistor('RBEN', 'LD', 'BEN', 470).npn('QEN', 'ENB', 'BEN', '0', { model: 'QN' }).resistor('RCEN', 'VCC', 'ENB', 640);
+    b.resistor('RBD', 'D', 'BD', 470).npn('QD', 'Q', 'BD', '0', { model: 'QN' });
+    b.resistor('RBE', 'ENB', 'BE', 470).npn('QE', 'Q', 'BE', '0', { model: 'QN' });
+    b.resistor('RBC', 'CLR', 'BC', 1000).npn('QCLR', 'Q', 'BC', '0', { model: 'QN' }).resistor('RCQ', 'VCC', 'Q', 640);
+    b.resistor('RR', 'Q', 'BR', 4700).npn('QR', 'Z', 'BR', '0', { model: 'QN' }).resistor('RZ', 'VCC', 'Z', 1000);
+    const nl = b.build();
+    const s = await scanOne(doubleInversion, nl);
+    const sp = s.findings[0].proposals[0];
+    expect(s.findings[0].finding.messageId).toBe('pairTied');
+    expect(sp.verification.status).toBe('proved');
+    expect(sp.proposal.edit.removeDevices).toEqual(expect.arrayContaining(['QD', 'RBD', 'QCLR', 'RBC', 'QE', 'QEN']));
+    const combos = allCombinations(['LD'], 0, 3.6);
+    const before = operatingPoints(deckOf(nl), { combinations: combos, probe: ['Z'] });
+    const after = operatingPoints(deckOf(applied(nl, sp.proposal)), { combinations: combos, probe: ['Z'] });
+    combos.forEach((c, i) => {
+      expect(level(before[i].Z)).toBe(c.LD ? 0 : 1);
+      expect(level(after[i].Z), `Z @ LD=${c.LD}`).toBe(level(before[i].Z));
+    });
   });
 });

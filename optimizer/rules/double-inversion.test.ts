@@ -1,12 +1,14 @@
 // double-inversion: valid cases (no finding) and invalid ones (finding, message id, data, part
-// delta), across hierarchy and at gate level; margins that fail; the savings property; the doc's
-// examples run as tests.
+// delta), across hierarchy and at gate level; NOR and NAND gates whose other inputs are tied to
+// rails; margins that fail; the savings property; the doc's examples run as tests.
 import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { NetlistBuilder } from '../netlist/build';
 import type { FlatNetlist } from '../netlist/ir';
+import { extractLogic } from '../extract';
 import { doubleInversion } from './double-inversion';
+import { verifyProposal } from './scan';
 import { deckNetlist, docExamples, pick, runOne, savingsProperty, scanOne } from './support/rule-test-kit';
 
 /** RTL inverter: VCC ─RC─ out, in ─RB─ base, collector out, emitter ground. */
@@ -26,6 +28,27 @@ function cmosNand(b: NetlistBuilder, name: string, a: string, c: string, out: st
   b.nmos(`NA${name}`, out, a, `M${name}`).nmos(`NB${name}`, `M${name}`, c, '0');
 }
 const rtl = () => new NetlistBuilder('Wren-8 test').rail('VCC', 5).model('QN', 'npn', { IS: 1e-14, BF: 100 });
+
+/**
+ * A register bit whose data and clear inputs are tied to 0 V rails: QEN inverts LD onto ENB, and
+ * Q = NOR(D, ENB, CLR) = !ENB, read by nothing but a 100k load to ground (an output pin).
+ *
+ *   LD ─RBEN─┤QEN├─ ENB ─RBE─┤QE ├─┐
+ *              D (0 V) ─RBD─┤QD ├─┼─ Q ─RL─ 0     (RCQ from VCC to Q, RCEN from VCC to ENB)
+ *            CLR (0 V) ─RBC─┤QCLR├┘
+ */
+function tiedBit(o: { enbLoad?: boolean; spare?: boolean } = {}): FlatNetlist {
+  const b = rtl().rail('D', 0).rail('CLR', 0);
+  b.resistor('RBEN', 'LD', 'BEN', 470).npn('QEN', 'ENB', 'BEN', '0', { model: 'QN' }).resistor('RCEN', 'VCC', 'ENB', 640);
+  b.resistor('RBD', 'D', 'BD', 470).npn('QD', 'Q', 'BD', '0', { model: 'QN' });
+  b.resistor('RBE', 'ENB', 'BE', 470).npn('QE', 'Q', 'BE', '0', { model: 'QN' });
+  b.resistor('RBC', 'CLR', 'BC', 1000).npn('QCLR', 'Q', 'BC', '0', { model: 'QN' });
+  b.resistor('RCQ', 'VCC', 'Q', 640).resistor('RL', 'Q', '0', 100000);
+  if (o.enbLoad) rtlNor(b, 'S', 'ENB', 'K', 'S');
+  // a spare input pin with only a pull-down: a net a wrong rewrite could take Q's loads to
+  if (o.spare) b.resistor('RSP', 'SPARE', '0', 10000);
+  return b.build();
+}
 const cmos = () => new NetlistBuilder('Wren-8 test').rail('VDD', 5);
 
 interface Case {
@@ -44,6 +67,10 @@ interface Invalid extends Case {
 
 const valid: Case[] = [
   { name: 'one inverter alone', nl: () => { const b = rtl(); rtlInv(b, '1', 'A', 'Y'); return b.build(); } },
+  {
+    name: 'inverter feeding a NOR whose other input is tied high (constant output)',
+    nl: () => { const b = rtl(); rtlInv(b, '1', 'A', 'X'); rtlNor(b, '2', 'X', 'VCC', 'Y'); return b.build(); },
+  },
   {
     name: 'inverter feeding a NOR, not an inverter',
     nl: () => {
@@ -114,6 +141,28 @@ const invalid: Invalid[] = [
     delta: { transistors: 2, resistors: 4, diodes: 0, gates: 0 },
     failing: ['fan-out', 'loaded high level'],
   },
+  {
+    name: 'RTL NOR whose other inputs are tied to 0 V as the second inverter: named by QE, its tied parts go too',
+    nl: () => tiedBit(),
+    messageId: 'pairTied',
+    data: { first: 'QEN', second: 'QE', input: 'LD', middle: 'ENB', output: 'Q', loads: 1, place: 'the top level', tied: 'QD on D, QCLR on CLR', tiedParts: 4 },
+    // QEN, RBEN, RCEN; QE, RBE, RCQ; and the never-conducting QD, RBD, QCLR, RBC
+    delta: { transistors: 4, resistors: 6, diodes: 0, gates: 0 },
+  },
+  {
+    name: 'the same NOR when ENB has another load: only its gate goes, tied parts with it',
+    nl: () => tiedBit({ enbLoad: true }),
+    messageId: 'secondOnlyTied',
+    data: { first: 'QEN', second: 'QE', input: 'LD', middle: 'ENB', output: 'Q', loads: 1, place: 'the top level', tied: 'QD on D, QCLR on CLR', tiedParts: 4 },
+    delta: { transistors: 3, resistors: 4, diodes: 0, gates: 0 },
+  },
+  {
+    name: 'CMOS NAND with one input on VDD as the second inverter',
+    nl: () => { const b = cmos(); cmosInv(b, '1', 'A', 'X'); cmosNand(b, '2', 'X', 'VDD', 'Y'); cmosNand(b, '3', 'Y', 'C', 'Z'); return b.build(); },
+    messageId: 'pairTied',
+    data: { first: 'P1', second: 'PA2', input: 'A', middle: 'X', output: 'Y', loads: 1, place: 'the top level', tied: 'NB2 on VDD, PB2 on VDD', tiedParts: 2 },
+    delta: { transistors: 6, resistors: 0, diodes: 0, gates: 0 },
+  },
 ];
 
 describe('double-inversion: valid (no finding)', () => {
@@ -149,6 +198,19 @@ describe('double-inversion: invalid (finding)', () => {
       expect(sp.verification.status, c.name).toBe('proved');
       expect(sp.verdict, c.name).toBe(c.failing ? 'failing-margins' : 'ready');
     }
+  });
+
+  it('the scan compares the output whose loads move onto a primary input, and refutes a wrong target', async () => {
+    // Q is read by no stage (an output pin), and LD by none in the proof's region: Q is still
+    // compared, as the net it was merged into.
+    const nl = tiedBit({ spare: true });
+    const s = await scanOne(doubleInversion, nl);
+    const sp = s.findings[0].proposals[0];
+    expect(sp.verification).toMatchObject({ status: 'proved', compared: expect.arrayContaining(['Q']) });
+    const edit = { ...sp.proposal.edit, mergeNets: [{ keep: 'SPARE', remove: 'Q' }] };
+    const wrong = verifyProposal({ nl, view: extractLogic(nl) }, { ...sp.proposal, edit }, []);
+    expect(wrong.status).toBe('refuted');
+    expect(wrong.counterexample!.LD).not.toBe(wrong.counterexample!.SPARE);
   });
 
   it('finds the same pair in every slice instance and names each slice', async () => {

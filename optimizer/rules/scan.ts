@@ -156,8 +156,11 @@ function problemOf(nl: FlatNetlist, view: LogicView, after: FlatNetlist, edit: P
   };
   const readAfter = new Set<string>();
   for (const n of afterView.nodes) for (const i of n.inputs) readAfter.add(i);
+  // A net merged away still names the kept net, which carries its loads now (an input it was the
+  // double inverse of, say), whether or not the region holds a stage that reads it.
+  const mergedAway = new Set(edit.mergeNets.filter((m) => after.netByName.has(m.remove)).map((m) => m.remove));
   const compared = changed.filter(
-    (n) => driven(view, nl, n) && (driven(afterView, after, n) || readAfter.has(after.nets[after.netByName.get(n) ?? 0]?.name)),
+    (n) => driven(view, nl, n) && (mergedAway.has(n) || driven(afterView, after, n) || readAfter.has(after.nets[after.netByName.get(n) ?? 0]?.name)),
   );
   if (compared.length === 0) {
     return { done: { status: 'unproved', method: 'none', assumptions: used.map((a) => a.id), compared, simulatedVectors: 0, note: NOTHING_DRIVEN } };
