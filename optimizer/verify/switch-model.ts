@@ -8,6 +8,7 @@ import { makeContext, isRail } from '../extract/context';
 import { BaseResolver } from '../extract/bipolar';
 import { loadTransistor } from '../extract/mos';
 import { grow, Pairs, permute, type Csr } from './csr';
+import { layOut } from './switch-layout';
 
 export type { Csr } from './csr';
 
@@ -40,9 +41,16 @@ export const OP_END = 6;
 /**
  * Everything is in typed arrays indexed by edge, net or group: a million-transistor design has
  * millions of edges and nets, and an object or array apiece would be most of the heap.
+ *
+ * Nets and edges are numbered in layout order (switch-layout.ts), not as in the netlist: group g's
+ * nets are groupNetOff[g] .. groupNetOff[g+1]-1 and its edges likewise, groups in evaluation order.
+ * `netPos` takes a netlist net id to its model id, `netAt` back; names, stimulus and results speak
+ * netlist ids and convert at the boundary.
  */
 export interface SwitchModel {
   nl: FlatNetlist;
+  netPos: Int32Array;
+  netAt: Int32Array;
   /** Per edge: the device, its two ends, strongest signal it passes, control kind and net. */
   edgeCount: number;
   edgeDevice: Int32Array;
@@ -54,7 +62,7 @@ export interface SwitchModel {
   edgeGate: Int32Array;
   /** Diodes: a (anode) passes 1 toward b; b (cathode) passes 0 toward a. */
   edgeOneWay: Uint8Array;
-  /** Per edge with CTL_EXPR: start of its base-drive program in `code`. */
+  /** Per edge with CTL_EXPR: start of its base-drive program in `code` (net arguments in model ids). */
   programAt: Int32Array;
   code: Int32Array;
   /**
@@ -63,8 +71,10 @@ export interface SwitchModel {
    */
   groupOf: Int32Array;
   groupCount: number;
-  groupNets: Csr;
-  groupEdges: Csr;
+  /** Ranges of each group's nets and edges (see above). */
+  groupNetOff: Int32Array;
+  groupEdgeOff: Int32Array;
+  /** Gate-level devices whose output net is in the group. */
   groupGates: Csr;
   /** Edges per net (by edge index). */
   edgesAt: Csr;
@@ -72,12 +82,14 @@ export interface SwitchModel {
   readers: Csr;
   /** Gate-level devices reading a net. */
   gateReaders: Csr;
-  /** Gate-level devices (indices into nl.devices). */
+  /** Gate-level devices (indices into nl.devices; their terminals are netlist ids). */
   gates: number[];
+  /** Rail values by netlist id. */
   railValue: Map<number, 0 | 1>;
   /** Per net: 0 or 1 for a rail, -1 otherwise (array form of railValue for the inner loops). */
   railVal: Int8Array;
   isInput: Uint8Array;
+  /** Netlist id of a named net (stimulus inputs first; an InputError for an unknown name). */
   netIdsOf: (name: string) => number;
 }
 
@@ -345,11 +357,9 @@ export function buildSwitchModel(nl: FlatNetlist, inputNames: string[]): SwitchM
   const oldReaders = readerPairs.toCsr(nNets);
   const order = rankGroups(groupCount, oldNets, oldReaders);
   for (let n = 0; n < nNets; n++) if (groupOf[n] >= 0) groupOf[n] = order[groupOf[n]];
-  const readers = oldReaders;
-  for (let i = 0; i < readers.list.length; i++) readers.list[i] = order[readers.list[i]];
-  return {
-    nl,
-    edgeCount: nEdges,
+  for (let i = 0; i < oldReaders.list.length; i++) oldReaders.list[i] = order[oldReaders.list[i]];
+  const laid = layOut({
+    nNets,
     edgeDevice,
     edgeA,
     edgeB,
@@ -358,21 +368,17 @@ export function buildSwitchModel(nl: FlatNetlist, inputNames: string[]): SwitchM
     edgeGate,
     edgeOneWay,
     programAt,
-    code: code.slice(0, codeLen),
+    code: code.subarray(0, codeLen),
     groupOf,
-    groupCount,
     groupNets: permute(oldNets, order),
     groupEdges: permute(edgePairs.toCsr(groupCount), order),
-    groupGates: permute(gatePairs.toCsr(groupCount), order),
     edgesAt: atPairs.toCsr(nNets),
-    readers,
+    readers: oldReaders,
     gateReaders: gateReaderPairs.toCsr(nNets),
-    gates,
-    railValue,
     railVal,
     isInput,
-    netIdsOf,
-  };
+  });
+  return { nl, ...laid, groupCount, groupGates: permute(gatePairs.toCsr(groupCount), order), gates, railValue, netIdsOf };
 }
 
 /** A control expression with net names resolved to ids once, evaluated in three values. */

@@ -72,8 +72,8 @@ export class SwitchSimulator {
     this.charge = new Uint8Array(n).fill(3);
     this.gateOut = new Uint8Array(nl.devices.length);
     for (const [net, v] of this.model.railValue) {
-      this.level[net] = RAIL;
-      this.mask[net] = v ? 2 : 1;
+      this.level[this.model.netPos[net]] = RAIL;
+      this.mask[this.model.netPos[net]] = v ? 2 : 1;
     }
     this.maxEval = options.maxEvaluationsPerGroup ?? 50;
     // a flip-flop holds an unknown value until its first clock edge
@@ -82,7 +82,7 @@ export class SwitchSimulator {
     this.evalStep = new Int32Array(this.model.groupCount).fill(-1);
     // Per-evaluation scratch is bounded by the largest group, not the design: an evaluation
     // touches only its own group's nets.
-    const off = this.model.groupNets.off;
+    const off = this.model.groupNetOff;
     let widest = 0;
     for (let g = 0; g < this.model.groupCount; g++) widest = Math.max(widest, off[g + 1] - off[g]);
     this.widestGroup = widest;
@@ -103,7 +103,7 @@ export class SwitchSimulator {
   private evalExpr(e: Expr, reader: number): Mask {
     return ternaryExpr(e, (name) => {
       const id = this.model.nl.netByName.get(name);
-      return id === undefined ? 3 : this.read(id, reader);
+      return id === undefined ? 3 : this.read(this.model.netPos[id], reader);
     });
   }
 
@@ -171,7 +171,7 @@ export class SwitchSimulator {
       const val = this.evalExpr(f.value, gi);
       return en === 2 ? val : 3;
     }
-    if (d.op === 'dff') return this.mask[d.terminals[0]]; // edge-triggered: updated by the clock edge in applyEdge
+    if (d.op === 'dff') return this.mask[this.model.netPos[d.terminals[0]]]; // edge-triggered: updated by the clock edge in applyEdge
     return this.evalExpr(f.value, gi);
   }
 
@@ -208,10 +208,11 @@ export class SwitchSimulator {
     // growth of its value mask: at most twice per net of the group in one strength pass
     this.pureTouched = new Int32Array(2 * this.widestGroup);
     this.evalStack = new Uint8Array(this.model.code.length + 1);
-    this.sureLevel = new Uint8Array(n);
-    this.sureMask = new Uint8Array(n);
-    this.oldLevel = new Uint8Array(n);
-    this.oldMask = new Uint8Array(n);
+    // saved values of the group being evaluated, by position in its range of nets
+    this.sureLevel = new Uint8Array(this.widestGroup);
+    this.sureMask = new Uint8Array(this.widestGroup);
+    this.oldLevel = new Uint8Array(this.widestGroup);
+    this.oldMask = new Uint8Array(this.widestGroup);
     this.pure0 = new Int32Array(n);
     this.pure1 = new Int32Array(n);
     this.stack = new Int32Array(2 * this.widestGroup + 1);
@@ -241,28 +242,26 @@ export class SwitchSimulator {
   private propagate(g: number, includeX: boolean): void {
     const m = this.model;
     const { level, mask, charge, edgeSt } = this;
-    const { edgeA, edgeB, edgeCap, edgeOneWay, edgeDevice, groupOf, railVal } = m;
-    const nets = m.groupNets.list;
-    const n0 = m.groupNets.off[g];
-    const n1 = m.groupNets.off[g + 1];
-    const edges = m.groupEdges.list;
-    const e0 = m.groupEdges.off[g];
-    const e1 = m.groupEdges.off[g + 1];
+    const { edgeA, edgeB, edgeCap, edgeOneWay, edgeDevice, groupOf, railVal, netPos } = m;
+    // the group's nets and edges are ranges of model ids (switch-layout.ts)
+    const n0 = m.groupNetOff[g];
+    const n1 = m.groupNetOff[g + 1];
+    const e0 = m.groupEdgeOff[g];
+    const e1 = m.groupEdgeOff[g + 1];
     const gates = m.groupGates.list;
     const g0 = m.groupGates.off[g];
     const g1 = m.groupGates.off[g + 1];
     const at = m.edgesAt;
     const nl = m.nl;
-    for (let i = n0; i < n1; i++) {
-      level[nets[i]] = 0;
-      mask[nets[i]] = 0;
+    for (let n = n0; n < n1; n++) {
+      level[n] = 0;
+      mask[n] = 0;
     }
     this.tracking = !includeX;
     for (const lvl of PASSES) {
       this.curLevel = lvl;
       this.top = 0;
-      for (let k = e0; k < e1; k++) {
-        const ei = edges[k];
+      for (let ei = e0; ei < e1; ei++) {
         const st = edgeSt[ei];
         if (edgeCap[ei] < lvl || st === 1 || (st === 3 && !includeX)) continue;
         for (let side = 0; side < 2; side++) {
@@ -282,10 +281,10 @@ export class SwitchSimulator {
         const d = nl.devices[gi];
         const weak = d.op === 'pullup' || d.op === 'pulldown';
         if ((weak ? WEAK : DRIVEN) !== lvl) continue;
-        const out = d.terminals[0];
+        const out = netPos[d.terminals[0]];
         const mk = weak ? (d.op === 'pullup' ? 2 : 1) : this.gateOut[gi];
         if (!mk) continue;
-        const kind = nl.nets[out].kind;
+        const kind = nl.nets[d.terminals[0]].kind;
         if (!weak && (kind === 'wand' || kind === 'wor') && level[out] === lvl) {
           // wired nets of gate-level designs resolve their drivers instead of fighting
           const a = mask[out];
@@ -296,10 +295,7 @@ export class SwitchSimulator {
         this.deliver(out, mk, gi, mk !== 3 && kind !== 'wand' && kind !== 'wor');
       }
       if (lvl === CHARGE) {
-        for (let i = n0; i < n1; i++) {
-          const n = nets[i];
-          if (level[n] === 0 && charge[n]) this.deliver(n, charge[n], -1, false);
-        }
+        for (let n = n0; n < n1; n++) if (level[n] === 0 && charge[n]) this.deliver(n, charge[n], -1, false);
       }
       while (this.top > 0) {
         const n = this.stack[--this.top];
@@ -337,54 +333,50 @@ export class SwitchSimulator {
     const m = this.model;
     const nl = m.nl;
     const { level, mask, charge, edgeSt, oldLevel, oldMask } = this;
-    const nets = m.groupNets.list;
-    const n0 = m.groupNets.off[g];
-    const n1 = m.groupNets.off[g + 1];
+    // the group's nets are a range of model ids; the saved values are kept per position in it
+    const n0 = m.groupNetOff[g];
+    const n1 = m.groupNetOff[g + 1];
     for (let k = m.groupGates.off[g]; k < m.groupGates.off[g + 1]; k++) {
       const gi = m.groupGates.list[k];
       if (nl.devices[gi].op !== 'dff') this.gateOut[gi] = this.evalGate(gi);
     }
     // controls are read before the group's own nets are cleared (a gate may sit in its own group)
     let unknown = false;
-    const edges = m.groupEdges.list;
-    for (let k = m.groupEdges.off[g], kEnd = m.groupEdges.off[g + 1]; k < kEnd; k++) {
-      const ei = edges[k];
-      const control = m.edgeControl[ei];
+    const { edgeControl, edgeGate, edgeDevice } = m;
+    for (let ei = m.groupEdgeOff[g], eEnd = m.groupEdgeOff[g + 1]; ei < eEnd; ei++) {
+      const control = edgeControl[ei];
       let st: Mask = 2;
-      if (control === CTL_NMOS) st = this.read(m.edgeGate[ei], m.edgeDevice[ei]);
+      if (control === CTL_NMOS) st = this.read(edgeGate[ei], edgeDevice[ei]);
       else if (control === CTL_PMOS) {
-        const r = this.read(m.edgeGate[ei], m.edgeDevice[ei]);
+        const r = this.read(edgeGate[ei], edgeDevice[ei]);
         st = ((r & 1) << 1) | ((r >> 1) & 1);
-      } else if (control === CTL_EXPR) st = this.evalProgram(m.programAt[ei], m.edgeDevice[ei]);
+      } else if (control === CTL_EXPR) st = this.evalProgram(m.programAt[ei], edgeDevice[ei]);
       edgeSt[ei] = st; // 1 = off, 2 = on, 3 = unknown
       if (st === 3) unknown = true;
     }
-    for (let i = n0; i < n1; i++) {
-      const n = nets[i];
-      oldLevel[n] = level[n];
-      oldMask[n] = mask[n];
+    for (let n = n0; n < n1; n++) {
+      oldLevel[n - n0] = level[n];
+      oldMask[n - n0] = mask[n];
     }
     this.propagate(g, false);
     if (unknown) {
       // Ternary evaluation: once with only the switches surely on, once with the unknown ones on
       // too; a net whose two answers differ is X (an unknown switch matters only if it changes
       // something).
-      for (let i = n0; i < n1; i++) {
-        const n = nets[i];
-        this.sureLevel[n] = level[n];
-        this.sureMask[n] = mask[n];
+      const { sureLevel, sureMask } = this;
+      for (let n = n0; n < n1; n++) {
+        sureLevel[n - n0] = level[n];
+        sureMask[n - n0] = mask[n];
       }
       this.propagate(g, true);
-      for (let i = n0; i < n1; i++) {
-        const n = nets[i];
-        mask[n] |= this.sureMask[n];
-        if (this.sureLevel[n] > level[n]) level[n] = this.sureLevel[n];
+      for (let n = n0; n < n1; n++) {
+        mask[n] |= sureMask[n - n0];
+        if (sureLevel[n - n0] > level[n]) level[n] = sureLevel[n - n0];
       }
     }
-    for (let i = n0; i < n1; i++) {
-      const n = nets[i];
+    for (let n = n0; n < n1; n++) {
       if (level[n] >= CHARGE) charge[n] = mask[n];
-      if (level[n] !== oldLevel[n] || mask[n] !== oldMask[n]) this.changed[this.nChanged++] = n;
+      if (level[n] !== oldLevel[n - n0] || mask[n] !== oldMask[n - n0]) this.changed[this.nChanged++] = n;
     }
   }
 
@@ -397,7 +389,8 @@ export class SwitchSimulator {
     // edge-triggered flip-flops sample d on the rising clock before anything else moves
     const dffUpdates: [number, Mask][] = [];
     for (const [name, value] of Object.entries(vector)) {
-      const net = m.netIdsOf(name);
+      const id = m.netIdsOf(name);
+      const net = m.netPos[id];
       if (!m.isInput[net]) throw InputError.at('simulate.not-input', `"${name}" is not one of the stimulus inputs`);
       const mk = maskOf(value);
       if (this.mask[net] !== mk || this.level[net] !== RAIL) {
@@ -405,7 +398,7 @@ export class SwitchSimulator {
           for (let k = m.gateReaders.off[net]; k < m.gateReaders.off[net + 1]; k++) {
             const gi = m.gateReaders.list[k];
             const d = m.nl.devices[gi];
-            if (d.op === 'dff' && d.terminals[2] === net) dffUpdates.push([gi, this.read(d.terminals[1], gi)]);
+            if (d.op === 'dff' && d.terminals[2] === id) dffUpdates.push([gi, this.read(m.netPos[d.terminals[1]], gi)]);
           }
         }
         this.mask[net] = mk;
@@ -415,7 +408,7 @@ export class SwitchSimulator {
     }
     for (const [gi, mk] of dffUpdates) {
       this.gateOut[gi] = mk;
-      const g = m.groupOf[m.nl.devices[gi].terminals[0]];
+      const g = m.groupOf[m.netPos[m.nl.devices[gi].terminals[0]]];
       if (g >= 0) queue.push(g);
     }
     if (first) for (let g = 0; g < m.groupCount; g++) queue.push(g);
@@ -435,14 +428,15 @@ export class SwitchSimulator {
       const count = ++evalCount[g];
       this.nChanged = 0;
       if (count > this.maxEval) {
-        const nets = m.groupNets.list.subarray(m.groupNets.off[g], m.groupNets.off[g + 1]);
-        for (const n of nets) {
+        const n0 = m.groupNetOff[g];
+        const n1 = m.groupNetOff[g + 1];
+        for (let n = n0; n < n1; n++) {
           this.mask[n] = 3;
           this.charge[n] = 3;
           this.level[n] = Math.max(this.level[n], WEAK);
           changed[this.nChanged++] = n;
         }
-        this.result.oscillations.push({ step, nets: Array.from(nets.subarray(0, 8), (n) => m.nl.nets[n].name) });
+        this.result.oscillations.push({ step, nets: Array.from(m.netAt.subarray(n0, Math.min(n1, n0 + 8)), (n) => m.nl.nets[n].name) });
       } else this.evaluateGroup(g);
       for (let i = 0; i < this.nChanged; i++) {
         const n = changed[i];
@@ -450,23 +444,25 @@ export class SwitchSimulator {
       }
     }
     for (const [net, readers] of this.pendingFloating) {
-      if (this.level[net] < BLEED) this.result.floatingReads.push({ net: m.nl.nets[net].name, step: this.step, readers });
+      if (this.level[net] < BLEED) this.result.floatingReads.push({ net: m.nl.nets[m.netAt[net]].name, step: this.step, readers });
     }
     for (const [net, drivers] of this.pendingContention) {
-      if (this.mask[net] === 3 && this.level[net] >= WEAK) this.result.contention.push({ net: m.nl.nets[net].name, step: this.step, drivers });
+      if (this.mask[net] === 3 && this.level[net] >= WEAK) this.result.contention.push({ net: m.nl.nets[m.netAt[net]].name, step: this.step, drivers });
     }
     this.pendingFloating.clear();
     this.pendingContention.clear();
     return this.step;
   }
 
+  /** A net's value, by netlist id. */
   value(net: number): Level {
     return LEVELS[this.levelCode(net)];
   }
 
-  /** The net's value as an index into LEVELS (0 = Z, else the value mask), for compact recording. */
+  /** The net's value (netlist id) as an index into LEVELS (0 = Z, else the value mask), for compact recording. */
   levelCode(net: number): number {
-    return this.level[net] < BLEED ? 0 : this.mask[net];
+    const n = this.model.netPos[net];
+    return this.level[n] < BLEED ? 0 : this.mask[n];
   }
 }
 
@@ -476,7 +472,7 @@ export function simulate(nl: FlatNetlist, stimulus: Stimulus, options: SimOption
   const sim = new SwitchSimulator(nl, inputs, options);
   const watch =
     options.watch ??
-    (nl.nets.length <= 5000 ? nl.nets.filter((n) => sim.model.railVal[n.id] < 0).map((n) => n.name) : inputs);
+    (nl.nets.length <= 5000 ? nl.nets.filter((n) => sim.model.railVal[sim.model.netPos[n.id]] < 0).map((n) => n.name) : inputs);
   const ids = watch.map((n) => sim.model.netIdsOf(n));
   // one row of level codes per step, read back per net below
   const nIds = ids.length;

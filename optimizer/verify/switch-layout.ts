@@ -1,0 +1,149 @@
+// Lays the switch model out in evaluation order: nets and edges renumbered so that each group's
+// nets and edges are consecutive and groups follow their ranks, which turns the simulator's reads
+// of per-net and per-edge arrays into forward sweeps instead of jumps across the whole design.
+// read when layOut runs, after both modules have loaded (switch-model imports this file)
+import * as ops from './switch-model';
+import { permute, type Csr } from './csr';
+
+/** The model's tables as built, in netlist ids (nets) and build order (edges). */
+export interface BuiltTables {
+  nNets: number;
+  edgeDevice: Int32Array;
+  edgeA: Int32Array;
+  edgeB: Int32Array;
+  edgeCap: Uint8Array;
+  edgeControl: Uint8Array;
+  edgeGate: Int32Array;
+  edgeOneWay: Uint8Array;
+  programAt: Int32Array;
+  code: Int32Array;
+  /** Group (already ranked) per net, -1 for sources and nets no group holds. */
+  groupOf: Int32Array;
+  /** Nets and edges of each ranked group, in the order the build met them. */
+  groupNets: Csr;
+  groupEdges: Csr;
+  edgesAt: Csr;
+  readers: Csr;
+  gateReaders: Csr;
+  railVal: Int8Array;
+  isInput: Uint8Array;
+}
+
+/** The same tables in layout order: net k is netAt[k]; group g's nets and edges are ranges. */
+export interface LaidOutTables {
+  netPos: Int32Array;
+  netAt: Int32Array;
+  edgeCount: number;
+  edgeDevice: Int32Array;
+  edgeA: Int32Array;
+  edgeB: Int32Array;
+  edgeCap: Uint8Array;
+  edgeControl: Uint8Array;
+  edgeGate: Int32Array;
+  edgeOneWay: Uint8Array;
+  programAt: Int32Array;
+  code: Int32Array;
+  groupOf: Int32Array;
+  groupNetOff: Int32Array;
+  groupEdgeOff: Int32Array;
+  edgesAt: Csr;
+  readers: Csr;
+  gateReaders: Csr;
+  railVal: Int8Array;
+  isInput: Uint8Array;
+}
+
+/**
+ * Renumbers nets and edges. Every list keeps its order (a group's nets and edges, the edges at a
+ * net), so an evaluation visits the same things in the same sequence as before the renumbering and
+ * its results, including which drivers a contention report names, do not change. Edges between two
+ * sources belong to no group and are read by nothing; they are left out.
+ */
+export function layOut(t: BuiltTables): LaidOutTables {
+  const { nNets, groupOf, groupNets, groupEdges } = t;
+  const netPos = new Int32Array(nNets);
+  const netAt = new Int32Array(nNets);
+  let k = 0;
+  for (let i = 0; i < groupNets.list.length; i++) {
+    const n = groupNets.list[i];
+    netPos[n] = k;
+    netAt[k++] = n;
+  }
+  // sources and nets outside every group follow, in netlist order
+  for (let n = 0; n < nNets; n++) {
+    if (groupOf[n] >= 0) continue;
+    netPos[n] = k;
+    netAt[k++] = n;
+  }
+  const pos = (n: number) => (n >= 0 ? netPos[n] : n);
+
+  const edgeCount = groupEdges.list.length;
+  const edgeNew = new Int32Array(t.edgeDevice.length).fill(-1);
+  const edgeDevice = new Int32Array(edgeCount);
+  const edgeA = new Int32Array(edgeCount);
+  const edgeB = new Int32Array(edgeCount);
+  const edgeCap = new Uint8Array(edgeCount);
+  const edgeControl = new Uint8Array(edgeCount);
+  const edgeGate = new Int32Array(edgeCount);
+  const edgeOneWay = new Uint8Array(edgeCount);
+  const programAt = new Int32Array(edgeCount).fill(-1);
+  const code = new Int32Array(t.code.length);
+  let codeLen = 0;
+  const { OP_END, OP_NET } = ops;
+  for (let e = 0; e < edgeCount; e++) {
+    const old = groupEdges.list[e];
+    edgeNew[old] = e;
+    edgeDevice[e] = t.edgeDevice[old];
+    edgeA[e] = netPos[t.edgeA[old]];
+    edgeB[e] = netPos[t.edgeB[old]];
+    edgeCap[e] = t.edgeCap[old];
+    edgeControl[e] = t.edgeControl[old];
+    edgeGate[e] = pos(t.edgeGate[old]);
+    edgeOneWay[e] = t.edgeOneWay[old];
+    let pc = t.programAt[old];
+    if (pc < 0) continue;
+    // programs follow their edges, so a wave of evaluations reads them front to back too
+    programAt[e] = codeLen;
+    for (;;) {
+      const op = t.code[pc];
+      code[codeLen++] = op;
+      code[codeLen++] = op === OP_NET ? netPos[t.code[pc + 1]] : t.code[pc + 1];
+      pc += 2;
+      if (op === OP_END) break;
+    }
+  }
+  const edgesAt = permute(t.edgesAt, netPos);
+  for (let i = 0; i < edgesAt.list.length; i++) edgesAt.list[i] = edgeNew[edgesAt.list[i]];
+
+  const groupOfNew = new Int32Array(nNets);
+  const railVal = new Int8Array(nNets);
+  const isInput = new Uint8Array(nNets);
+  for (let n = 0; n < nNets; n++) {
+    const p = netPos[n];
+    groupOfNew[p] = groupOf[n];
+    railVal[p] = t.railVal[n];
+    isInput[p] = t.isInput[n];
+  }
+  return {
+    netPos,
+    netAt,
+    edgeCount,
+    edgeDevice,
+    edgeA,
+    edgeB,
+    edgeCap,
+    edgeControl,
+    edgeGate,
+    edgeOneWay,
+    programAt,
+    code: code.slice(0, codeLen),
+    groupOf: groupOfNew,
+    groupNetOff: groupNets.off,
+    groupEdgeOff: groupEdges.off,
+    edgesAt,
+    readers: permute(t.readers, netPos),
+    gateReaders: permute(t.gateReaders, netPos),
+    railVal,
+    isInput,
+  };
+}
