@@ -69,6 +69,15 @@ const invalid: Invalid[] = [
     relies: ['A1'],
   },
   {
+    name: 'RTL NOR-3 with its first two inputs strapped to a 0 V rail: named by the transistor that stays',
+    // the strapped base resistors are read as the bases' bleeds; the rail is still the reason
+    nl: () => { const b = rtl().rail('D', 0).rail('K', 0); rtlNor(b, ['D', 'K', 'A'], 'Y'); return b.build(); },
+    messageId: 'simplify',
+    data: { gate: 'QA', place: 'the top level', inputs: 'input D tied to D and input K tied to K', removed: 4 },
+    delta: { transistors: 2, resistors: 2, diodes: 0, gates: 0 },
+    relies: [],
+  },
+  {
     name: 'RTL summed-base NOR with one input held low: its base resistor goes',
     assumptions: ['!TEST'],
     nl: () => rtl().resistor('RC', 'VCC', 'Y', 1000).resistor('RA', 'A', 'BQ', 10e3).resistor('RT', 'TEST', 'BQ', 10e3).npn('Q1', 'Y', 'BQ', '0').build(),

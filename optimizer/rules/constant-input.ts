@@ -88,7 +88,10 @@ function transistorLevel(ctx: RuleContext, idx: NetIndex, node: LogicNode, fixed
           // tied to a rail where the extractor read it: name the control net the device sees
           const dev = nl.devices[d];
           const base = g.bases.find((b) => b.transistor === d);
-          const railNet = base ? base.baseResistors.map((r) => railName(r.from)).find(Boolean) ?? railName(dev.terminals[1]) : railName(dev.terminals[1]);
+          // (a base resistor from a 0 V rail is read as the base's bleed: look through the whole base network)
+          const railNet = base
+            ? base.baseResistors.map((r) => railName(r.from)).find(Boolean) ?? base.devices.flatMap((bd) => nl.devices[bd].terminals).map(railName).find(Boolean) ?? railName(dev.terminals[1])
+            : railName(dev.terminals[1]);
           if (railNet) reasons.set(railNet, fixed.get(railNet)!);
         }
       }
@@ -128,7 +131,9 @@ function transistorLevel(ctx: RuleContext, idx: NetIndex, node: LogicNode, fixed
   if (removed.size === 0 || reasons.size === 0) return;
   const devices = [...removed].map((d) => nl.devices[d].name);
   const margins = lineMargins(node, lineLoads(idx, node.net, ctx.margins), node.family as MapFamily, ctx.margins);
-  ctx.report(report(node, nl.devices[node.groups[0].devices[0]].name, reasons, {
+  // the gate is named by a part that stays (the first device may be a tied-off one that goes)
+  const gate = node.groups[0].devices.find((d) => !removed.has(d)) ?? node.groups[0].devices[0];
+  ctx.report(report(node, nl.devices[gate].name, reasons, {
     messageId: 'simplify',
     data: { removed: removed.size },
     location: { devices, instances: instancesOf([...removed].map((d) => nl.devices[d].path)), nets: [node.name, ...reasons.keys()] },

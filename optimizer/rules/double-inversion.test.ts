@@ -7,9 +7,12 @@ import { describe, expect, it } from 'vitest';
 import { NetlistBuilder } from '../netlist/build';
 import type { FlatNetlist } from '../netlist/ir';
 import { extractLogic } from '../extract';
+import { constantInput } from './constant-input';
 import { doubleInversion } from './double-inversion';
+import { runRules } from './run-rules';
 import { verifyProposal } from './scan';
 import { deckNetlist, docExamples, pick, runOne, savingsProperty, scanOne } from './support/rule-test-kit';
+import type { Rule } from './types';
 
 /** RTL inverter: VCC ─RC─ out, in ─RB─ base, collector out, emitter ground. */
 function rtlInv(b: NetlistBuilder, name: string, input: string, out: string, rc = 1000, rb = 4700): void {
@@ -211,6 +214,18 @@ describe('double-inversion: invalid (finding)', () => {
     const wrong = verifyProposal({ nl, view: extractLogic(nl) }, { ...sp.proposal, edit }, []);
     expect(wrong.status).toBe('refuted');
     expect(wrong.counterexample!.LD).not.toBe(wrong.counterexample!.SPARE);
+  });
+
+  it('agrees with constant-input on the tied-off parts: its proposal takes them too, and the two overlap', async () => {
+    const nl = tiedBit();
+    const r = await runRules(nl, extractLogic(nl), { rules: { [doubleInversion.id]: doubleInversion, [constantInput.id]: constantInput } as Record<string, Rule> });
+    expect(r.ruleErrors).toEqual([]);
+    const byRule = Object.fromEntries(r.findings.map((f) => [f.ruleId, f]));
+    const tiedOff = ['QD', 'RBD', 'QCLR', 'RBC'];
+    expect([...byRule['constant-input'].proposals[0].edit.removeDevices].sort()).toEqual([...tiedOff].sort());
+    expect(byRule['double-inversion'].proposals[0].edit.removeDevices).toEqual(expect.arrayContaining(tiedOff));
+    expect(r.overlaps.edges).toHaveLength(1);
+    expect([...r.overlaps.edges[0].devices].sort()).toEqual([...tiedOff].sort());
   });
 
   it('finds the same pair in every slice instance and names each slice', async () => {
