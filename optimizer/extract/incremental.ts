@@ -92,11 +92,56 @@ export function extractEdited(
   edit: EditShape,
   options: { maxChangedShare?: number } = {},
 ): LogicView {
-  const nl = before.nl;
   // An edit of more parts than the allowance of nodes changes at least about as many: extract whole.
-  if (edit.removeDevices.length + edit.reconnect.length > (options.maxChangedShare ?? DEFAULT_MAX_CHANGED_SHARE) * before.view.nodes.length) {
-    return extractLogic(after);
-  }
+  const allowed = (options.maxChangedShare ?? DEFAULT_MAX_CHANGED_SHARE) * before.view.nodes.length;
+  if (edit.removeDevices.length + edit.reconnect.length > allowed) return extractLogic(after);
+  const edited = editedNodes(before, after, edit, allowed);
+  if (!edited) return extractLogic(after);
+  const { dirty, toNew } = edited;
+  // Kept nodes from the unedited view, changed ones from the cut, in extractLogic's order: gate
+  // level by first driving gate, bipolar by first transistor collected on the net, MOS by net id.
+  const nodes: LogicNode[] = [];
+  before.view.nodes.forEach((n, i) => {
+    if (!dirty[i]) nodes.push(remapNode(n, (d) => toNew[d], (x) => x));
+  });
+  for (const n of edited.nodes) nodes.push(n);
+  const cls = (f: Family) => (f === 'gate' ? 0 : f === 'rtl' || f === 'dtl' ? 1 : 2);
+  const keyOf = (n: LogicNode): number => {
+    if (cls(n.family) === 2) return n.net;
+    let best = Infinity;
+    for (const d of n.devices) {
+      const dev = after.devices[d];
+      if (dev.terminals[0] !== n.net) continue;
+      if (n.family === 'gate' ? dev.kind === 'gate' && dev.op !== 'pullup' && dev.op !== 'pulldown' : dev.kind === 'npn') best = Math.min(best, d);
+    }
+    return best;
+  };
+  const order = nodes.map((n, i) => ({ c: cls(n.family), k: keyOf(n), i }));
+  order.sort((x, y) => x.c - y.c || x.k - y.k);
+  const sorted = order.map((o) => nodes[o.i]);
+  return finish(after, before.view, sorted);
+}
+
+/** The nodes an edit can change, extracted again from the edited design (see `editedNodes`). */
+export interface EditedNodes {
+  /** 1 at each node of the unedited view the edit can change; every other node stays as it is. */
+  dirty: Uint8Array;
+  /** Nets (edited numbering) of those nodes and of the nets the edit touches. */
+  dirtyNets: Set<number>;
+  /** The edited design's nodes on those nets, device indices in the edited numbering. */
+  nodes: LogicNode[];
+  /** Old device index → new (−1 when removed). */
+  toNew: Int32Array;
+}
+
+/**
+ * The nodes of the edited design that the edit can change, extracted from a cut around them; the
+ * unedited view's other nodes are the edited view's too (device indices through `toNew`).
+ * @param allowed most changed nodes worth the cut (undefined beyond, and when `after` is not the
+ *   shared-ids copy `applyProposals(…, { share: true })` gives)
+ */
+export function editedNodes(before: { nl: FlatNetlist; view: LogicView }, after: FlatNetlist, edit: EditShape, allowed = Infinity): EditedNodes | undefined {
+  const nl = before.nl;
   const removed = new Set(edit.removeDevices);
   // Old device index → new (−1 when removed); new → old (−1 when added).
   const toNew = new Int32Array(nl.devices.length);
@@ -106,7 +151,7 @@ export function extractEdited(
     after.nets.length >= nl.nets.length &&
     after.devices.length === k + edit.addDevices.length &&
     nl.nets.every((n, i) => after.nets[i].name === n.name);
-  if (!shareLike) return extractLogic(after);
+  if (!shareLike) return undefined;
   // Old net id → its id after the edit (itself, or the kept net of a merge): one name lookup a net.
   const canonOf = new Int32Array(nl.nets.length);
   for (let i = 0; i < nl.nets.length; i++) canonOf[i] = after.netByName.get(nl.nets[i].name) ?? i;
@@ -164,7 +209,6 @@ export function extractEdited(
   const dirtyNets = new Set<number>(touched);
   const dirty = new Uint8Array(oldView.nodes.length);
   // Past the allowance the whole extraction is cheaper: stop counting there.
-  const allowed = (options.maxChangedShare ?? DEFAULT_MAX_CHANGED_SHARE) * oldView.nodes.length;
   let changedCount = 0;
   for (let i = 0; i < oldView.nodes.length; i++) {
     const n = oldView.nodes[i];
@@ -177,7 +221,7 @@ export function extractEdited(
     if (hit) {
       dirty[i] = 1;
       dirtyNets.add(canon(n.net));
-      if (++changedCount > allowed) return extractLogic(after);
+      if (++changedCount > allowed) return undefined;
     }
   }
   // The cut: every net of a changed node's devices and of the parts on touched nets, then every
@@ -213,30 +257,11 @@ export function extractEdited(
     localNodes = extractBipolar(cx, new BaseResolver(cx), only);
   } else localNodes = extractLogic(cutNl).nodes;
 
-  // Kept nodes from the unedited view, changed ones from the cut, in extractLogic's order: gate
-  // level by first driving gate, bipolar by first transistor collected on the net, MOS by net id.
   const nodes: LogicNode[] = [];
-  oldView.nodes.forEach((n, i) => {
-    if (!dirty[i]) nodes.push(remapNode(n, (d) => toNew[d], (x) => x));
-  });
   for (const n of localNodes) {
     if (dirtyNets.has(n.net)) nodes.push(remapNode(n, (d) => cut[d], (x) => x));
   }
-  const cls = (f: Family) => (f === 'gate' ? 0 : f === 'rtl' || f === 'dtl' ? 1 : 2);
-  const keyOf = (n: LogicNode): number => {
-    if (cls(n.family) === 2) return n.net;
-    let best = Infinity;
-    for (const d of n.devices) {
-      const dev = after.devices[d];
-      if (dev.terminals[0] !== n.net) continue;
-      if (n.family === 'gate' ? dev.kind === 'gate' && dev.op !== 'pullup' && dev.op !== 'pulldown' : dev.kind === 'npn') best = Math.min(best, d);
-    }
-    return best;
-  };
-  const order = nodes.map((n, i) => ({ c: cls(n.family), k: keyOf(n), i }));
-  order.sort((x, y) => x.c - y.c || x.k - y.k);
-  const sorted = order.map((o) => nodes[o.i]);
-  return finish(after, oldView, sorted);
+  return { dirty, dirtyNets, nodes, toNew };
 }
 
 /** The whole-view steps of extractLogic on the combined nodes: fan-in lists, loops, inputs, family. */

@@ -5,11 +5,12 @@ import { extractLogic } from '../extract';
 import { extractEdited } from '../extract/incremental';
 import type { LogicView } from '../extract/types';
 import { combinationalModel, ENABLE_SUFFIX, NEXT_SUFFIX } from '../extract/compose';
-import { and, evaluate, v, type Expr } from '../logic/expr';
+import { and, evaluate, support, v, type Expr } from '../logic/expr';
 import { editSavings, type Savings } from '../cost/cost';
 import { DEFAULT_PARTS_TABLE, type PartsTable } from '../cost/parts-table';
 import type { MarginResult } from '../margins/corners';
 import type { FlatNetlist } from '../netlist/ir';
+import { cutProof } from '../region/cut-proof';
 import { positions, proofKey, type ProofKey } from '../region/proof-key';
 import { applyProposals } from '../rewrite/apply';
 import { checkEquivalence, type EquivResult } from '../verify/equivalence';
@@ -252,11 +253,13 @@ export function verifyProposal(
   verifier: Verifier = defaultVerifier,
   simulateUpTo = 20_000,
   cache?: ProofCache,
+  how: { cut?: CutMode; wholeDesign?: boolean } = {},
 ): Verification {
+  const cut = how.cut ?? 'auto';
   const changed = changedNets(before.nl, before.view, p);
   // Work on the changed nets' fan-in cut out of the design, so a proof costs the region's size.
   const seeds = changed.filter((n) => before.view.nodeByNet.has(before.nl.netByName.get(n) ?? -1));
-  const nl = regionOf(before.nl, before.view, seeds, p.edit);
+  const nl = how.wholeDesign ? before.nl : regionOf(before.nl, before.view, seeds, p.edit);
   const after = applyProposals(nl, [p], { share: true });
   const used = assumptions.filter((a) => p.assumptions.includes(a.id));
   let problem: Problem | undefined;
@@ -267,13 +270,39 @@ export function verifyProposal(
     const reused = reuse(hit, key, used, problemNow);
     if (reused) return reused;
   }
-  const r = prove(nl, after, problemNow(), used, verifier, simulateUpTo);
+  // A design-wide edit is first proved by cut points (its changed nets one at a time, repeated
+  // slices once); only when that cannot decide is the whole design composed and proved.
+  const cutFirst =
+    nl === before.nl && nl.devices.length > simulateUpTo && (cut === 'always' || (cut === 'auto' && verifier === defaultVerifier && seeds.length > 0));
+  const r = (cutFirst ? cutVerification(before, after, p, changed, used) : undefined) ?? prove(nl, after, problemNow(), used, verifier, simulateUpTo);
   if (key && !hit && cacheable(r)) {
     const ids = used.map((a) => a.id);
     const assumptionAt = r.assumptions.map((id) => ids.indexOf(id));
     if (!assumptionAt.includes(-1)) cache!.set(key.key, { key, verification: r, assumptionAt });
   }
   return r;
+}
+
+/**
+ * When the cut proof tries first: `auto` for a proposal verified on the whole design (its fan-in
+ * too large to cut out) with the default verifier and no switch-level check; `always` for any
+ * proposal verified on the whole design without the switch-level check (tests compare it with the
+ * whole proof, `wholeDesign` skipping the region); `never`.
+ */
+export type CutMode = 'auto' | 'always' | 'never';
+
+/**
+ * The whole-design proof's verdict when the cut proof proves: every changed net equal before and
+ * after whatever the cut points carry, so the whole proof holds with no assumption at all (it
+ * drops each in turn, up to eight), by the method its input count picks. Undefined otherwise.
+ */
+function cutVerification(before: { nl: FlatNetlist; view: LogicView }, after: FlatNetlist, p: Proposal, changed: string[], used: Assumption[]): Verification | undefined {
+  const assumptionInputs = new Set<string>();
+  for (const a of used) support(a.expr, assumptionInputs);
+  const r = cutProof(before, after, p.edit, changed, { assumptionInputs });
+  if (!r.proved) return undefined;
+  const assumptions = used.length > 8 ? used.map((a) => a.id) : [];
+  return { status: 'proved', method: r.proved.method, assumptions, compared: r.proved.compared, simulatedVectors: 0, note: 'design too large for the switch-level check' };
 }
 
 function prove(nl: FlatNetlist, after: FlatNetlist, problem: Problem, used: Assumption[], verifier: Verifier, simulateUpTo: number): Verification {
