@@ -200,6 +200,36 @@ describe('two-level-minimise: repeated blocks and batches', () => {
     }
   });
 
+  it('minimises once a block copied with inputs whose names sort in another order, and maps its cover back to each copy', async () => {
+    // Y = AB + AB' + CD; the copy reads Z for A, M for B, K for C and P for D, so its inputs sort
+    // as C, B, D, A: the same function with its inputs permuted.
+    const b = new NetlistBuilder('Wren-8 flag logic, two renamed copies');
+    const block = (u: string, a: string, bb: string, c: string, d: string, y: string) => {
+      b.gate(`${u}1`, 'not', [`${u}BN`, bb]);
+      b.gate(`${u}2`, 'and', [`${u}T1`, a, bb]);
+      b.gate(`${u}3`, 'and', [`${u}T2`, a, `${u}BN`]);
+      b.gate(`${u}4`, 'and', [`${u}T3`, c, d]);
+      b.gate(`${u}5`, 'or', [y, `${u}T1`, `${u}T2`, `${u}T3`]);
+    };
+    block('U', 'A', 'B', 'C', 'D', 'Y');
+    block('V', 'Z', 'M', 'K', 'P', 'W');
+    const nl = b.build();
+    const m = createEspressoMinimiser({ size: 1 });
+    try {
+      const r = await runRules(nl, extractLogic(nl), { rules: { [rule.id]: rule }, minimiser: m });
+      expect(r.ruleErrors).toEqual([]);
+      const terms = (sop: unknown) => String(sop).split(' + ').map((t) => [...t].sort().join('')).sort();
+      expect(r.findings.map((f) => [f.data.net, terms(f.data.sop)])).toEqual([
+        ['Y', ['A', 'CD']],
+        ['W', ['KP', 'Z']],
+      ]);
+      // Function and complement of the one block, once: the copy's covers are moved, not minimised.
+      expect(m.pool.sent).toBe(2);
+    } finally {
+      m.close();
+    }
+  });
+
   it('records a minimiser failure against its block alone and reports the others', async () => {
     const failing: Minimiser = {
       name: 'failing-on-S1',

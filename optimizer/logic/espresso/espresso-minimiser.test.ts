@@ -249,6 +249,30 @@ describe('batches of functions', () => {
   });
 });
 
+describe('functions equal up to the order of their inputs', () => {
+  it('are minimised once, each answered with a cover of its own table, in one batch and from memory', async () => {
+    const m = createEspressoMinimiser({ size: 1 });
+    try {
+      // F = a + b'c over (a, b, c); G is F with its inputs listed as (c, a, b), H as (b, c, a).
+      const f = fromMinterms(['a', 'b', 'c'], [{ name: 'F', on: [1, 4, 5, 6, 7] }]);
+      const g = fromMinterms(['c', 'a', 'b'], [{ name: 'G', on: [2, 3, 6, 7, 4] }]);
+      const h = fromMinterms(['b', 'c', 'a'], [{ name: 'H', on: [1, 3, 5, 7, 2] }]);
+      const out = await m.minimiseMany([f, g]);
+      expect(m.pool.sent).toBe(1);
+      const text = (o: (typeof out)[number]) => (o.ok ? coverToText(o.result.cover.outputs[0].cover, o.result.cover.inputs) : String(o.error));
+      // Terms and their literals in name order, whatever the table's input order.
+      const sorted = (sop: string) => sop.split(' + ').map((t) => (t.match(/[a-z]'?/g) ?? []).sort().join('')).sort().join(' + ');
+      expect(out.map((o) => sorted(text(o)))).toEqual(["a + b'c", "a + b'c"]);
+      out.forEach((o, k) => o.ok && expect(coverMismatch(o.result.cover.outputs[0].cover, [f, g][k].outputs[0], 3)).toBeUndefined());
+      const [later] = await m.minimiseMany([h]);
+      expect(m.pool.sent).toBe(1);
+      expect(sorted(text(later))).toBe("a + b'c");
+    } finally {
+      m.close();
+    }
+  });
+});
+
 describe('table payloads (the child writes the PLA rows)', () => {
   const requireCjs = createRequire(__filename);
   const { tableLines, tableText } = requireCjs('./pla-rows.cjs') as { tableLines(p: unknown): string[]; tableText(p: unknown): string };

@@ -1,13 +1,15 @@
 // Minimiser backed by the Espresso process pool: constants answered here (never sent), each
 // distinct function sent once per batch after its table is checked, and every returned cover
 // checked against the truth table on the care set before it is believed (a wrong cover falls back
-// to the exact minimiser or is an error); checked covers are remembered by the table's content.
+// to the exact minimiser or is an error); checked covers are remembered by the table's content,
+// with its inputs in a name-free order, so a block whose inputs sort differently shares them.
 import { InternalError } from '../../errors';
 import { type Cover, coverMismatch } from '../cubes';
 import type { MinimiseMethod, MinimiseOutcome, MinimiseResult, Minimiser, MinimiseOptions } from '../minimiser';
 import { MAX_QM_INPUTS, minimiseOutputQm } from '../quine-mccluskey';
 import { constantValue, type OutputTable, type TruthTable } from '../truth-table';
 import { EspressoPool, MinimiserError, type PoolOptions } from './pool';
+import { canonicalOrder, inverseOrder, reorderCover, reorderOutput } from './input-order';
 import { MAX_ESPRESSO_INPUTS, parseCubes, tablePayload, type TablePayload } from './pla';
 
 /** Inputs up to which a cover Espresso got wrong is recomputed exactly instead of failing. */
@@ -25,29 +27,44 @@ export interface EspressoMinimiser extends Minimiser {
 const CACHE_ENTRIES = 512;
 
 /**
- * The function itself as a key: input count, then the on-set and don't-care words as raw bytes.
- * Equal keys are equal tables, so a remembered cover was already checked against this very table.
+ * The function itself as a key: input count, then the on-set and don't-care words as raw bytes
+ * (of the table with its inputs in canonicalOrder). Equal keys are tables equal up to the order
+ * of their inputs; a cover moved from one to the other is still checked before it is used.
  */
 function tableKey(out: OutputTable, n: number): string {
   const bytes = (set: Uint32Array) => Buffer.from(set.buffer, set.byteOffset, set.byteLength).toString('latin1');
   return `${n}:${bytes(out.on)}|${bytes(out.dc)}`;
 }
 
-const copyCover = (cover: Cover): Cover => cover.map((c) => ({ care: c.care, value: c.value }));
+/** A checked cover with its inputs in canonical order, and the input order of the table it was checked on. */
+interface Remembered {
+  cover: Cover;
+  order: number[];
+}
+
+const sameOrder = (a: readonly number[], b: readonly number[]) => a.every((x, i) => x === b[i]);
 
 type Answer = { cover: Cover; method: MinimiseMethod } | { error: Error };
 
-/** A distinct non-constant function to send, and the outputs (function, output) that want it. */
+/** One output that wants a function: where it is, its own table, and its inputs' canonical order. */
+interface User {
+  f: number;
+  k: number;
+  out: OutputTable;
+  order: number[];
+}
+
+/** A distinct non-constant function to send (its first user's table), and the outputs that want it. */
 interface Wanted {
   out: OutputTable;
   n: number;
-  users: [number, number][];
+  users: User[];
   answer?: Answer;
 }
 
 export function createEspressoMinimiser(options: PoolOptions & { pool?: EspressoPool } = {}): EspressoMinimiser {
   const pool = options.pool ?? new EspressoPool(options);
-  const cache = new Map<string, Cover>();
+  const cache = new Map<string, Remembered>();
 
   /** A cover is believed only if it equals the output on the care set; else exact or an error. */
   function accept(out: OutputTable, n: number, cover: Cover): { cover: Cover; method: MinimiseMethod } {
@@ -58,6 +75,15 @@ export function createEspressoMinimiser(options: PoolOptions & { pool?: Espresso
       'mismatch',
       `the minimiser's cover of ${out.name} is wrong at minterm ${wrong.minterm} (expected ${wrong.expected}); not used`,
     );
+  }
+
+  /**
+   * A remembered cover moved to a user's input order. Equal keys and equal orders mean the very
+   * table it was checked on; a cover moved between orders is checked again on the user's table.
+   */
+  function moved(r: Remembered, user: User, n: number): Cover | undefined {
+    const cover = reorderCover(r.cover, n, inverseOrder(user.order));
+    return sameOrder(r.order, user.order) || !coverMismatch(cover, user.out, n) ? cover : undefined;
   }
 
   async function minimiseMany(fns: readonly TruthTable[], opts: MinimiseOptions = {}): Promise<MinimiseOutcome[]> {
@@ -72,13 +98,16 @@ export function createEspressoMinimiser(options: PoolOptions & { pool?: Espresso
         else if (n > MAX_ESPRESSO_INPUTS) {
           answers[f][k] = { error: new MinimiserError('rejected', `functions of more than ${MAX_ESPRESSO_INPUTS} inputs are not sent to the minimiser (got ${n})`) };
         } else {
-          const key = tableKey(out, n);
+          const order = canonicalOrder(out, n);
+          const key = tableKey(reorderOutput(out, n, order), n);
+          const user: User = { f, k, out, order };
           const hit = cache.get(key);
-          if (hit) answers[f][k] = { cover: copyCover(hit), method: 'espresso' };
+          const cover = hit && moved(hit, user, n);
+          if (cover) answers[f][k] = { cover, method: 'espresso' };
           else {
             const w = wanted.get(key);
-            if (w) w.users.push([f, k]);
-            else wanted.set(key, { out, n, users: [[f, k]] });
+            if (w) w.users.push(user);
+            else wanted.set(key, { out, n, users: [user] });
           }
         }
       });
@@ -103,16 +132,26 @@ export function createEspressoMinimiser(options: PoolOptions & { pool?: Espresso
         w.answer = r;
         if (r.method === 'espresso') {
           if (cache.size >= CACHE_ENTRIES) cache.delete(cache.keys().next().value!);
-          cache.set(key, copyCover(r.cover));
+          cache.set(key, { cover: reorderCover(r.cover, w.n, w.users[0].order), order: w.users[0].order });
         }
       } catch (err) {
         w.answer = { error: err instanceof Error ? err : new Error(String(err)) };
       }
     });
     for (const w of wanted.values()) {
-      w.users.forEach(([f, k], u) => {
-        const a = w.answer!;
-        answers[f][k] = 'error' in a || u === 0 ? a : { cover: copyCover(a.cover), method: a.method };
+      const a = w.answer!;
+      // The first user sent its own table; the others get the cover moved to their input order.
+      const source = w.users[0].order;
+      const canonical = 'error' in a ? undefined : { cover: reorderCover(a.cover, w.n, source), order: source };
+      w.users.forEach((user, u) => {
+        if (!canonical || 'error' in a || u === 0) {
+          answers[user.f][user.k] = a;
+          return;
+        }
+        const cover = moved(canonical, user, w.n);
+        answers[user.f][user.k] = cover
+          ? { cover, method: a.method }
+          : { error: new InternalError(`the cover of ${w.out.name} does not fit ${user.out.name}, whose table differs only in input order`) };
       });
     }
     // A function fails with its first failing output, as a single request would.

@@ -1,0 +1,87 @@
+// A name-free order of a function's inputs (from the table alone) and the moves between input
+// orders, for tables and covers: the minimiser keys what it remembers on the table in this order,
+// so the same block wired to inputs whose names sort differently is minimised once.
+import type { Cover } from '../cubes';
+import { words, type OutputTable } from '../truth-table';
+
+/**
+ * Moves the input bits of a minterm or cube mask: input k of the result (bit n-1-k) is input
+ * from[k] of x (bit n-1-from[k]).
+ */
+export function moveBits(x: number, n: number, from: readonly number[]): number {
+  let y = 0;
+  for (let k = 0; k < n; k++) if ((x >>> (n - 1 - from[k])) & 1) y |= 1 << (n - 1 - k);
+  return y;
+}
+
+/** The order that undoes `from` (inverse permutation). */
+export function inverseOrder(from: readonly number[]): number[] {
+  const inv = new Array<number>(from.length);
+  from.forEach((i, k) => (inv[i] = k));
+  return inv;
+}
+
+export const isIdentity = (order: readonly number[]) => order.every((i, k) => i === k);
+
+/** Minterms (among 2^n) in which input i is 1, counted in a bitset. */
+function countWithInput(set: Uint32Array, n: number, i: number): number {
+  const b = n - 1 - i;
+  let c = 0;
+  if (b < 5) {
+    // The input alternates inside each word: a fixed mask per bit position.
+    const mask = [0xaaaaaaaa, 0xcccccccc, 0xf0f0f0f0, 0xff00ff00, 0xffff0000][b];
+    for (let w = 0; w < set.length; w++) c += popcount32(set[w] & mask);
+  } else {
+    // The input is constant over runs of words.
+    for (let w = 0; w < set.length; w++) if ((w >>> (b - 5)) & 1) c += popcount32(set[w]);
+  }
+  return c;
+}
+
+function popcount32(x: number): number {
+  x -= (x >>> 1) & 0x55555555;
+  x = (x & 0x33333333) + ((x >>> 2) & 0x33333333);
+  return (((x + (x >>> 4)) & 0x0f0f0f0f) * 0x01010101) >>> 24;
+}
+
+/**
+ * Inputs ordered by what the table says of each (on-set minterms with the input at 1, then
+ * don't-cares with it at 1), ties kept in the given order: `order[k]` is the input placed k-th.
+ * Renaming the inputs permutes the table; this order undoes that wherever those counts tell the
+ * inputs apart, and where they tie on inputs the function treats alike the tables agree anyway.
+ * (A tie between inputs that differ only costs a repeated minimiser call, never a wrong cover.)
+ */
+export function canonicalOrder(out: OutputTable, n: number): number[] {
+  const sig = Array.from({ length: n }, (_, i) => [countWithInput(out.on, n, i), countWithInput(out.dc, n, i)]);
+  return Array.from({ length: n }, (_, i) => i).sort((a, b) => sig[a][0] - sig[b][0] || sig[a][1] - sig[b][1] || a - b);
+}
+
+/** Moves every minterm of a bitset to the order `from` (input k of the result is input from[k]). */
+function moveSet(set: Uint32Array, n: number, from: readonly number[]): Uint32Array {
+  const out = new Uint32Array(words(n));
+  const size = 2 ** n;
+  for (let w = 0; w < set.length; w++) {
+    let word = set[w];
+    while (word !== 0) {
+      const low = word & -word;
+      const m = w * 32 + (31 - Math.clz32(low));
+      word ^= low;
+      if (m >= size) continue;
+      const t = moveBits(m, n, from);
+      out[t >>> 5] |= 1 << (t & 31);
+    }
+  }
+  return out;
+}
+
+/** The output's table with its inputs put in the order `from`. */
+export function reorderOutput(out: OutputTable, n: number, from: readonly number[]): OutputTable {
+  if (isIdentity(from)) return out;
+  return { name: out.name, on: moveSet(out.on, n, from), dc: moveSet(out.dc, n, from) };
+}
+
+/** A cover with its inputs put in the order `from` (input k of the result is input from[k]). */
+export function reorderCover(cover: Cover, n: number, from: readonly number[]): Cover {
+  if (isIdentity(from)) return cover.map((c) => ({ care: c.care, value: c.value }));
+  return cover.map((c) => ({ care: moveBits(c.care, n, from), value: moveBits(c.value, n, from) }));
+}
