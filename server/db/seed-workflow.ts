@@ -40,8 +40,8 @@ export type DemoDesign = {
 
 /**
  * The Wren-8 demo set (Larkspur Relay Works, invented): every rule of the catalogue shown at least
- * once, in five transistor-level families' decks and two gate-level modules. Boards, budgets and
- * prices are invented for the demo.
+ * once, in six transistor-level decks (RTL, DTL, CMOS, NMOS with resistor loads) and two gate-level
+ * modules. Boards, budgets and prices are invented for the demo.
  */
 export const DEMO_DESIGNS: readonly DemoDesign[] = [
   {
@@ -70,7 +70,7 @@ export const DEMO_DESIGNS: readonly DemoDesign[] = [
     name: 'Wren-8 bus driver',
     family: 'dtl',
     level: 'transistor',
-    board: { name: 'Bus card', parts: 60, areaMm2: 1400, cost: 2.1 },
+    board: { name: 'Bus card', parts: 54, areaMm2: 1400, cost: 2.1 },
     shows: [
       { rule: 'shared-control-driver', verdict: 'ready' },
       { rule: 'merge-duplicate-logic', verdict: 'ready' },
