@@ -1,10 +1,16 @@
 // ngspice (Debian package, batch mode) runs every transistor-level Wren-8 demo deck as shipped —
 // its own stimulus sources and .tran card — without errors, every probed net stays within its
 // rails, and two decks do their logic job: the register-select decoder lights exactly the output
-// its select lines name, and the data bus carries the enabled source's bit to its receiver.
-// Thresholds: CMOS 30 %/70 % of V_DD (common practice).
+// its select lines name, and the data bus carries the enabled source's bit to its receiver. The
+// register slice's clear steering, refused on its diode-steered low level, leaves a cleared line in
+// ngspice above the 0.5 V at which the RTL stage reading it turns on.
+// Thresholds: CMOS 30 %/70 % of V_DD, RTL 0.5 V/1.0 V (common practice).
 import { describe, expect, it } from 'vitest';
+import { flatten, readDesign } from '@/optimizer';
+import { DEFAULT_MARGIN_SETTINGS } from '@/optimizer/margins/defaults';
+import { scan } from '@/optimizer/rules/scan';
 import { OUT, runNgspice } from '@/tests/support/ngspice';
+import { applied, levelTable } from '@/tests/support/rule-levels';
 import { DEMO_DESIGNS, demoDeck } from '@/server/db/seed-workflow';
 
 /** Nets to read back from each deck's transient run, and its supply. */
@@ -78,5 +84,25 @@ describe('Wren-8 demo decks in ngspice', () => {
       checked++;
     }
     expect(checked).toBeGreaterThan(20);
+  });
+
+  it('the register slice\'s refused clear steering leaves a cleared line where an RTL input turns on', async () => {
+    // The deck without its stimulus sources: the check drives CLR, LD and the data bits itself.
+    const text = demoDeck('wren8-register-slice.cir').toString('utf8').split('\n').filter((l) => !/^V\w+\s.*PULSE/i.test(l)).join('\n');
+    const nl = flatten(readDesign(text, { file: 'wren8-register-slice.cir' }).design);
+    const r = await scan(nl, { enabled: ['common-override'] });
+    const refused = r.findings.flatMap((f) => f.proposals).find((p) => p.verdict === 'failing-margins')!;
+    expect(refused.margins.find((m) => m.name === 'diode-steered low level')!.status).toBe('fail');
+    const rtl = DEFAULT_MARGIN_SETTINGS.thresholds.rtl;
+    const o = { inputs: ['CLR', 'LD', 'D0', 'D1', 'D2', 'D3'], nets: ['Q0', 'Q1', 'Q2', 'Q3'], high: 3.6, thresholds: rtl };
+    // The clear alone pulling the lines (LD high keeps the load gates off; the sequencer never
+    // does this, but it is the only way to see the clear's own low level on the bench).
+    const cleared = [{ CLR: 1, LD: 1, D0: 0, D1: 0, D2: 0, D3: 0 } as const];
+    const before = levelTable(nl, { ...o, points: cleared });
+    const after = levelTable(applied(nl, refused.proposal), { ...o, points: cleared });
+    for (const q of o.nets) {
+      expect(before.levels[0][q], q).toBe(0); // the per-bit clear pulls the line hard low
+      expect(after.volts[0][q], q).toBeGreaterThan(rtl.vil); // through a steering diode it stays above V_IL
+    }
   });
 });
