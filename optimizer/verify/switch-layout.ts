@@ -22,7 +22,6 @@ export interface BuiltTables {
   /** Nets and edges of each ranked group, in the order the build met them. */
   groupNets: Csr;
   groupEdges: Csr;
-  edgesAt: Csr;
   readers: Csr;
   gateReaders: Csr;
   railVal: Int8Array;
@@ -78,7 +77,6 @@ export function layOut(t: BuiltTables): LaidOutTables {
   const pos = (n: number) => (n >= 0 ? netPos[n] : n);
 
   const edgeCount = groupEdges.list.length;
-  const edgeNew = new Int32Array(t.edgeDevice.length).fill(-1);
   const edgeDevice = new Int32Array(edgeCount);
   const edgeA = new Int32Array(edgeCount);
   const edgeB = new Int32Array(edgeCount);
@@ -92,7 +90,6 @@ export function layOut(t: BuiltTables): LaidOutTables {
   const { OP_END, OP_NET } = ops;
   for (let e = 0; e < edgeCount; e++) {
     const old = groupEdges.list[e];
-    edgeNew[old] = e;
     edgeDevice[e] = t.edgeDevice[old];
     edgeA[e] = netPos[t.edgeA[old]];
     edgeB[e] = netPos[t.edgeB[old]];
@@ -112,8 +109,7 @@ export function layOut(t: BuiltTables): LaidOutTables {
       if (op === OP_END) break;
     }
   }
-  const edgesAt = permute(t.edgesAt, netPos);
-  for (let i = 0; i < edgesAt.list.length; i++) edgesAt.list[i] = edgeNew[edgesAt.list[i]];
+  const edgesAt = edgesAtNets(edgeA, edgeB, nNets, groupNets.list.length);
 
   const groupOfNew = new Int32Array(nNets);
   const railVal = new Int8Array(nNets);
@@ -146,4 +142,28 @@ export function layOut(t: BuiltTables): LaidOutTables {
     railVal,
     isInput,
   };
+}
+
+/**
+ * Edges at each group net, built from the laid-out edges: a net's edges all lie in its own group,
+ * whose edges are numbered in build order, so ascending ids give the order the simulator has always
+ * walked them in (an edge with both ends on one net is listed twice, as before). Source nets, whose
+ * lists the simulator never walks, get none.
+ */
+function edgesAtNets(edgeA: Int32Array, edgeB: Int32Array, nNets: number, groupNets: number): Csr {
+  const off = new Int32Array(nNets + 1);
+  // group nets are the first model ids
+  const inGroup = (p: number) => p < groupNets;
+  for (let e = 0; e < edgeA.length; e++) {
+    if (inGroup(edgeA[e])) off[edgeA[e] + 1]++;
+    if (inGroup(edgeB[e])) off[edgeB[e] + 1]++;
+  }
+  for (let p = 0; p < nNets; p++) off[p + 1] += off[p];
+  const at = off.slice(0, nNets);
+  const list = new Int32Array(off[nNets]);
+  for (let e = 0; e < edgeA.length; e++) {
+    if (inGroup(edgeA[e])) list[at[edgeA[e]]++] = e;
+    if (inGroup(edgeB[e])) list[at[edgeB[e]]++] = e;
+  }
+  return { off, list };
 }

@@ -76,7 +76,10 @@ export interface SwitchModel {
   groupEdgeOff: Int32Array;
   /** Gate-level devices whose output net is in the group. */
   groupGates: Csr;
-  /** Edges per net (by edge index). */
+  /**
+   * Edges at each net of a group, in edge order (a group's edges are consecutive, so this is the
+   * order they were built in). Sources have empty lists: a signal never spreads out of a source.
+   */
   edgesAt: Csr;
   /** Groups that must be re-evaluated when this net changes (controls and source adjacency). */
   readers: Csr;
@@ -139,7 +142,9 @@ export function buildSwitchModel(nl: FlatNetlist, inputNames: string[]): SwitchM
   for (const r of nl.rails) railValue.set(r.net, r.volts > 0 ? 1 : 0);
   const railVal = new Int8Array(nNets).fill(-1);
   for (const [net, v] of railValue) railVal[net] = v;
-  const isSource = (n: number) => isInput[n] === 1 || isRail(cx, n);
+  // isRail inlined: the imported binding is read through a getter on every call, millions of times here
+  const railVolts = cx.railVolts;
+  const isSource = (n: number) => isInput[n] === 1 || !Number.isNaN(railVolts[n]);
 
   // Each transistor's base drive is resolved once and compiled on the spot into `code`; only the
   // program's start (per device, until edges are numbered) and the base-network marks are kept.
@@ -314,7 +319,6 @@ export function buildSwitchModel(nl: FlatNetlist, inputNames: string[]): SwitchM
   let programNets = 0;
   for (let pc = 0; pc < codeLen; pc += 2) if (code[pc] === OP_NET) programNets++;
   const edgePairs = new Pairs(nEdges);
-  const atPairs = new Pairs(2 * nEdges);
   const readerPairs = new Pairs(3 * nEdges + programNets + gateInputs);
   const lastReader = new Int32Array(nNets).fill(-1);
   const addReader = (net: number, g: number): void => {
@@ -330,8 +334,6 @@ export function buildSwitchModel(nl: FlatNetlist, inputNames: string[]): SwitchM
     groupFor(b);
     if (g < 0) continue; // an edge between two sources carries nothing
     edgePairs.push(g, ei);
-    atPairs.push(a, ei);
-    atPairs.push(b, ei);
     if (isSource(a)) addReader(a, g);
     if (isSource(b)) addReader(b, g);
     if (edgeGate[ei] >= 0) addReader(edgeGate[ei], g);
@@ -372,7 +374,6 @@ export function buildSwitchModel(nl: FlatNetlist, inputNames: string[]): SwitchM
     groupOf,
     groupNets: permute(oldNets, order),
     groupEdges: permute(edgePairs.toCsr(groupCount), order),
-    edgesAt: atPairs.toCsr(nNets),
     readers: oldReaders,
     gateReaders: gateReaderPairs.toCsr(nNets),
     railVal,

@@ -259,6 +259,18 @@ export class SwitchSimulator {
     }
     this.tracking = !includeX;
     for (const lvl of PASSES) {
+      if (lvl !== DRIVEN) {
+        // once every net of the group holds a stronger signal, this pass and the weaker ones can
+        // deliver nothing (deliver ignores nets above the pass's level): most groups end early
+        let open = false;
+        for (let n = n0; n < n1; n++) {
+          if (level[n] <= lvl) {
+            open = true;
+            break;
+          }
+        }
+        if (!open) break;
+      }
       this.curLevel = lvl;
       this.top = 0;
       for (let ei = e0; ei < e1; ei++) {
