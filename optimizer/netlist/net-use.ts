@@ -32,6 +32,8 @@ export class NetUse {
 
   /** Counts one more terminal on the net. */
   touch(name: string): void {
-    this.counts[this.add(name)]++;
+    // Numbered first: add() may replace `counts`, so the array is read after it.
+    const i = this.add(name);
+    this.counts[i]++;
   }
 }

@@ -96,7 +96,10 @@ function singleTerminalNets(cell: Cell, globals: Set<string>, isTop: boolean, ou
   const counts = use.counts;
   const lonely = new Set<string>();
   const names = use.names;
-  for (let i = 0; i < names.length; i++) if (counts[i] === 1 && !globals.has(names[i])) lonely.add(names[i]);
+  // A supply net (a Verilog constant such as 1'b1, or a supply0/supply1 net) is a rail: one tie-off is normal.
+  const kinds = cell.netKinds;
+  const isSupply = (n: string) => kinds !== undefined && (kinds[n] === 'supply0' || kinds[n] === 'supply1');
+  for (let i = 0; i < names.length; i++) if (counts[i] === 1 && !globals.has(names[i]) && !isSupply(names[i])) lonely.add(names[i]);
   if (lonely.size === 0) return;
   const ports = new Set(cell.ports);
   // A second walk finds where each lonely net is used; lonely nets are few, so this stays cheap.

@@ -80,6 +80,17 @@ describe('readVerilog', () => {
     expect(flat.rails.map((r) => flat.nets[r.net].name)).toContain("1'b1");
     expect(countParts(d)).toMatchObject({ gates: 1, resistors: 1 });
   });
+
+  it('warns about no net an assign or a constant tie-off makes, however many nets the module has', () => {
+    // 40 assigns of three operators each: over 64 nets, so the net numbering grows while counting.
+    const body = Array.from({ length: 40 }, (_, i) => ` assign y${i} = (a & ~b) | (b & c${i});`).join('\n');
+    const ports = Array.from({ length: 40 }, (_, i) => `c${i}, y${i}`).join(', ');
+    const decl = Array.from({ length: 40 }, (_, i) => ` input c${i}; output y${i};`).join('\n');
+    const text = `module m (a, b, ${ports});\n input a, b;\n${decl}\n${body}\n and t (y0x, a, 1'b1);\n and u (z, y0x, a);\nendmodule\n`;
+    const { diagnostics } = readVerilog(text, 'm.v');
+    // z is driven and read by nothing else: the one real single-terminal net.
+    expect(diagnostics.map(formatDiagnostic)).toEqual([expect.stringMatching(/^m\.v:\d+:\d+: warning: net z in m touches only one terminal$/)]);
+  });
 });
 
 describe('writeVerilog', () => {
