@@ -2,7 +2,7 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { and, evaluate, not, or, v, xor, type Expr } from './expr';
-import { complementTable, fromExprs, fromFunction, fromMinterms, getBit, mintermsOf } from './truth-table';
+import { complementTable, constantValue, fromExprs, fromFunction, fromMinterms, getBit, mintermsOf } from './truth-table';
 
 const exprArb = (names: string[]): fc.Arbitrary<Expr> =>
   fc.letrec<{ e: Expr }>((tie) => ({
@@ -43,5 +43,18 @@ describe('complementTable', () => {
     const c = complementTable(t).outputs[0];
     expect(mintermsOf(c.on, 2)).toEqual([2]);
     expect(getBit(c.dc, 1)).toBe(true);
+  });
+});
+
+describe('constantValue', () => {
+  it('tells constant 0, constant 1 (on or don\'t-care everywhere) and real functions apart, at any width', () => {
+    for (const n of [1, 3, 5, 6, 9]) {
+      const names = Array.from({ length: n }, (_, i) => `x${i}`);
+      const all = Array.from({ length: 2 ** n }, (_, m) => m);
+      expect(constantValue(fromMinterms(names, [{ name: 'F', on: [] }]).outputs[0], n), `0 of ${n}`).toBe(0);
+      expect(constantValue(fromMinterms(names, [{ name: 'F', on: all }]).outputs[0], n), `1 of ${n}`).toBe(1);
+      expect(constantValue(fromMinterms(names, [{ name: 'F', on: all.slice(1), dc: [0] }]).outputs[0], n), `1 with a don't-care, ${n}`).toBe(1);
+      expect(constantValue(fromMinterms(names, [{ name: 'F', on: all.slice(1) }]).outputs[0], n), `all but one of ${n}`).toBeUndefined();
+    }
   });
 });

@@ -151,12 +151,15 @@ export function fullSet(n: number): Uint32Array {
 
 /** Care-set classification of one output: constant 0, constant 1, or a real function. */
 export function constantValue(o: OutputTable, n: number): 0 | 1 | undefined {
-  const all = fullSet(n);
+  // Every word is full but the only word of a table of fewer than 5 inputs (no mask allocated).
+  const full = n >= 5 ? 0xffffffff : 2 ** 2 ** n - 1;
+  const count = words(n);
   let anyOn = false;
   let allOnOrDc = true;
-  for (let w = 0; w < all.length; w++) {
+  for (let w = 0; w < count; w++) {
     if (o.on[w] !== 0) anyOn = true;
-    if (((o.on[w] | o.dc[w]) & all[w]) !== all[w]) allOnOrDc = false;
+    // Unsigned compare: a full word is 0xffffffff, not the -1 that & gives.
+    if ((((o.on[w] | o.dc[w]) & full) >>> 0) !== full) allOnOrDc = false;
   }
   if (!anyOn) return 0;
   if (allOnOrDc) return 1;

@@ -32,8 +32,14 @@ const CACHE_ENTRIES = 512;
  * of their inputs; a cover moved from one to the other is still checked before it is used.
  */
 function tableKey(out: OutputTable, n: number): string {
-  const bytes = (set: Uint32Array) => Buffer.from(set.buffer, set.byteOffset, set.byteLength).toString('latin1');
-  return `${n}:${bytes(out.on)}|${bytes(out.dc)}`;
+  // Two UTF-16 code units per word, in slices (one call per slice rather than a character each).
+  const chars = (set: Uint32Array) => {
+    const units = new Uint16Array(set.buffer, set.byteOffset, set.length * 2);
+    let text = '';
+    for (let at = 0; at < units.length; at += 4096) text += String.fromCharCode.apply(null, units.subarray(at, at + 4096) as unknown as number[]);
+    return text;
+  };
+  return `${n}:${chars(out.on)}|${chars(out.dc)}`;
 }
 
 /** A checked cover with its inputs in canonical order, and the input order of the table it was checked on. */
@@ -121,6 +127,7 @@ export function createEspressoMinimiser(options: PoolOptions & { pool?: Espresso
       else send.push({ key, w, item });
     }
     const replies = send.length ? await pool.runEach(send.map((x) => x.item), opts.timeoutMs) : [];
+    const remembered = new Map<Wanted, Remembered>();
     send.forEach(({ key, w }, i) => {
       const reply = replies[i];
       if (reply instanceof Error) {
@@ -130,9 +137,12 @@ export function createEspressoMinimiser(options: PoolOptions & { pool?: Espresso
       try {
         const r = accept(w.out, w.n, parseCubes(reply === '' ? [] : reply.split('\n'), w.n));
         w.answer = r;
+        const source = w.users[0].order;
+        const canonical = { cover: reorderCover(r.cover, w.n, source), order: source };
+        remembered.set(w, canonical);
         if (r.method === 'espresso') {
           if (cache.size >= CACHE_ENTRIES) cache.delete(cache.keys().next().value!);
-          cache.set(key, { cover: reorderCover(r.cover, w.n, w.users[0].order), order: w.users[0].order });
+          cache.set(key, canonical);
         }
       } catch (err) {
         w.answer = { error: err instanceof Error ? err : new Error(String(err)) };
@@ -141,8 +151,7 @@ export function createEspressoMinimiser(options: PoolOptions & { pool?: Espresso
     for (const w of wanted.values()) {
       const a = w.answer!;
       // The first user sent its own table; the others get the cover moved to their input order.
-      const source = w.users[0].order;
-      const canonical = 'error' in a ? undefined : { cover: reorderCover(a.cover, w.n, source), order: source };
+      const canonical = remembered.get(w);
       w.users.forEach((user, u) => {
         if (!canonical || 'error' in a || u === 0) {
           answers[user.f][user.k] = a;

@@ -52,8 +52,21 @@ function popcount32(x: number): number {
  * (A tie between inputs that differ only costs a repeated minimiser call, never a wrong cover.)
  */
 export function canonicalOrder(out: OutputTable, n: number): number[] {
-  const sig = Array.from({ length: n }, (_, i) => [countWithInput(out.on, n, i), countWithInput(out.dc, n, i)]);
-  return Array.from({ length: n }, (_, i) => i).sort((a, b) => sig[a][0] - sig[b][0] || sig[a][1] - sig[b][1] || a - b);
+  const on = new Array<number>(n);
+  const dc = new Array<number>(n);
+  const order = new Array<number>(n);
+  for (let i = 0; i < n; i++) {
+    on[i] = countWithInput(out.on, n, i);
+    dc[i] = countWithInput(out.dc, n, i);
+    // Insertion by (on, dc), later inputs after equal ones: a stable sort of at most 16.
+    let k = i;
+    while (k > 0 && (on[order[k - 1]] > on[i] || (on[order[k - 1]] === on[i] && dc[order[k - 1]] > dc[i]))) {
+      order[k] = order[k - 1];
+      k--;
+    }
+    order[k] = i;
+  }
+  return order;
 }
 
 /** Moves every minterm of a bitset to the order `from` (input k of the result is input from[k]). */

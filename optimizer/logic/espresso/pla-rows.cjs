@@ -7,6 +7,7 @@ const MAX_INPUTS = 16;
 const C0 = 48;
 const C1 = 49;
 const NL = 10;
+const LITTLE_ENDIAN = new Uint8Array(Uint32Array.of(1).buffer)[0] === 1;
 
 /**
  * The input digits of every minterm of an n-input table (n bytes per minterm, input 0 first),
@@ -30,7 +31,8 @@ function decodeWords(text, count, what) {
   const buf = Buffer.from(text, 'base64');
   if (buf.length !== count * 4) throw new Error(`the ${what} words are ${buf.length} bytes, expected ${count * 4}`);
   const words = new Uint32Array(count);
-  for (let w = 0; w < count; w++) words[w] = buf.readUInt32LE(w * 4);
+  if (LITTLE_ENDIAN) new Uint8Array(words.buffer).set(buf);
+  else for (let w = 0; w < count; w++) words[w] = buf.readUInt32LE(w * 4);
   return words;
 }
 

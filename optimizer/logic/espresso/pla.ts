@@ -2,7 +2,7 @@
 // (validated by a single pass over its characters: the native code exits on malformed input), or
 // as the output's checked table words from which the child writes the same rows; parsed on return.
 import { InternalError } from '../../errors';
-import { type Cover, cubeFromString } from '../cubes';
+import type { Cover } from '../cubes';
 import { popcount, words, type OutputTable } from '../truth-table';
 
 /** Largest input count sent to Espresso (2^16 rows of minterms at most). */
@@ -111,15 +111,37 @@ export function plaProblem(lines: string[]): string | undefined {
   return plaTextProblem(lines.join('\n'));
 }
 
-/** Parses Espresso's single-output cube lines ("1-0 1") into a cover. */
+/**
+ * Parses Espresso's single-output cube lines ("1-0 1") into a cover, one pass over the character
+ * codes of each line (surrounding blanks allowed, nothing else).
+ */
 export function parseCubes(lines: string[], n: number): Cover {
-  const row = new RegExp(`^([01-]{${n}}) 1$`);
-  return lines.map((line) => {
-    const m = row.exec(line.trim());
-    if (!m) throw new InternalError(`unexpected line from the minimiser: "${line.slice(0, 60)}"`);
-    return cubeFromString(m[1], n);
-  });
+  const cover: Cover = new Array(lines.length);
+  for (let k = 0; k < lines.length; k++) {
+    const line = lines[k];
+    let at = 0;
+    let end = line.length;
+    while (at < end && isBlank(line.charCodeAt(at))) at++;
+    while (end > at && isBlank(line.charCodeAt(end - 1))) end--;
+    let ok = end - at === n + 2 && line.charCodeAt(at + n) === SPACE && line.charCodeAt(at + n + 1) === C1;
+    let care = 0;
+    let value = 0;
+    for (let i = 0; ok && i < n; i++) {
+      const c = line.charCodeAt(at + i);
+      const bit = 1 << (n - 1 - i);
+      if (c === C1) {
+        care |= bit;
+        value |= bit;
+      } else if (c === C0) care |= bit;
+      else ok = c === DASH;
+    }
+    if (!ok) throw new InternalError(`unexpected line from the minimiser: "${line.slice(0, 60)}"`);
+    cover[k] = { care, value };
+  }
+  return cover;
 }
+
+const isBlank = (c: number) => c === SPACE || c === 9 || c === NL || c === 13;
 
 /** One output as the child takes it: input count and the on-set and don't-care words (base64, little-endian). */
 export interface TablePayload {
@@ -128,7 +150,10 @@ export interface TablePayload {
   dc: string;
 }
 
+const LITTLE_ENDIAN = new Uint8Array(Uint32Array.of(1).buffer)[0] === 1;
+
 const wordsBase64 = (set: Uint32Array): string => {
+  if (LITTLE_ENDIAN) return Buffer.from(set.buffer, set.byteOffset, set.byteLength).toString('base64');
   const buf = Buffer.allocUnsafe(set.length * 4);
   for (let w = 0; w < set.length; w++) buf.writeUInt32LE(set[w], w * 4);
   return buf.toString('base64');
