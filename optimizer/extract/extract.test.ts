@@ -5,6 +5,8 @@ import { netlist } from '../netlist/build';
 import { evaluate } from '../logic/expr';
 import { nodeNamed, sameFunction } from './test-helpers';
 import { extractLogic } from './index';
+import { BaseResolver } from './bipolar';
+import { makeContext } from './context';
 import type { LogicView } from './types';
 
 const node = nodeNamed;
@@ -247,5 +249,52 @@ describe('gate-level designs', () => {
     expect(bus.kind).toBe('tristate');
     expect(sameFunction(bus.enable!, 'E1 | E2')).toBe(true);
     expect(view.family).toBe('gate');
+  });
+});
+
+describe('base drives read once (BaseResolver.transient)', () => {
+  it('gives what the cached drive gives, for resistor-summed and DTL diode bases, and keeps nothing', () => {
+    const nl = netlist()
+      .rail('VCC', 5)
+      // RTL: two base resistors into one base (resistor-summed OR)
+      .resistor('RA', 'A', 'B1', 450)
+      .resistor('RB', 'B', 'B1', 450)
+      .npn('Q1', 'Y', 'B1', '0')
+      .resistor('RC', 'VCC', 'Y', 640)
+      // DTL: input diodes to a pulled-up node, level shift to the base, bleed to ground
+      .resistor('RP', 'VCC', 'P', 2e3)
+      .diode('DA', 'P', 'C')
+      .diode('DB', 'P', 'D')
+      .diode('DS', 'P', 'BASE')
+      .resistor('RBL', 'BASE', '0', 5e3)
+      .npn('Q2', 'Z', 'BASE', '0')
+      .resistor('RC2', 'VCC', 'Z', 2e3)
+      .build();
+    const q1 = nl.devices.findIndex((d) => d.name === 'Q1');
+    const q2 = nl.devices.findIndex((d) => d.name === 'Q2');
+    const once = new BaseResolver(makeContext(nl));
+    const names = (devs: number[]) => devs.map((d) => nl.devices[d].name).sort();
+    // read each transient drive before asking for the next one: its lists are shared scratch
+    const t1 = once.transient(q1);
+    const seen1 = { kind: t1.kind, on: t1.on, inputs: [...t1.inputs], devices: names(t1.devices) };
+    const t2 = once.transient(q2);
+    const seen2 = { kind: t2.kind, on: t2.on, inputs: [...t2.inputs], devices: names(t2.devices) };
+    const kept = new BaseResolver(makeContext(nl));
+    for (const [seen, q] of [
+      [seen1, q1],
+      [seen2, q2],
+    ] as const) {
+      const d = kept.drive(q);
+      expect(seen).toEqual({ kind: d.kind, on: d.on, inputs: d.inputs, devices: names(d.devices) });
+    }
+    expect(seen1.kind).toBe('resistor-sum');
+    expect(sameFunction(seen1.on, 'A | B')).toBe(true);
+    expect(seen2.kind).toBe('diode-and');
+    expect(sameFunction(seen2.on, 'C & D')).toBe(true);
+    expect(seen2.devices).toEqual(['DA', 'DB', 'DS', 'RBL', 'RP']);
+    // nothing was kept: a later read resolves afresh into the same shared scratch lists
+    const again = once.transient(q1);
+    expect(again.devices).toBe(t2.devices);
+    expect(names(again.devices)).toEqual(['RA', 'RB']);
   });
 });
