@@ -16,6 +16,7 @@ import { applyProposals } from '../rewrite/apply';
 import { checkEquivalence, type EquivResult } from '../verify/equivalence';
 import { indexOf, regionOf } from './region';
 import { simulationCheck } from './sim-check';
+import { devicesOnTouchedNodes } from './touched-nodes';
 import { runRules, type OverlapGraph, type RuleErrorRecord, type RunOptions } from './run-rules';
 import type { Assumption, Finding, Proposal } from './types';
 
@@ -117,6 +118,9 @@ function changedNets(nl: FlatNetlist, view: LogicView, p: Proposal): string[] {
     const id = nl.netByName.get(m.remove);
     if (id !== undefined) for (let k = onNetStart[id]; k < onNetStart[id + 1]; k++) hit.add(onNetList[k]);
   }
+  // Internal nodes the edit joins or leaves (a kept emitter node other stacks now share) change
+  // every group on them, so the driven outputs of those groups are compared too.
+  for (const d of devicesOnTouchedNodes(nl, view, p.edit)) hit.add(d);
   const owners = ownersOf(view, nl.devices.length);
   for (const d of hit) {
     if (d < owners.first.length && owners.first[d] >= 0) names.add(view.nodes[owners.first[d]].name);
