@@ -1,5 +1,6 @@
 // shared-enable-switch: valid cases (no finding) and invalid ones (message id, data, part delta),
 // RTL and NMOS stacks, the split into the fewest switches, the sneak-path refusal, the doc examples.
+import { readFileSync } from 'node:fs';
 import path from 'node:path';
 import { describe, expect, it } from 'vitest';
 import { extractLogic } from '../extract';
@@ -7,9 +8,11 @@ import { exprToString } from '../logic/expr';
 import { NetlistBuilder } from '../netlist/build';
 import type { FlatNetlist } from '../netlist/ir';
 import { applyProposals } from '../rewrite/apply';
+import { simulate } from '../verify/switch-sim';
+import { verifyProposal } from './scan';
 import { sharedEnableSwitch } from './shared-enable-switch';
-import { checkDeckExample, countDelta, deckExamples, deckNetlist, runOne } from './support/rule-test-kit';
-import type { Rule } from './types';
+import { checkDeckExample, countDelta, deckExamples, deckNetlist, runOne, scanOne } from './support/rule-test-kit';
+import { emptyEdit, type Edit, type Proposal, type Rule } from './types';
 
 const rule = sharedEnableSwitch as unknown as Rule;
 
@@ -133,4 +136,85 @@ describe('shared-enable-switch: doc examples', () => {
   const examples = deckExamples(path.join(__dirname, 'shared-enable-switch.md'));
   it('has examples', () => expect(examples.length).toBeGreaterThanOrEqual(2));
   it.each(examples.map((e) => [e.label, e] as const))('%s', (_l, ex) => checkDeckExample(rule, ex));
+  it('scans as the doc says: the first proved and ready, the second proved but failing its sneak paths', async () => {
+    const verdicts = [];
+    for (const ex of examples.slice(0, 2)) {
+      const p = (await scanOne(rule, deckNetlist(ex.deck))).findings[0].proposals[0];
+      verdicts.push([p.verification.status, p.verdict]);
+    }
+    expect(verdicts).toEqual([
+      ['proved', 'ready'],
+      ['proved', 'failing-margins'],
+    ]);
+  });
+});
+
+/** Nets whose switch-level values, both definite, differ between the two designs on one vector. */
+function distinguishing(before: FlatNetlist, after: FlatNetlist, vector: Record<string, 0 | 1>, nets: string[]): string[] {
+  const stimulus = { kind: 'vectors' as const, vectors: [vector] };
+  const b = simulate(before, stimulus, { watch: nets }).waveforms;
+  const a = simulate(after, stimulus, { watch: nets }).waveforms;
+  return nets.filter((n) => (b[n][0] === 0 || b[n][0] === 1) && (a[n][0] === 0 || a[n][0] === 1) && b[n][0] !== a[n][0]);
+}
+
+const proposalOf = (edit: Edit): Proposal => ({ id: 'p', title: 'hand-made shared switch', edit, assumptions: [], margins: [] });
+
+/** The rule's own edit shape: every other stack's QE and RE removed, its N joined to XO0.N. */
+function shareByHand(others: number[]): Edit {
+  const edit = emptyEdit();
+  for (const k of others) {
+    edit.removeDevices.push(`XO${k}.QE`, `XO${k}.RE`);
+    edit.mergeNets.push({ keep: 'XO0.N', remove: `XO${k}.N` });
+  }
+  return edit;
+}
+
+describe('shared-enable-switch: scan verification', () => {
+  it('joined emitter nodes: every stack on them is compared and simulated, and the shared switch is proved', async () => {
+    const nl = rtlStacks(4);
+    const r = await scanOne(rule, nl);
+    const p = r.findings[0].proposals[0];
+    expect(p.verification.status).toBe('proved');
+    // the kept stack (XO0) changes too: its emitter node now carries the other three
+    expect(p.verification.compared).toEqual(['XO0.Y', 'XO1.Y', 'XO2.Y', 'XO3.Y']);
+    // D0..D3 and EN, every combination, before and after
+    expect(p.verification.simulatedVectors).toBe(32);
+    expect(p.verdict).toBe('ready');
+  });
+
+  it('the Wren-8 output port demo is proved and ready', async () => {
+    const file = path.join(__dirname, '../../server/db/demo/wren8-output-port.cir');
+    const nl = deckNetlist(readFileSync(file, 'utf8'), file);
+    const p = (await scanOne(rule, nl)).findings[0].proposals[0];
+    expect(p.verification).toMatchObject({ status: 'proved', compared: ['Y0', 'Y1', 'Y2', 'Y3'] });
+    expect(p.verdict).toBe('ready');
+  });
+
+  it('a shared switch on stacks with different enables is refuted by a vector that tells the designs apart', () => {
+    const nl = rtlStacks(2, { enable: (k) => `EN${k}` });
+    const p = proposalOf(shareByHand([1]));
+    const v = verifyProposal({ nl, view: extractLogic(nl) }, p, []);
+    expect(v.status).toBe('refuted');
+    const cex = v.counterexample!;
+    // bit 1 now switched by EN0: only a vector with D1 on and the enables apart shows it
+    expect(cex.D1).toBe(1);
+    expect(cex.EN0).not.toBe(cex.EN1);
+    expect(v.differing!.map((d) => d.name)).toEqual(['XO1.Y']);
+    expect(distinguishing(nl, applyProposals(nl, [p]), cex, ['XO0.Y', 'XO1.Y'])).toEqual(['XO1.Y']);
+  });
+
+  it("a data transistor's collector tied to another bit's line is refuted by a vector that tells the designs apart", () => {
+    const nl = rtlStacks(3);
+    const edit = shareByHand([1, 2]);
+    edit.reconnect.push({ device: 'XO1.QD', terminal: 0, net: 'XO0.Y' });
+    const p = proposalOf(edit);
+    const v = verifyProposal({ nl, view: extractLogic(nl) }, p, []);
+    expect(v.status).toBe('refuted');
+    const cex = v.counterexample!;
+    const nets = ['XO0.Y', 'XO1.Y', 'XO2.Y'];
+    const seen = distinguishing(nl, applyProposals(nl, [p]), cex, nets);
+    expect(seen).toContain(v.differing![0].name);
+    // bit 0's line is pulled low by bit 1's data now: D1 and EN on, D0 off
+    expect(cex).toMatchObject({ D0: 0, D1: 1, EN: 1 });
+  });
 });
