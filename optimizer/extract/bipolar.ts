@@ -232,11 +232,41 @@ export class BaseResolver {
           count++;
         }
       });
+      if (count === 0) return this.coupledFrom(p, shift, drive);
       if (count !== 1 || up === base) return undefined;
       shift.push(up);
       p = cx.nl.devices[up].terminals[0];
     }
     return undefined;
+  }
+
+  /**
+   * Diode-coupled base: level-shift diode(s) straight from a net with no pull-up of its own
+   * (another stage's output, an input), or from a lone series resistor off one. The base turns on
+   * when that signal is high, so the signal is the input; the base net itself, read as the
+   * variable, would leave an enable stack's base a free input of every proof.
+   */
+  private coupledFrom(p: number, shift: number[], drive: BaseDrive): Expr {
+    const cx = this.cx;
+    const top = shift[shift.length - 1];
+    let resistor = -1;
+    let others = 0;
+    eachTerminal(cx, p, (d) => {
+      if (d === top) return;
+      if (cx.nl.devices[d].kind === 'resistor' && resistor < 0 && !isRail(cx, otherEnd(cx, d, cx.nl.devices[d].terminals[0] === p ? 0 : 1))) resistor = d;
+      else others++;
+    });
+    let input = p;
+    drive.levelShiftDiodes = [...drive.levelShiftDiodes, ...shift];
+    drive.devices.push(...shift);
+    if (resistor >= 0 && others === 0) {
+      const r = cx.nl.devices[resistor];
+      input = otherEnd(cx, resistor, r.terminals[0] === p ? 0 : 1);
+      drive.baseResistors.push({ device: resistor, ohms: r.value, from: input });
+      drive.devices.push(resistor);
+    }
+    drive.inputs.push(input);
+    return varOf(cx, input);
   }
 }
 
