@@ -9,7 +9,7 @@ import { NetlistBuilder } from '../netlist/build';
 import type { FlatNetlist } from '../netlist/ir';
 import { applyProposals } from '../rewrite/apply';
 import { simulate } from '../verify/switch-sim';
-import { verifyProposal } from './scan';
+import { scan, verifyProposal } from './scan';
 import { sharedEnableSwitch } from './shared-enable-switch';
 import { checkDeckExample, countDelta, deckExamples, deckNetlist, runOne, scanOne } from './support/rule-test-kit';
 import { emptyEdit, type Edit, type Proposal, type Rule } from './types';
@@ -216,5 +216,74 @@ describe('shared-enable-switch: scan verification', () => {
     expect(seen).toContain(v.differing![0].name);
     // bit 0's line is pulled low by bit 1's data now: D1 and EN on, D0 off
     expect(cex).toMatchObject({ D0: 0, D1: 1, EN: 1 });
+  });
+});
+
+/** Three bits of an NMOS read port: VDD ─47k─ SBk ─ MR(Zk) ─ N ─ ME(RDF) ─ 0. */
+const NMOS_READ = `Wren-8 NMOS read port
+.global VDD
+VDD VDD 0 DC 5
+.subckt RBIT Z RDF SB
+RL VDD SB 47k
+MR SB Z N 0 NM
+ME N RDF 0 0 NM
+.ends RBIT
+XR0 Z0 RDF SB0 RBIT
+XR1 Z1 RDF SB1 RBIT
+XR2 Z2 RDF SB2 RBIT
+.model NM NMOS (VTO=1 KP=2e-5)
+.end
+`;
+
+/** Three DTL bus bits; the enable transistor's base network (from EN to BE) as given. */
+const DTL_BASES = {
+  gate: 'RP VCC P 2k\nDI P EN DN\nDL1 P M DN\nDL2 M BE DN',
+  diode: 'DB EN BE DN',
+  resistorDiode: 'RE EN X 2.2k\nDB X BE DN',
+};
+function dtlBus(base: string): string {
+  return `Wren-8 DTL bus bits
+.global VCC
+VCC VCC 0 DC 5
+.subckt OBIT D EN Y
+RC VCC Y 2k
+RD D BD 4.7k
+QD Y BD N QN
+${base}
+RB BE 0 5k
+QE N BE 0 QN
+.ends OBIT
+XO0 D0 BUSEN Y0 OBIT
+XO1 D1 BUSEN Y1 OBIT
+XO2 D2 BUSEN Y2 OBIT
+.model QN NPN (IS=1e-14 BF=100)
+.model DN D (IS=1e-14)
+.end
+`;
+}
+
+describe('shared-enable-switch: internal nets of enable stacks stay internal', () => {
+  it.each([
+    ['NMOS stacks with 47k loads', NMOS_READ, 'SB', 'Z', 'RDF', 'nmos'],
+    ['DTL bits, enable base from a diode gate (input diode, two level-shift diodes)', dtlBus(DTL_BASES.gate), 'Y', 'D', 'BUSEN', 'dtl'],
+    ['DTL bits, enable base through a level-shift diode', dtlBus(DTL_BASES.diode), 'Y', 'D', 'BUSEN', 'dtl'],
+    ['DTL bits, enable base through a resistor and a diode', dtlBus(DTL_BASES.resistorDiode), 'Y', 'D', 'BUSEN', 'dtl'],
+  ])('%s: each output is NOT(data AND enable), and every proposal of a full scan is proved', async (_l, deck, out, data, enable, family) => {
+    const nl = deckNetlist(deck);
+    const view = extractLogic(nl);
+    // only the real inputs: no stack middle node, no diode-fed base
+    expect(view.inputs).toEqual([enable, `${data}0`, `${data}1`, `${data}2`].sort());
+    for (let k = 0; k < 3; k++) {
+      const node = view.nodes.find((n) => n.name === `${out}${k}`)!;
+      expect(exprToString(node.fn)).toBe(`!(${data}${k} & ${enable})`);
+      expect(node.family).toBe(family);
+    }
+    const r = await scan(nl, { view });
+    const shared = r.findings.filter((f) => f.finding.ruleId === 'shared-enable-switch');
+    expect(shared).toHaveLength(1);
+    const p = shared[0].proposals[0];
+    expect(p.verification).toMatchObject({ status: 'proved', compared: [0, 1, 2].map((k) => `${out}${k}`) });
+    expect(p.verdict).toBe('ready');
+    for (const f of r.findings) for (const q of f.proposals) expect([f.finding.ruleId, q.verification.status]).toEqual([f.finding.ruleId, 'proved']);
   });
 });
