@@ -45,11 +45,17 @@ export function grow(a: Int32Array) {
 }
 
 
-/** The same lists under new keys: list k becomes list newKey[k] (newKey a permutation). */
-export function permute(c: Csr, newKey: Int32Array): Csr {
+/**
+ * The same lists under new keys: list k becomes list newKey[k] (newKey a permutation). A caller
+ * that already holds the inverse (oldKey[newKey[k]] = k) passes it, sparing a key-sized array.
+ */
+export function permute(c: Csr, newKey: Int32Array, inverse?: Int32Array): Csr {
   const n = newKey.length;
-  const oldKey = new Int32Array(n);
-  for (let k = 0; k < n; k++) oldKey[newKey[k]] = k;
+  let oldKey = inverse;
+  if (!oldKey) {
+    oldKey = new Int32Array(n);
+    for (let k = 0; k < n; k++) oldKey[newKey[k]] = k;
+  }
   const off = new Int32Array(n + 1);
   const list = new Int32Array(c.list.length);
   let at = 0;

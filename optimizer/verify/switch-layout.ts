@@ -137,8 +137,8 @@ export function layOut(t: BuiltTables): LaidOutTables {
     groupNetOff: groupNets.off,
     groupEdgeOff: groupEdges.off,
     edgesAt,
-    readers: permute(t.readers, netPos),
-    gateReaders: permute(t.gateReaders, netPos),
+    readers: permute(t.readers, netPos, netAt),
+    gateReaders: permute(t.gateReaders, netPos, netAt),
     railVal,
     isInput,
   };

@@ -210,6 +210,9 @@ export function buildSwitchModel(nl: FlatNetlist, inputNames: string[]): SwitchM
         compile(drive.on);
         emit(OP_END, 0);
       }
+      // the inputs' shared variable nodes are not needed again: dropped, they die young instead
+      // of a million of them being promoted into a heap that may already hold the netlist
+      for (const n of drive.inputs) cx.vars[n] = undefined;
     }
   }
   driveInputs = [];
@@ -360,6 +363,8 @@ export function buildSwitchModel(nl: FlatNetlist, inputNames: string[]): SwitchM
   const order = rankGroups(groupCount, oldNets, oldReaders);
   for (let n = 0; n < nNets; n++) if (groupOf[n] >= 0) groupOf[n] = order[groupOf[n]];
   for (let i = 0; i < oldReaders.list.length; i++) oldReaders.list[i] = order[oldReaders.list[i]];
+  const byRank = new Int32Array(groupCount);
+  for (let g = 0; g < groupCount; g++) byRank[order[g]] = g;
   const laid = layOut({
     nNets,
     edgeDevice,
@@ -372,14 +377,14 @@ export function buildSwitchModel(nl: FlatNetlist, inputNames: string[]): SwitchM
     programAt,
     code: code.subarray(0, codeLen),
     groupOf,
-    groupNets: permute(oldNets, order),
-    groupEdges: permute(edgePairs.toCsr(groupCount), order),
+    groupNets: permute(oldNets, order, byRank),
+    groupEdges: permute(edgePairs.toCsr(groupCount), order, byRank),
     readers: oldReaders,
     gateReaders: gateReaderPairs.toCsr(nNets),
     railVal,
     isInput,
   });
-  return { nl, ...laid, groupCount, groupGates: permute(gatePairs.toCsr(groupCount), order), gates, railValue, netIdsOf };
+  return { nl, ...laid, groupCount, groupGates: permute(gatePairs.toCsr(groupCount), order, byRank), gates, railValue, netIdsOf };
 }
 
 /** A control expression with net names resolved to ids once, evaluated in three values. */
