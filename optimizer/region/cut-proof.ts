@@ -141,12 +141,14 @@ export function cutProof(before: { nl: FlatNetlist; view: LogicView }, after: Fl
   const readAfter = (name: string | undefined) => name !== undefined && (keptReads(name) > 0 || afterReads.has(name));
 
   // The nets compared, exactly as the whole-design proof chooses them.
+  // (A net merged away still names the kept net, which carries its loads now.)
+  const mergedAway = new Set(edit.mergeNets.filter((m) => after.netByName.has(m.remove)).map((m) => m.remove));
   const compared: string[] = [];
   for (const n of changed) {
     const id = nl.netByName.get(n);
     if (id === undefined || !view.nodeByNet.has(id)) continue;
     const aid = after.netByName.get(n);
-    if (drivenAfter(aid) || readAfter(after.nets[aid ?? 0]?.name)) compared.push(n);
+    if (mergedAway.has(n) || drivenAfter(aid) || readAfter(after.nets[aid ?? 0]?.name)) compared.push(n);
   }
   if (compared.length === 0) return { reason: 'nothing to compare' };
   const bNames = compared.map((n) => nl.nets[nl.netByName.get(n)!].name);

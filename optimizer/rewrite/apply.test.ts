@@ -114,4 +114,24 @@ describe('flatToDesign', () => {
     expect(shared.devices.find((d) => d.name === 'XS0.RB')).not.toBe(nl.devices.find((d) => d.name === 'XS0.RB'));
     expect(nl.devices).toHaveLength(13);
   });
+
+  it('names the shared copy\'s nets like a whole map of them: look-ups, iteration, size and changes', () => {
+    const nl = sliceInverters(4);
+    const p = shareDriver();
+    p.edit.addDevices.push({ name: 'RX', kind: 'resistor', terminals: ['XS0.LDN', 'SPARE'], value: 1000 });
+    const shared = applyProposals(nl, [p], { share: true });
+    // What a map filled net by net (then the added names) holds.
+    const expected = new Map<string, number>();
+    for (const n of nl.nets) expected.set(n.name, shared.netByName.get(n.name)!);
+    expected.set('SPARE', shared.nets.length - 1);
+    expect(shared.nets[expected.get('SPARE')!].name).toBe('SPARE');
+    expect(shared.netByName.get('XS1.LDN')).toBe(shared.netByName.get('XS0.LDN'));
+    expect(shared.netByName.has('NO-SUCH-NET')).toBe(false);
+    expect(shared.netByName.get('NO-SUCH-NET')).toBeUndefined();
+    expect(shared.netByName.size).toBe(expected.size);
+    expect(new Map(shared.netByName)).toEqual(expected);
+    shared.netByName.delete('SPARE');
+    expect(shared.netByName.has('SPARE')).toBe(false);
+    expect(shared.netByName.size).toBe(expected.size - 1);
+  });
 });

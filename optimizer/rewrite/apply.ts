@@ -7,7 +7,8 @@ import { editProblems, overlapOf, touched } from './edits';
 
 /** Refuses proposals that overlap, naming the pair and what they share. */
 export function assertNoOverlap(proposals: Proposal[]): void {
-  const sets = proposals.map((p) => touched(p.edit));
+  // One proposal overlaps nothing: its touched sets (a design-wide edit's are large) are not built.
+  const sets = proposals.length > 1 ? proposals.map((p) => touched(p.edit)) : [];
   const clashes: string[] = [];
   for (let i = 0; i < proposals.length; i++) {
     for (let j = i + 1; j < proposals.length; j++) {
@@ -23,6 +24,72 @@ export function assertNoOverlap(proposals: Proposal[]): void {
   for (const p of proposals) {
     if (ids.has(p.id)) throw InputError.at('apply.duplicate', `${p.id} is listed twice`);
     ids.add(p.id);
+  }
+}
+
+/**
+ * The shared copy's names: every net of the input under its own name, leading to its net after the
+ * merges, and the names the edit adds. Read through the input's index rather than copied: a large
+ * board's proof would otherwise build a second map of every net name. Iterating builds it whole.
+ */
+class SharedNames extends Map<string, number> {
+  private whole?: Map<string, number>;
+  constructor(
+    private readonly input: FlatNetlist,
+    private readonly find: (id: number) => number,
+  ) {
+    super();
+  }
+  /** The input's net of this name, when it is that net's own name (not an alias the input keeps). */
+  private old(name: string): number | undefined {
+    const id = this.input.netByName.get(name);
+    return id !== undefined && this.input.nets[id]?.name === name ? this.find(id) : undefined;
+  }
+  // Until something iterates, deletes or clears, look-ups go to the input; from then on, to the whole copy.
+  override get(name: string): number | undefined {
+    return this.whole ? this.whole.get(name) : (super.get(name) ?? this.old(name));
+  }
+  override has(name: string): boolean {
+    return this.whole ? this.whole.has(name) : super.has(name) || this.old(name) !== undefined;
+  }
+  override set(name: string, id: number): this {
+    this.whole?.set(name, id);
+    return super.set(name, id);
+  }
+  override delete(name: string): boolean {
+    super.delete(name);
+    return this.all().delete(name);
+  }
+  override clear(): void {
+    super.clear();
+    this.all().clear();
+  }
+  private all(): Map<string, number> {
+    if (!this.whole) {
+      const m = new Map<string, number>();
+      for (const n of this.input.nets) m.set(n.name, this.find(n.id));
+      for (const [k, v] of super.entries()) m.set(k, v);
+      this.whole = m;
+    }
+    return this.whole;
+  }
+  override get size(): number {
+    return this.all().size;
+  }
+  override entries() {
+    return this.all().entries();
+  }
+  override keys() {
+    return this.all().keys();
+  }
+  override values() {
+    return this.all().values();
+  }
+  override [Symbol.iterator]() {
+    return this.all()[Symbol.iterator]();
+  }
+  override forEach(f: (value: number, key: string, map: Map<string, number>) => void, thisArg?: unknown): void {
+    this.all().forEach((value, key) => f.call(thisArg, value, key, this));
   }
 }
 
@@ -62,9 +129,8 @@ export function applyProposals(nl: FlatNetlist, proposals: Proposal[], options: 
   const share = options.share === true;
   const nets: FlatNet[] = share ? [...nl.nets] : [];
   const newId = new Map<number, number>();
-  const netByName = new Map<string, number>();
-  if (share) for (const n of nl.nets) netByName.set(n.name, find(n.id));
-  else {
+  const netByName = share ? new SharedNames(nl, find) : new Map<string, number>();
+  if (!share) {
     for (const n of nl.nets) {
       if (find(n.id) !== n.id) continue;
       newId.set(n.id, nets.length);

@@ -1,15 +1,41 @@
 // Checks an edit against the netlist it targets and lists what it touches, so rules that break
 // their contract are caught before anything is applied and overlapping proposals can be found.
 import { TERMINAL_NAMES, type DeviceKind, type FlatNetlist } from '../netlist/ir';
+import { NameTable } from '../netlist/name-table';
 import type { Edit } from '../rules/types';
 
-const indexCache = new WeakMap<FlatNetlist, Map<string, number>>();
+/** Look-ups by name, as a Map's get and has. */
+export interface NameIndex {
+  get(name: string): number | undefined;
+  has(name: string): boolean;
+}
+
+/** Device names numbered in a typed-array table: a million-device Map is slow to build and heavy. */
+class DeviceNames implements NameIndex {
+  constructor(
+    private readonly table: NameTable,
+    /** Device index by name number (the last device of a repeated name, as a Map built in order). */
+    private readonly at: Int32Array,
+  ) {}
+  get(name: string): number | undefined {
+    const id = this.table.get(name);
+    return id < 0 ? undefined : this.at[id];
+  }
+  has(name: string): boolean {
+    return this.table.get(name) >= 0;
+  }
+}
+
+const indexCache = new WeakMap<FlatNetlist, NameIndex>();
 
 /** Device index by name, built once per netlist (rules check thousands of edits on one design). */
-export function deviceIndex(nl: FlatNetlist): Map<string, number> {
+export function deviceIndex(nl: FlatNetlist): NameIndex {
   let m = indexCache.get(nl);
   if (!m) {
-    m = new Map(nl.devices.map((d, i) => [d.name, i]));
+    const table = new NameTable();
+    const at = new Int32Array(nl.devices.length);
+    for (let i = 0; i < nl.devices.length; i++) at[table.add(nl.devices[i].name)] = i;
+    m = new DeviceNames(table, at);
     indexCache.set(nl, m);
   }
   return m;

@@ -3,12 +3,12 @@
 // and simulations then cost the size of the region, not of the whole board.
 import type { LogicView } from '../extract/types';
 import type { FlatDevice, FlatNet, FlatNetlist } from '../netlist/ir';
-import { deviceIndex } from '../rewrite/edits';
+import { deviceIndex, type NameIndex } from '../rewrite/edits';
 import type { Edit } from './types';
 
 /** Device index by name, the sources, and the devices on each net (compressed rows: one typed list). */
 export interface DesignIndex {
-  byName: Map<string, number>;
+  byName: NameIndex;
   sources: number[];
   /** Devices on net n: onNetList[onNetStart[n] … onNetStart[n + 1]), each once, in design order. */
   onNetStart: Int32Array;

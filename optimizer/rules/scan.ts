@@ -105,32 +105,53 @@ function ownersOf(view: LogicView, deviceCount: number): Owners {
  * the kept one, so the groups holding those devices change too.
  */
 function changedNets(nl: FlatNetlist, view: LogicView, p: Proposal): string[] {
-  const names = new Set<string>();
+  // Nets gathered by id and devices by index (numbers, not names): a design-wide edit names
+  // hundreds of thousands of each, and a one-slice edit must not cost the design's size.
+  const netIds = new Set<number>();
+  const markNet = (id: number) => netIds.add(id);
+  const others = new Set<string>();
   const { byName: index, onNetStart, onNetList } = indexOf(nl);
   const hit = new Set<number>();
-  for (const name of [...p.edit.removeDevices, ...p.edit.reconnect.map((r) => r.device)]) {
-    const i = index.get(name);
-    if (i === undefined) continue;
-    hit.add(i);
-    for (const t of nl.devices[i].terminals) names.add(nl.nets[t].name);
+  const hitDevice = (i: number) => hit.add(i);
+  const byName = (name: string) => {
+    const id = nl.netByName.get(name);
+    if (id !== undefined && nl.nets[id].name === name) markNet(id);
+    else others.add(name);
+  };
+  for (const list of [p.edit.removeDevices, p.edit.reconnect.map((r) => r.device)]) {
+    for (const name of list) {
+      const i = index.get(name);
+      if (i === undefined) continue;
+      hitDevice(i);
+      for (const t of nl.devices[i].terminals) markNet(t);
+    }
   }
   for (const m of p.edit.mergeNets) {
     const id = nl.netByName.get(m.remove);
-    if (id !== undefined) for (let k = onNetStart[id]; k < onNetStart[id + 1]; k++) hit.add(onNetList[k]);
+    if (id !== undefined) for (let k = onNetStart[id]; k < onNetStart[id + 1]; k++) hitDevice(onNetList[k]);
   }
   // Internal nodes the edit joins or leaves (a kept emitter node other stacks now share) change
   // every group on them, so the driven outputs of those groups are compared too.
-  for (const d of devicesOnTouchedNodes(nl, view, p.edit)) hit.add(d);
+  for (const d of devicesOnTouchedNodes(nl, view, p.edit)) hitDevice(d);
   const owners = ownersOf(view, nl.devices.length);
+  const nodeName = (i: number) => byName(view.nodes[i].name);
   for (const d of hit) {
-    if (d < owners.first.length && owners.first[d] >= 0) names.add(view.nodes[owners.first[d]].name);
-    for (const i of owners.more.get(d) ?? []) names.add(view.nodes[i].name);
+    if (d < owners.first.length && owners.first[d] >= 0) nodeName(owners.first[d]);
+    for (const i of owners.more.get(d) ?? []) nodeName(i);
   }
-  for (const r of p.edit.reconnect) names.add(r.net);
-  for (const d of p.edit.addDevices) for (const t of d.terminals) names.add(t);
-  for (const m of p.edit.mergeNets) names.add(m.keep).add(m.remove);
+  for (const r of p.edit.reconnect) byName(r.net);
+  for (const d of p.edit.addDevices) for (const t of d.terminals) byName(t);
+  for (const m of p.edit.mergeNets) {
+    byName(m.keep);
+    byName(m.remove);
+  }
   const rails = new Set(nl.rails.map((r) => nl.nets[r.net].name));
-  return [...names].filter((n) => !rails.has(n)).sort();
+  const names: string[] = [];
+  for (const id of netIds) if (!rails.has(nl.nets[id].name)) names.push(nl.nets[id].name);
+  for (const n of others) if (!rails.has(n)) names.push(n);
+  names.sort();
+  // Two nets of one name (or a name also met as text) count once, as in a set of names.
+  return names.filter((n, k) => k === 0 || n !== names[k - 1]);
 }
 
 const NOTHING_DRIVEN = 'the rewrite changes no driven net the extractor can see';
