@@ -146,13 +146,12 @@ export function buildSwitchModel(nl: FlatNetlist, inputNames: string[]): SwitchM
   const railVolts = cx.railVolts;
   const isSource = (n: number) => isInput[n] === 1 || !Number.isNaN(railVolts[n]);
 
-  // Each transistor's base drive is resolved once and compiled on the spot into `code`; only the
-  // program's start (per device, until edges are numbered) and the base-network marks are kept.
+  // Each transistor's base drive is resolved once and compiled on the spot into `code`, in device
+  // order (the edges below meet the programs in the same order); the base-network marks are kept.
   const bases = new BaseResolver(cx);
   const nDev = nl.devices.length;
   const baseNet = new Uint8Array(nNets);
   const inBaseNetwork = new Uint8Array(nDev);
-  const programOfDevice = new Int32Array(nDev).fill(-1);
   const gates: number[] = [];
   let npnCount = 0;
   for (let i = 0; i < nDev; i++) if (nl.devices[i].kind === 'npn') npnCount++;
@@ -205,7 +204,6 @@ export function buildSwitchModel(nl: FlatNetlist, inputNames: string[]): SwitchM
       for (const x of drive.devices) inBaseNetwork[x] = 1;
       baseNet[d.terminals[1]] = 1;
       if (d.kind === 'npn') {
-        programOfDevice[i] = codeLen;
         driveInputs = drive.inputs;
         compile(drive.on);
         emit(OP_END, 0);
@@ -249,6 +247,7 @@ export function buildSwitchModel(nl: FlatNetlist, inputNames: string[]): SwitchM
   const edgeOneWay = new Uint8Array(edgeTotal);
   const programAt = new Int32Array(edgeTotal).fill(-1);
   let nEdges = 0;
+  let nextProgram = 0;
   const edge = (device: number, a: number, b: number, cap: number, control: number, gate: number, oneWay: boolean): void => {
     edgeDevice[nEdges] = device;
     edgeA[nEdges] = a;
@@ -273,7 +272,9 @@ export function buildSwitchModel(nl: FlatNetlist, inputNames: string[]): SwitchM
         else edge(i, t[0], t[2], DRIVEN, d.kind === 'nmos' ? CTL_NMOS : CTL_PMOS, t[1], false);
         break;
       case 'npn':
-        programAt[nEdges] = programOfDevice[i];
+        programAt[nEdges] = nextProgram;
+        while (code[nextProgram] !== OP_END) nextProgram += 2;
+        nextProgram += 2;
         edge(i, t[0], t[2], DRIVEN, CTL_EXPR, -1, false);
         break;
       case 'pnp':
@@ -322,7 +323,14 @@ export function buildSwitchModel(nl: FlatNetlist, inputNames: string[]): SwitchM
   let programNets = 0;
   for (let pc = 0; pc < codeLen; pc += 2) if (code[pc] === OP_NET) programNets++;
   const edgePairs = new Pairs(nEdges);
-  const readerPairs = new Pairs(3 * nEdges + programNets + gateInputs);
+  // at most one reader per source end and gate of an edge, one per program net, one per gate input
+  let readerBound = programNets + gateInputs;
+  for (let ei = 0; ei < nEdges; ei++) {
+    if (isSource(edgeA[ei])) readerBound++;
+    if (isSource(edgeB[ei])) readerBound++;
+    if (edgeGate[ei] >= 0) readerBound++;
+  }
+  const readerPairs = new Pairs(readerBound);
   const lastReader = new Int32Array(nNets).fill(-1);
   const addReader = (net: number, g: number): void => {
     if (lastReader[net] === g) return;

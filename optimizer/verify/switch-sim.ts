@@ -185,6 +185,8 @@ export class SwitchSimulator {
   private pure1!: Int32Array;
   private pureTouched!: Int32Array;
   private nTouched = 0;
+  /** First net of the group being propagated (pure0/pure1 are indexed from it). */
+  private groupStart = 0;
   private evalStack!: Uint8Array;
   /** Evaluations of each group in the current step (valid where evalStep is the step). */
   private readonly evalCount: Int32Array;
@@ -202,19 +204,27 @@ export class SwitchSimulator {
 
   private scratch(): void {
     if (this.stack) return;
-    const n = this.model.nl.nets.length;
     this.edgeSt = new Uint8Array(this.model.edgeCount);
     // a net enters pureTouched once per pure value, and the stack once per rise in strength or
     // growth of its value mask: at most twice per net of the group in one strength pass
     this.pureTouched = new Int32Array(2 * this.widestGroup);
-    this.evalStack = new Uint8Array(this.model.code.length + 1);
+    // a program pushes at most once per instruction: the longest one bounds the stack
+    const code = this.model.code;
+    let longest = 0;
+    for (let pc = 0, start = 0; pc < code.length; pc += 2) {
+      if (code[pc] !== OP_END) continue;
+      longest = Math.max(longest, (pc - start) / 2);
+      start = pc + 2;
+    }
+    this.evalStack = new Uint8Array(longest + 1);
     // saved values of the group being evaluated, by position in its range of nets
     this.sureLevel = new Uint8Array(this.widestGroup);
     this.sureMask = new Uint8Array(this.widestGroup);
     this.oldLevel = new Uint8Array(this.widestGroup);
     this.oldMask = new Uint8Array(this.widestGroup);
-    this.pure0 = new Int32Array(n);
-    this.pure1 = new Int32Array(n);
+    // by position in the group being evaluated, as the saved values are
+    this.pure0 = new Int32Array(this.widestGroup);
+    this.pure1 = new Int32Array(this.widestGroup);
     this.stack = new Int32Array(2 * this.widestGroup + 1);
   }
 
@@ -223,11 +233,12 @@ export class SwitchSimulator {
     const level = this.level;
     if (level[n] > lvl) return;
     if (pure && this.tracking) {
-      if (mk === 1 && this.pure0[n] === 0) {
-        this.pure0[n] = dev + 1;
+      const i = n - this.groupStart;
+      if (mk === 1 && this.pure0[i] === 0) {
+        this.pure0[i] = dev + 1;
         this.pureTouched[this.nTouched++] = n;
-      } else if (mk === 2 && this.pure1[n] === 0) {
-        this.pure1[n] = dev + 1;
+      } else if (mk === 2 && this.pure1[i] === 0) {
+        this.pure1[i] = dev + 1;
         this.pureTouched[this.nTouched++] = n;
       }
     }
@@ -246,6 +257,7 @@ export class SwitchSimulator {
     // the group's nets and edges are ranges of model ids (switch-layout.ts)
     const n0 = m.groupNetOff[g];
     const n1 = m.groupNetOff[g + 1];
+    this.groupStart = n0;
     const e0 = m.groupEdgeOff[g];
     const e1 = m.groupEdgeOff[g + 1];
     const gates = m.groupGates.list;
@@ -328,11 +340,12 @@ export class SwitchSimulator {
       if (this.tracking) {
         for (let i = 0; i < this.nTouched; i++) {
           const n = this.pureTouched[i];
-          if (this.pure0[n] && this.pure1[n] && level[n] === lvl && lvl >= WEAK) {
-            this.pendingContention.set(n, [this.pure0[n], this.pure1[n]].map((d) => nl.devices[d - 1].name));
+          const at = n - n0;
+          if (this.pure0[at] && this.pure1[at] && level[n] === lvl && lvl >= WEAK) {
+            this.pendingContention.set(n, [this.pure0[at], this.pure1[at]].map((d) => nl.devices[d - 1].name));
           }
-          this.pure0[n] = 0;
-          this.pure1[n] = 0;
+          this.pure0[at] = 0;
+          this.pure1[at] = 0;
         }
         this.nTouched = 0;
       }
