@@ -66,6 +66,8 @@ export interface ScanOptions extends RunOptions {
   simulateUpTo?: number;
   partsTable?: PartsTable;
   verifier?: Verifier;
+  /** When a design-wide edit is proved by cut points first (default `auto`; see CutMode). */
+  cutProof?: CutMode;
 }
 
 const defaultVerifier: Verifier = (before, after, assumptions) =>
@@ -376,7 +378,7 @@ export async function scan(netlist: FlatNetlist, options: ScanOptions = {}): Pro
   const findings = run.findings.map((finding) => ({
     finding,
     proposals: finding.proposals.map((proposal) => {
-      const verification = verifyProposal({ nl: netlist, view }, proposal, assumptions, options.verifier, options.simulateUpTo, proofs);
+      const verification = verifyProposal({ nl: netlist, view }, proposal, assumptions, options.verifier, options.simulateUpTo, proofs, { cut: options.cutProof });
       return {
         proposal,
         verification,
