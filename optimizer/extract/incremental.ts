@@ -128,7 +128,7 @@ export interface EditedNodes {
   dirty: Uint8Array;
   /** Nets (edited numbering) of those nodes and of the nets the edit touches. */
   dirtyNets: Set<number>;
-  /** The edited design's nodes on those nets, device indices in the edited numbering. */
+  /** The edited design's nodes on those nets, device indices in the edited numbering (unless not renumbered). */
   nodes: LogicNode[];
   /** Old device index → new (−1 when removed). */
   toNew: Int32Array;
@@ -140,7 +140,14 @@ export interface EditedNodes {
  * @param allowed most changed nodes worth the cut (undefined beyond, and when `after` is not the
  *   shared-ids copy `applyProposals(…, { share: true })` gives)
  */
-export function editedNodes(before: { nl: FlatNetlist; view: LogicView }, after: FlatNetlist, edit: EditShape, allowed = Infinity): EditedNodes | undefined {
+export function editedNodes(
+  before: { nl: FlatNetlist; view: LogicView },
+  after: FlatNetlist,
+  edit: EditShape,
+  allowed = Infinity,
+  /** false: the nodes keep the cut's device numbering (for callers that read only their functions). */
+  renumber = true,
+): EditedNodes | undefined {
   const nl = before.nl;
   const removed = new Set(edit.removeDevices);
   // Old device index → new (−1 when removed); new → old (−1 when added).
@@ -259,7 +266,7 @@ export function editedNodes(before: { nl: FlatNetlist; view: LogicView }, after:
 
   const nodes: LogicNode[] = [];
   for (const n of localNodes) {
-    if (dirtyNets.has(n.net)) nodes.push(remapNode(n, (d) => cut[d], (x) => x));
+    if (dirtyNets.has(n.net)) nodes.push(renumber ? remapNode(n, (d) => cut[d], (x) => x) : n);
   }
   return { dirty, dirtyNets, nodes, toNew };
 }

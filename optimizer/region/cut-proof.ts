@@ -110,7 +110,8 @@ export function cutProof(before: { nl: FlatNetlist; view: LogicView }, after: Fl
   const { nl, view } = before;
   // A loop cut at a state bit may close through the edit: such designs take the whole proof.
   if (view.stateBits.length) return { reason: 'the design has state bits' };
-  const edited = editedNodes(before, after, edit);
+  // Only the functions are read here: the nodes keep the cut's device numbering.
+  const edited = editedNodes(before, after, edit, Infinity, false);
   if (!edited) return { reason: 'the edited design does not keep the net ids' };
   const { dirty } = edited;
   const afterByNet = new Map<number, LogicNode>();
