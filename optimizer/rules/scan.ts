@@ -173,7 +173,7 @@ export type ProofCache = Map<string, CachedProof>;
 /** The functions a proof compares, or the verdict when there is nothing to compare. */
 type Problem =
   | { done: Verification }
-  | { done?: undefined; compared: string[]; beforeFns: Record<string, Expr>; afterFns: Record<string, Expr>; inputs: string[] };
+  | { done?: undefined; compared: string[]; beforeFns: Record<string, Expr>; afterFns: Record<string, Expr>; inputs: string[]; compareNames: [string, string][] };
 
 function problemOf(nl: FlatNetlist, view: LogicView, after: FlatNetlist, edit: Proposal['edit'], changed: string[], used: Assumption[]): Problem {
   // Only the groups the edit touches are extracted again; every other node is the region's own.
@@ -219,7 +219,8 @@ function problemOf(nl: FlatNetlist, view: LogicView, after: FlatNetlist, edit: P
       afterFns[name + ENABLE_SUFFIX] = and(enBefore, enAfter);
     }
   });
-  return { compared, beforeFns, afterFns, inputs: bModel.inputs };
+  const compareNames = compared.map((n, k): [string, string] => [nl.nets[nl.netByName.get(n)!].name, afterNames[k]]);
+  return { compared, beforeFns, afterFns, inputs: bModel.inputs, compareNames };
 }
 
 /** Can this verdict be told to another region? Only when every name in it maps by position. */
@@ -347,8 +348,9 @@ function prove(nl: FlatNetlist, after: FlatNetlist, problem: Problem, used: Assu
   if (nl.devices.length > simulateUpTo) {
     return { status: 'proved', method: r.method, assumptions: r.assumptionsUsed, compared, simulatedVectors: 0, note: 'design too large for the switch-level check' };
   }
-  // The logic is proved; now look for contention and floating nodes the rewrite introduces.
-  const sim = simulationCheck(nl, after, problem.inputs, used);
+  // The logic is proved; now look for contention and floating nodes the rewrite introduces, and for
+  // a compared net whose switch-level value changes (a sneak path the extracted logic cannot see).
+  const sim = simulationCheck(nl, after, problem.inputs, used, problem.compareNames);
   if (sim.problem) {
     return {
       status: 'refuted',
@@ -357,7 +359,7 @@ function prove(nl: FlatNetlist, after: FlatNetlist, problem: Problem, used: Assu
       counterexample: sim.problem.vector,
       compared,
       simulatedVectors: sim.vectors,
-      note: `after the rewrite net ${sim.problem.net} ${sim.problem.kind === 'contention' ? 'is driven both ways' : 'floats while read'} (${sim.problem.detail.slice(0, 4).join(', ')})`,
+      note: `after the rewrite net ${sim.problem.net} ${sim.problem.kind === 'contention' ? 'is driven both ways' : sim.problem.kind === 'floating' ? 'floats while read' : 'changes value at switch level'} (${sim.problem.detail.slice(0, 4).join(', ')})`,
     };
   }
   return { status: 'proved', method: r.method, assumptions: r.assumptionsUsed, compared, simulatedVectors: sim.vectors };

@@ -136,16 +136,23 @@ describe('shared-enable-switch: doc examples', () => {
   const examples = deckExamples(path.join(__dirname, 'shared-enable-switch.md'));
   it('has examples', () => expect(examples.length).toBeGreaterThanOrEqual(2));
   it.each(examples.map((e) => [e.label, e] as const))('%s', (_l, ex) => checkDeckExample(rule, ex));
-  it('scans as the doc says: the first proved and ready, the second proved but failing its sneak paths', async () => {
-    const verdicts = [];
+  it('scans as the doc says: the first proved and ready, the second refuted at switch level by a vector that tells the designs apart', async () => {
+    const scanned = [];
     for (const ex of examples.slice(0, 2)) {
-      const p = (await scanOne(rule, deckNetlist(ex.deck))).findings[0].proposals[0];
-      verdicts.push([p.verification.status, p.verdict]);
+      const nl = deckNetlist(ex.deck);
+      scanned.push({ nl, p: (await scanOne(rule, nl)).findings[0].proposals[0] });
     }
-    expect(verdicts).toEqual([
-      ['proved', 'ready'],
-      ['proved', 'failing-margins'],
+    expect(scanned.map(({ p }) => [p.verification.status, p.verification.method, p.verdict])).toEqual([
+      ['proved', 'exhaustive', 'ready'],
+      ['refuted', 'switch-level', 'refuted'],
     ]);
+    const { nl, p } = scanned[1];
+    // the rule's own sneak check fails the same rewrite
+    expect(p.margins.find((m) => m.name === 'sneak paths')!.status).toBe('fail');
+    const cex = p.verification.counterexample!;
+    // with the shared switch off a line still reaches ground through the other bit's clear
+    expect(cex.BUSEN).toBe(0);
+    expect(distinguishing(nl, applyProposals(nl, [p.proposal]), cex, ['Y0', 'Y1']).length).toBeGreaterThan(0);
   });
 });
 
