@@ -44,7 +44,7 @@ const invalid: Invalid[] = [
     name: 'CMOS NAND-2 with an input tied to VDD becomes an inverter',
     nl: () => { const b = cmos(); cmosNand(b, '1', ['A', 'VDD'], 'Y'); return b.build(); },
     messageId: 'simplify',
-    data: { gate: 'P10', place: 'the top level', inputs: 'input VDD tied to VDD', removed: 2 },
+    data: { gate: 'P10', place: 'the top level', inputs: 'input VDD on a 5 V rail', removed: 2 },
     // Weste & Harris (from memory): NAND-2 is 4 transistors, an inverter 2
     delta: { transistors: 2, resistors: 0, diodes: 0, gates: 0 },
     relies: [],
@@ -73,7 +73,7 @@ const invalid: Invalid[] = [
     // the strapped base resistors are read as the bases' bleeds; the rail is still the reason
     nl: () => { const b = rtl().rail('D', 0).rail('K', 0); rtlNor(b, ['D', 'K', 'A'], 'Y'); return b.build(); },
     messageId: 'simplify',
-    data: { gate: 'QA', place: 'the top level', inputs: 'input D tied to D and input K tied to K', removed: 4 },
+    data: { gate: 'QA', place: 'the top level', inputs: 'input D on a 0 V rail and input K on a 0 V rail', removed: 4 },
     delta: { transistors: 2, resistors: 2, diodes: 0, gates: 0 },
     relies: [],
   },
@@ -101,7 +101,7 @@ const invalid: Invalid[] = [
         .resistor('RC', 'VCC', 'Y', 2000)
         .build(),
     messageId: 'simplify',
-    data: { gate: 'Q1', place: 'the top level', inputs: 'input VCC tied to VCC', removed: 1 },
+    data: { gate: 'Q1', place: 'the top level', inputs: 'input VCC on a 5 V rail', removed: 1 },
     delta: { transistors: 0, resistors: 0, diodes: 1, gates: 0 },
     relies: [],
   },
@@ -109,7 +109,7 @@ const invalid: Invalid[] = [
     name: 'gate level: NAND-3 with an input on the supply becomes NAND-2',
     nl: () => new NetlistBuilder('g').rail('VDD', 5).gate('U1', 'nand', ['Y', 'A', 'B', 'VDD']).gate('U2', 'not', ['Z', 'Y']).build(),
     messageId: 'gate',
-    data: { gate: 'U1', place: 'the top level', inputs: 'input VDD tied to VDD', result: 'nand(A, B)' },
+    data: { gate: 'U1', place: 'the top level', inputs: 'input VDD on a 5 V rail', result: 'nand(A, B)' },
     delta: { transistors: 2, resistors: 0, diodes: 0, gates: 0 },
     relies: [],
   },
@@ -171,6 +171,55 @@ describe('constant-input: invalid (finding)', () => {
   it('without the assumption the held input is free and nothing is proposed', async () => {
     const nl = invalid[2].nl();
     expect((await runOne(constantInput, nl)).findings).toEqual([]);
+  });
+});
+
+describe('constant-input: the same tie-off in every instance of a slice', () => {
+  // Four instances of one NAND-3 slice whose third input is strapped to VDD; the last slice's
+  // output also drives a bus inverter, so its fan-out margin differs and it is its own finding.
+  const deck = [
+    'Wren-8 decode slices with a strapped input',
+    '.global VDD',
+    'VDD VDD 0 DC 5',
+    '.subckt DEC A B Y',
+    'MP1 Y A VDD VDD PM',
+    'MP2 Y B VDD VDD PM',
+    'MP3 Y VDD VDD VDD PM',
+    'MN1 Y A M1 0 NM',
+    'MN2 M1 B M2 0 NM',
+    'MN3 M2 VDD 0 0 NM',
+    '.ends DEC',
+    'X0 A0 B Y0 DEC',
+    'X1 A1 B Y1 DEC',
+    'X2 A2 B Y2 DEC',
+    'X3 A3 B Y3 DEC',
+    'MPB Z Y3 VDD VDD PM',
+    'MNB Z Y3 0 0 NM',
+    '.model NM NMOS (VTO=0.7 KP=50u)',
+    '.model PM PMOS (VTO=-0.7 KP=20u)',
+    '.end',
+  ].join('\n');
+
+  it('reports identical copies as one finding whose proposal takes the parts of every copy', async () => {
+    const nl = deckNetlist(deck, 'dec.cir');
+    const r = await runOne(constantInput, nl);
+    expect(r.ruleErrors).toEqual([]);
+    const each = r.findings.find((f) => f.messageId === 'simplifyEach')!;
+    expect(each.data).toMatchObject({ count: 3, cell: 'DEC', removed: 2, total: 6, inputs: 'input VDD on a 5 V rail' });
+    expect(each.location.instances).toEqual(['X0', 'X1', 'X2']);
+    expect([...each.proposals[0].edit.removeDevices].sort()).toEqual(['X0.MN3', 'X0.MP3', 'X1.MN3', 'X1.MP3', 'X2.MN3', 'X2.MP3']);
+    // the copy with another load stays on its own
+    const alone = r.findings.filter((f) => f.messageId === 'simplify');
+    expect(alone.map((f) => f.location.instances)).toEqual([['X3']]);
+    const { stated, actual } = savingsProperty(nl, each.proposals[0]);
+    // Weste & Harris (from memory): a NAND-3 that becomes a NAND-2 loses one transistor of each kind
+    expect(pick(stated)).toMatchObject({ transistors: 6 });
+    expect(actual).toEqual(pick(stated));
+  });
+
+  it('the scan proves the grouped rewrite', async () => {
+    const s = await scanOne(constantInput, deckNetlist(deck, 'dec.cir'));
+    expect(s.findings.map((f) => f.proposals[0].verification.status)).toEqual(['proved', 'proved']);
   });
 });
 

@@ -45,6 +45,7 @@ export const constantInput = defineRule({
     description: 'A gate input tied to a rail or held constant by the assumptions: drop the input and the transistor that serves it.',
     messages: {
       simplify: '{gate} ({place}) has {inputs}; {removed} part(s) can go and it still computes the same output',
+      simplifyEach: '{gate} in {count} instances of {cell} ({place}) has {inputs}; {removed} part(s) can go in each, {total} in all, and each still computes the same output',
       gate: 'gate {gate} ({place}) has {inputs}; it becomes {result}',
     },
     optionsSchema: z.object({}),
@@ -54,20 +55,116 @@ export const constantInput = defineRule({
     const { netlist: nl, view } = ctx;
     const idx = new NetIndex(nl, view);
     const fixed = new Map<string, Fixed>();
-    for (const r of nl.rails) fixed.set(nl.nets[r.net].name, { value: r.volts > 0 ? 1 : 0, assumptions: [], why: `tied to ${nl.nets[r.net].name}` });
+    for (const r of nl.rails) {
+      const { name, kind } = nl.nets[r.net];
+      // gate-level supplies carry no voltage: say which constant they are
+      const why = kind === 'supply1' ? 'tied to 1' : kind === 'supply0' ? 'tied to 0' : `on a ${r.volts} V rail`;
+      fixed.set(name, { value: r.volts > 0 ? 1 : 0, assumptions: [], why });
+    }
     for (const [name, f] of fixedByAssumptions(ctx.assumptions)) {
       if (!fixed.has(name)) fixed.set(name, { ...f, why: `held at ${f.value} by ${f.assumptions.join(', ')}` });
     }
     if (fixed.size === 0) return;
+    const found: Simplified[] = [];
     for (const node of view.nodes) {
       if (!['static', 'open-collector', 'wired'].includes(node.kind) || !idx.ownsAlone(node)) continue;
-      if (node.family === 'gate') gateLevel(ctx, idx, node, fixed);
-      else transistorLevel(ctx, idx, node, fixed);
+      const one = node.family === 'gate' ? gateLevel(ctx, idx, node, fixed) : transistorLevel(ctx, idx, node, fixed);
+      if (one) found.push(one);
     }
+    for (const r of acrossInstances(found)) ctx.report(r);
   },
 });
 
-function transistorLevel(ctx: RuleContext, idx: NetIndex, node: LogicNode, fixed: Map<string, Fixed>): void {
+/** One simplified gate: its report, and the instance it lies in (when all its parts lie in one). */
+interface Simplified {
+  report: FindingReport;
+  /** The gate's output net (a port net's name differs from copy to copy). */
+  net: string;
+  path: readonly string[];
+  cell?: string;
+}
+
+/**
+ * The same simplification inside every instance of a slice subcircuit is one finding: gates in
+ * instances of the same cell whose reports are equal once the instance prefix is taken off (the
+ * same parts, the same tied nets, the same margins) are reported together, one proposal removing
+ * the parts of every copy. A copy that differs (another tie, other loads) stays on its own.
+ */
+function acrossInstances(found: readonly Simplified[]): FindingReport[] {
+  const groups = new Map<string, Simplified[]>();
+  const alone: Simplified[] = [];
+  for (const f of found) {
+    if (f.cell === undefined || f.path.length === 0) {
+      alone.push(f);
+      continue;
+    }
+    const key = `${f.cell}\u0000${f.report.messageId}\u0000${relativeKey(f)}`;
+    const list = groups.get(key);
+    if (list) list.push(f);
+    else groups.set(key, [f]);
+  }
+  const out = alone.map((f) => f.report);
+  for (const list of groups.values()) out.push(list.length === 1 ? list[0].report : merged(list));
+  return out;
+}
+
+/**
+ * The report as text with its own instance prefix taken off names, and its output net's name
+ * (which may be a port net named outside the instance) replaced by one mark; its place left out.
+ */
+function relativeKey(f: Simplified): string {
+  const esc = (x: string) => x.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
+  const { place: _place, ...data } = f.report.data ?? {};
+  const text = JSON.stringify({ ...f.report, data, location: { ...f.report.location, instances: undefined } });
+  // a name starts right after a quote, a space, a comma or a parenthesis in the JSON text, and
+  // ends before a quote, a space, a comma, a colon or a closing parenthesis
+  const output = new RegExp(`(?<=["\\s,(])${esc(f.net)}(?=["\\s,:)])`, 'g');
+  const prefix = new RegExp(`(?<=["\\s,(])${esc(`${f.path.join('.')}.`)}`, 'g');
+  return text.replace(output, '\u0002').replace(prefix, '\u0001.');
+}
+
+function merged(list: readonly Simplified[]): FindingReport {
+  const first = list[0].report;
+  const cat = <T>(pick: (r: FindingReport) => readonly T[] | undefined) => list.flatMap((f) => pick(f.report) ?? []);
+  const proposal = first.proposals[0];
+  const edits = list.map((f) => f.report.proposals[0].edit);
+  const removed = proposal.edit.removeDevices.length;
+  return {
+    messageId: first.messageId === 'simplify' ? 'simplifyEach' : first.messageId,
+    data: {
+      ...first.data,
+      count: list.length,
+      cell: list[0].cell!,
+      place: listWords(list.map((f) => placeOf(f.path))),
+      removed,
+      total: removed * list.length,
+    },
+    location: { devices: cat((r) => r.location.devices), instances: cat((r) => r.location.instances), nets: [...new Set(cat((r) => r.location.nets))] },
+    proposals: [
+      {
+        ...proposal,
+        title: `${proposal.title} (and the same in ${list.length - 1} more instance${list.length === 2 ? '' : 's'} of ${list[0].cell})`,
+        edit: {
+          ...emptyEdit(),
+          removeDevices: edits.flatMap((e) => e.removeDevices),
+          addDevices: edits.flatMap((e) => e.addDevices),
+          reconnect: edits.flatMap((e) => e.reconnect),
+          mergeNets: edits.flatMap((e) => e.mergeNets),
+        },
+      },
+    ],
+  };
+}
+
+/** The instance all of a gate's parts lie in, with its cell, or none when they span instances. */
+function instanceOf(nl: RuleContext['netlist'], devices: readonly number[]): Pick<Simplified, 'path' | 'cell'> {
+  const d0 = nl.devices[devices[0]];
+  const key = d0.path.join('.');
+  for (const d of devices) if (nl.devices[d].path.join('.') !== key || nl.devices[d].cell !== d0.cell) return { path: [] };
+  return { path: d0.path, cell: d0.cell };
+}
+
+function transistorLevel(ctx: RuleContext, idx: NetIndex, node: LogicNode, fixed: Map<string, Fixed>): Simplified | undefined {
   const nl = ctx.netlist;
   const removed = new Set<number>();
   const merges: { keep: string; remove: string }[] = [];
@@ -133,12 +230,13 @@ function transistorLevel(ctx: RuleContext, idx: NetIndex, node: LogicNode, fixed
   const margins = lineMargins(node, lineLoads(idx, node.net, ctx.margins), node.family as MapFamily, ctx.margins);
   // the gate is named by a part that stays (the first device may be a tied-off one that goes)
   const gate = node.groups[0].devices.find((d) => !removed.has(d)) ?? node.groups[0].devices[0];
-  ctx.report(report(node, nl.devices[gate].name, reasons, {
+  const rep = report(node, nl.devices[gate].name, reasons, {
     messageId: 'simplify',
     data: { removed: removed.size },
     location: { devices, instances: instancesOf([...removed].map((d) => nl.devices[d].path)), nets: [node.name, ...reasons.keys()] },
     proposals: [{ title: `simplify the gate driving ${node.name}: remove ${listWords(devices)}`, edit: { ...emptyEdit(), removeDevices: devices, mergeNets: merges }, margins }],
-  }));
+  });
+  return { report: rep, net: node.name, ...instanceOf(nl, [...node.devices, ...removed]) };
 }
 
 const SIMPLE: Partial<Record<GateOp, { controlling?: 0 | 1; invert: boolean; parity?: boolean }>> = {
@@ -150,7 +248,7 @@ const SIMPLE: Partial<Record<GateOp, { controlling?: 0 | 1; invert: boolean; par
   xnor: { invert: true, parity: true },
 };
 
-function gateLevel(ctx: RuleContext, idx: NetIndex, node: LogicNode, fixed: Map<string, Fixed>): void {
+function gateLevel(ctx: RuleContext, idx: NetIndex, node: LogicNode, fixed: Map<string, Fixed>): Simplified | undefined {
   const nl = ctx.netlist;
   if (node.devices.length !== 1) return;
   const dev = nl.devices[node.devices[0]];
@@ -182,12 +280,13 @@ function gateLevel(ctx: RuleContext, idx: NetIndex, node: LogicNode, fixed: Map<
     edit.addDevices.push({ name: dev.name, kind: 'gate', op, terminals: [node.name, ...rest], path: [...dev.path] });
     result = `${op}(${rest.join(', ')})`;
   }
-  ctx.report(report(node, dev.name, reasons, {
+  const rep = report(node, dev.name, reasons, {
     messageId: 'gate',
     data: { result },
     location: { devices: [dev.name], instances: instancesOf([dev.path]), nets: [node.name, ...held] },
     proposals: [{ title: `make ${dev.name} ${result}`, edit, margins }],
-  }));
+  });
+  return { report: rep, net: node.name, ...instanceOf(nl, node.devices) };
 }
 
 function report(node: LogicNode, gate: string, reasons: Map<string, Fixed>, r: FindingReport): FindingReport {
