@@ -111,16 +111,15 @@ function acrossInstances(found: readonly Simplified[]): FindingReport[] {
 /**
  * The report as text with its own instance prefix taken off names, and its output net's name
  * (which may be a port net named outside the instance) replaced by one mark; its place left out.
+ * Plain substring replacement: a name that merely contains the prefix can only make two copies
+ * look alike, which changes the wording, never the edit (the union of each copy's own edit).
  */
 function relativeKey(f: Simplified): string {
-  const esc = (x: string) => x.replace(/[.*+?^${}()|[\]\\]/g, '\\$&');
+  const prefix = `${f.path.join('.')}.`;
+  const strip = (x: string) => x.split(prefix).join('\u0001.').split(f.net).join('\u0002');
   const { place: _place, ...data } = f.report.data ?? {};
-  const text = JSON.stringify({ ...f.report, data, location: { ...f.report.location, instances: undefined } });
-  // a name starts right after a quote, a space, a comma or a parenthesis in the JSON text, and
-  // ends before a quote, a space, a comma, a colon or a closing parenthesis
-  const output = new RegExp(`(?<=["\\s,(])${esc(f.net)}(?=["\\s,:)])`, 'g');
-  const prefix = new RegExp(`(?<=["\\s,(])${esc(`${f.path.join('.')}.`)}`, 'g');
-  return text.replace(output, '\u0002').replace(prefix, '\u0001.');
+  const shown = { ...f.report, data, location: { ...f.report.location, instances: undefined } };
+  return JSON.stringify(shown, (_k, v: unknown) => (typeof v === 'string' ? strip(v) : v));
 }
 
 function merged(list: readonly Simplified[]): FindingReport {
