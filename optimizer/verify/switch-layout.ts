@@ -5,51 +5,60 @@
 import * as ops from './switch-model';
 import { permute, type Csr } from './csr';
 
-/** The model's tables as built, in netlist ids (nets) and build order (edges). */
-export interface BuiltTables {
-  nNets: number;
+/** Per edge: the device, its two ends, strongest signal it passes, control kind and net. */
+export interface EdgeTables {
   edgeDevice: Int32Array;
   edgeA: Int32Array;
   edgeB: Int32Array;
   edgeCap: Uint8Array;
+  /** CTL_*: NMOS-like and PMOS-like edges read edgeGate, a bipolar edge runs its program. */
   edgeControl: Uint8Array;
   edgeGate: Int32Array;
+  /** Diodes: a (anode) passes 1 toward b; b (cathode) passes 0 toward a. */
   edgeOneWay: Uint8Array;
+  /** Per edge with CTL_EXPR: start of its base-drive program in `code`. */
   programAt: Int32Array;
   code: Int32Array;
-  /** Group (already ranked) per net, -1 for sources and nets no group holds. */
+}
+
+/** Tables kept per net, in whichever numbering the tables around them use. */
+interface NetTables {
+  /**
+   * Group per net (-1 for rails and inputs, which are sources). Group ids are the evaluation
+   * order: a group fed only by lower ids comes later (feedback loops broken).
+   */
   groupOf: Int32Array;
-  /** Nets and edges of each ranked group, in the order the build met them. */
-  groupNets: Csr;
-  groupEdges: Csr;
+  /** Groups that must be re-evaluated when this net changes (controls and source adjacency). */
   readers: Csr;
+  /** Gate-level devices reading a net. */
   gateReaders: Csr;
+  /** Per net: 0 or 1 for a rail, -1 otherwise (array form of railValue for the inner loops). */
   railVal: Int8Array;
   isInput: Uint8Array;
 }
 
+/** The model's tables as built, in netlist ids (nets) and build order (edges). */
+export interface BuiltTables extends EdgeTables, NetTables {
+  nNets: number;
+  /** Nets and edges of each ranked group, in the order the build met them. */
+  groupNets: Csr;
+  groupEdges: Csr;
+}
+
 /** The same tables in layout order: net k is netAt[k]; group g's nets and edges are ranges. */
-export interface LaidOutTables {
+export interface LaidOutTables extends EdgeTables, NetTables {
+  /** Netlist net id → model id, and back. */
   netPos: Int32Array;
   netAt: Int32Array;
   edgeCount: number;
-  edgeDevice: Int32Array;
-  edgeA: Int32Array;
-  edgeB: Int32Array;
-  edgeCap: Uint8Array;
-  edgeControl: Uint8Array;
-  edgeGate: Int32Array;
-  edgeOneWay: Uint8Array;
-  programAt: Int32Array;
-  code: Int32Array;
-  groupOf: Int32Array;
+  /** Ranges of each group's nets and edges. */
   groupNetOff: Int32Array;
   groupEdgeOff: Int32Array;
+  /**
+   * Edges at each net of a group, in edge order (a group's edges are consecutive, so this is the
+   * order they were built in). Sources have empty lists: a signal never spreads out of a source.
+   */
   edgesAt: Csr;
-  readers: Csr;
-  gateReaders: Csr;
-  railVal: Int8Array;
-  isInput: Uint8Array;
 }
 
 /**

@@ -8,7 +8,7 @@ import { makeContext, isRail } from '../extract/context';
 import { BaseResolver } from '../extract/bipolar';
 import { loadTransistor } from '../extract/mos';
 import { grow, Pairs, permute, type Csr } from './csr';
-import { layOut } from './switch-layout';
+import { layOut, type LaidOutTables } from './switch-layout';
 
 export type { Csr } from './csr';
 
@@ -47,51 +47,15 @@ export const OP_END = 6;
  * `netPos` takes a netlist net id to its model id, `netAt` back; names, stimulus and results speak
  * netlist ids and convert at the boundary.
  */
-export interface SwitchModel {
+export interface SwitchModel extends LaidOutTables {
   nl: FlatNetlist;
-  netPos: Int32Array;
-  netAt: Int32Array;
-  /** Per edge: the device, its two ends, strongest signal it passes, control kind and net. */
-  edgeCount: number;
-  edgeDevice: Int32Array;
-  edgeA: Int32Array;
-  edgeB: Int32Array;
-  edgeCap: Uint8Array;
-  /** CTL_*: NMOS-like and PMOS-like edges read edgeGate, a bipolar edge runs its program. */
-  edgeControl: Uint8Array;
-  edgeGate: Int32Array;
-  /** Diodes: a (anode) passes 1 toward b; b (cathode) passes 0 toward a. */
-  edgeOneWay: Uint8Array;
-  /** Per edge with CTL_EXPR: start of its base-drive program in `code` (net arguments in model ids). */
-  programAt: Int32Array;
-  code: Int32Array;
-  /**
-   * Group per net (-1 for rails and inputs, which are sources). Group ids are the evaluation
-   * order: a group fed only by lower ids comes later (feedback loops broken).
-   */
-  groupOf: Int32Array;
   groupCount: number;
-  /** Ranges of each group's nets and edges (see above). */
-  groupNetOff: Int32Array;
-  groupEdgeOff: Int32Array;
   /** Gate-level devices whose output net is in the group. */
   groupGates: Csr;
-  /**
-   * Edges at each net of a group, in edge order (a group's edges are consecutive, so this is the
-   * order they were built in). Sources have empty lists: a signal never spreads out of a source.
-   */
-  edgesAt: Csr;
-  /** Groups that must be re-evaluated when this net changes (controls and source adjacency). */
-  readers: Csr;
-  /** Gate-level devices reading a net. */
-  gateReaders: Csr;
   /** Gate-level devices (indices into nl.devices; their terminals are netlist ids). */
   gates: number[];
   /** Rail values by netlist id. */
   railValue: Map<number, 0 | 1>;
-  /** Per net: 0 or 1 for a rail, -1 otherwise (array form of railValue for the inner loops). */
-  railVal: Int8Array;
-  isInput: Uint8Array;
   /** Netlist id of a named net (stimulus inputs first; an InputError for an unknown name). */
   netIdsOf: (name: string) => number;
 }
