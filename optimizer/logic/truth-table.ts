@@ -114,19 +114,24 @@ export function fromFunction(
   return { inputs: [...inputs], outputs: outs };
 }
 
-/** Minterms in a bitset, ascending. */
-export function mintermsOf(set: Uint32Array, n: number): number[] {
-  const out: number[] = [];
+/** Calls `visit` with each minterm of a bitset below 2^n, ascending (set bits found a word at a time). */
+export function forEachMinterm(set: Uint32Array, n: number, visit: (m: number) => void): void {
   const size = 2 ** n;
   for (let w = 0; w < set.length; w++) {
     let word = set[w];
     while (word !== 0) {
       const low = word & -word;
       const m = w * 32 + (31 - Math.clz32(low));
-      if (m < size) out.push(m);
       word ^= low;
+      if (m < size) visit(m);
     }
   }
+}
+
+/** Minterms in a bitset, ascending. */
+export function mintermsOf(set: Uint32Array, n: number): number[] {
+  const out: number[] = [];
+  forEachMinterm(set, n, (m) => out.push(m));
   return out;
 }
 

@@ -2,7 +2,7 @@
 // orders, for tables and covers: the minimiser keys what it remembers on the table in this order,
 // so the same block wired to inputs whose names sort differently is minimised once.
 import type { Cover } from '../cubes';
-import { words, type OutputTable } from '../truth-table';
+import { forEachMinterm, words, type OutputTable } from '../truth-table';
 
 /**
  * Moves the input bits of a minterm or cube mask: input k of the result (bit n-1-k) is input
@@ -72,18 +72,10 @@ export function canonicalOrder(out: OutputTable, n: number): number[] {
 /** Moves every minterm of a bitset to the order `from` (input k of the result is input from[k]). */
 function moveSet(set: Uint32Array, n: number, from: readonly number[]): Uint32Array {
   const out = new Uint32Array(words(n));
-  const size = 2 ** n;
-  for (let w = 0; w < set.length; w++) {
-    let word = set[w];
-    while (word !== 0) {
-      const low = word & -word;
-      const m = w * 32 + (31 - Math.clz32(low));
-      word ^= low;
-      if (m >= size) continue;
-      const t = moveBits(m, n, from);
-      out[t >>> 5] |= 1 << (t & 31);
-    }
-  }
+  forEachMinterm(set, n, (m) => {
+    const t = moveBits(m, n, from);
+    out[t >>> 5] |= 1 << (t & 31);
+  });
   return out;
 }
 

@@ -36,38 +36,38 @@ function decodeWords(text, count, what) {
   return words;
 }
 
-/** Set bits of the words (minterms below 2^n) or an error for one past it. */
-function countRows(words, n) {
-  const size = 2 ** n;
-  let rows = 0;
+/** Calls `visit` with each set bit of the words (a minterm), ascending. */
+function eachSetBit(words, visit) {
   for (let w = 0; w < words.length; w++) {
     let word = words[w];
     while (word !== 0) {
       const low = word & -word;
-      const m = w * 32 + (31 - Math.clz32(low));
+      visit(w * 32 + (31 - Math.clz32(low)));
       word ^= low;
-      if (m >= size) throw new Error(`minterm ${m} is outside 0..${size - 1}`);
-      rows++;
     }
   }
+}
+
+/** Set bits of the words (minterms below 2^n) or an error for one past it. */
+function countRows(words, n) {
+  const size = 2 ** n;
+  let rows = 0;
+  eachSetBit(words, (m) => {
+    if (m >= size) throw new Error(`minterm ${m} is outside 0..${size - 1}`);
+    rows++;
+  });
   return rows;
 }
 
 /** Writes a row per set bit (ascending minterms): the digits, a space, `mark`, a line break. */
 function writeRows(buf, at, words, n, mark) {
   const digits = digitsFor(n);
-  for (let w = 0; w < words.length; w++) {
-    let word = words[w];
-    while (word !== 0) {
-      const low = word & -word;
-      const m = w * 32 + (31 - Math.clz32(low));
-      word ^= low;
-      for (let i = 0, d = m * n; i < n; i++) buf[at++] = digits[d + i];
-      buf[at++] = 32;
-      buf[at++] = mark;
-      buf[at++] = NL;
-    }
-  }
+  eachSetBit(words, (m) => {
+    for (let i = 0, d = m * n; i < n; i++) buf[at++] = digits[d + i];
+    buf[at++] = 32;
+    buf[at++] = mark;
+    buf[at++] = NL;
+  });
   return at;
 }
 

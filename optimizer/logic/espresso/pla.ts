@@ -3,7 +3,7 @@
 // as the output's checked table words from which the child writes the same rows; parsed on return.
 import { InternalError } from '../../errors';
 import type { Cover } from '../cubes';
-import { popcount, words, type OutputTable } from '../truth-table';
+import { forEachMinterm, popcount, words, type OutputTable } from '../truth-table';
 
 /** Largest input count sent to Espresso (2^16 rows of minterms at most). */
 export const MAX_ESPRESSO_INPUTS = 16;
@@ -16,20 +16,12 @@ const NL = 10;
 
 /** Appends one row per set bit of `set` (minterm as n binary digits, then " " and `mark`). */
 function writeRows(buf: Uint8Array, at: number, set: Uint32Array, n: number, mark: number): number {
-  const size = 2 ** n;
-  for (let w = 0; w < set.length; w++) {
-    let word = set[w];
-    while (word !== 0) {
-      const low = word & -word;
-      const m = w * 32 + (31 - Math.clz32(low));
-      word ^= low;
-      if (m >= size) continue;
-      for (let i = 0; i < n; i++) buf[at++] = (m >>> (n - 1 - i)) & 1 ? C1 : C0;
-      buf[at++] = SPACE;
-      buf[at++] = mark;
-      buf[at++] = NL;
-    }
-  }
+  forEachMinterm(set, n, (m) => {
+    for (let i = 0; i < n; i++) buf[at++] = (m >>> (n - 1 - i)) & 1 ? C1 : C0;
+    buf[at++] = SPACE;
+    buf[at++] = mark;
+    buf[at++] = NL;
+  });
   return at;
 }
 
