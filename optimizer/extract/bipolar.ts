@@ -233,9 +233,13 @@ export class BaseResolver {
         }
       });
       if (count === 0) return this.coupledFrom(p, shift, drive);
-      if (count !== 1 || up === base) return undefined;
+      if (count !== 1) return undefined;
+      // A chain that climbs back to the base (or to a node it already passed) is a loop, not an
+      // input: compare nets with nets — a device number equal to the base's net number is no loop.
+      const anode = cx.nl.devices[up].terminals[0];
+      if (anode === base || shift.some((d) => cx.nl.devices[d].terminals[0] === anode)) return undefined;
       shift.push(up);
-      p = cx.nl.devices[up].terminals[0];
+      p = anode;
     }
     return undefined;
   }

@@ -2,9 +2,11 @@
 // rails, and that proofs on the region agree with proofs on the whole design.
 import { describe, expect, it } from 'vitest';
 import { extractLogic } from '../extract';
+import { exprToString } from '../logic/expr';
 import { NetlistBuilder } from '../netlist/build';
 import { regionOf } from './region';
-import { verifyProposal } from './scan';
+import { scan, verifyProposal } from './scan';
+import { deckNetlist } from './support/rule-test-kit';
 import { sliceInverters } from './test-helpers';
 import { emptyEdit, type Proposal } from './types';
 
@@ -51,5 +53,61 @@ describe('regionOf', () => {
     expect(view.nodes[view.nodeByNet.get(nl.netByName.get('Q')!)!].inputs).toEqual([]);
     const r = regionOf(nl, view, ['Q'], { ...emptyEdit(), removeDevices: ['QD', 'RD'] });
     expect(r.devices.map((d) => d.name)).toEqual(expect.arrayContaining(['QN', 'RB', 'RCN', 'QE', 'RE']));
+  });
+});
+
+/**
+ * n Wren-8 DTL bus bits, each with the bus-driver demo's own enable inverter (EN = NOT OEN: a
+ * diode input and two level-shift diodes into QI's base) feeding an enable stack whose base is
+ * coupled from EN as given. Device and net numbers shift with n, so a reading of a base that
+ * depended on them would change with the width.
+ */
+function busBits(n: number, enableBase: string): string {
+  const bits = Array.from({ length: n }, (_, k) => `XO${k} D${k} OEN BUS${k} BUSBIT\nRL${k} VCC BUS${k} 2k`).join('\n');
+  return `Wren-8 DTL bus bits with their own enable inverters
+.global VCC
+VCC VCC 0 DC 5
+.subckt BUSBIT D OEN Y
+RPI VCC PI 4.7k
+DI PI OEN DX
+DI1 PI MI DX
+DI2 MI BI DX
+RBI BI 0 5k
+RCI VCC EN 2k
+QI EN BI 0 QN
+RD D BD 4.7k
+QD Y BD N QN
+${enableBase}
+RB BE 0 5k
+QE N BE 0 QN
+.ends BUSBIT
+${bits}
+.model QN NPN (IS=1e-14 BF=50)
+.model DX D (IS=1e-14)
+.end
+`;
+}
+
+describe('regionOf on DTL bus bits', () => {
+  it.each([
+    ['a resistor and a diode', 'RE EN X 2.2k\nDB X BE DX'],
+    ['a diode gate', 'RP VCC P 2k\nDE P EN DX\nDL1 P M DX\nDL2 M BE DX'],
+  ])('enable base through %s: the region reads every compared net as the whole design does, and each proposal is proved at 3, 4, 5 and 12 bits', async (_l, base) => {
+    for (const n of [3, 4, 5, 12]) {
+      const nl = deckNetlist(busBits(n, base));
+      const view = extractLogic(nl);
+      const whole = new Map(view.nodes.map((x) => [x.name, exprToString(x.fn)]));
+      for (let k = 0; k < n; k++) expect([n, whole.get(`XO${k}.EN`)]).toEqual([n, '!OEN']);
+      const r = await scan(nl, { view });
+      const proposals = r.findings.flatMap((f) => f.proposals.map((q) => ({ rule: f.finding.ruleId, q })));
+      expect(proposals.map((x) => x.rule).sort()).toEqual(['merge-duplicate-logic', 'shared-control-driver']);
+      for (const { rule, q } of proposals) {
+        expect([n, rule, q.verification.status]).toEqual([n, rule, 'proved']);
+        const region = regionOf(nl, view, q.verification.compared, q.proposal.edit);
+        expect(region.devices.length).toBeLessThan(nl.devices.length);
+        const cut = new Map(extractLogic(region).nodes.map((x) => [x.name, exprToString(x.fn)]));
+        for (const name of q.verification.compared) expect([n, name, cut.get(name)]).toEqual([n, name, whole.get(name)]);
+      }
+    }
   });
 });

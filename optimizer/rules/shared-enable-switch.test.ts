@@ -248,7 +248,7 @@ const DTL_BASES = {
   diode: 'DB EN BE DN',
   resistorDiode: 'RE EN X 2.2k\nDB X BE DN',
 };
-function dtlBus(base: string): string {
+function dtlBus(base: string, bits = 3): string {
   return `Wren-8 DTL bus bits
 .global VCC
 VCC VCC 0 DC 5
@@ -260,9 +260,7 @@ ${base}
 RB BE 0 5k
 QE N BE 0 QN
 .ends OBIT
-XO0 D0 BUSEN Y0 OBIT
-XO1 D1 BUSEN Y1 OBIT
-XO2 D2 BUSEN Y2 OBIT
+${Array.from({ length: bits }, (_, k) => `XO${k} D${k} BUSEN Y${k} OBIT`).join('\n')}
 .model QN NPN (IS=1e-14 BF=100)
 .model DN D (IS=1e-14)
 .end
@@ -292,5 +290,20 @@ describe('shared-enable-switch: internal nets of enable stacks stay internal', (
     expect(p.verification).toMatchObject({ status: 'proved', compared: [0, 1, 2].map((k) => `${out}${k}`) });
     expect(p.verdict).toBe('ready');
     for (const f of r.findings) for (const q of f.proposals) expect([f.finding.ruleId, q.verification.status]).toEqual([f.finding.ruleId, 'proved']);
+  });
+});
+
+describe('shared-enable-switch: DTL bus bits of any width', () => {
+  // Device and net numbers shift with the width: the reading of a diode-fed base must not.
+  it.each(Object.entries(DTL_BASES))('enable base %s: one shared switch, proved, at 3, 4, 5 and 12 bits', async (_l, base) => {
+    for (const bits of [3, 4, 5, 12]) {
+      const nl = deckNetlist(dtlBus(base, bits));
+      const r = await scan(nl);
+      const shared = r.findings.filter((f) => f.finding.ruleId === 'shared-enable-switch');
+      expect([bits, shared.length]).toEqual([bits, 1]);
+      const p = shared[0].proposals[0];
+      expect([bits, p.verification.status, p.verification.compared]).toEqual([bits, 'proved', Array.from({ length: bits }, (_, k) => `Y${k}`).sort()]);
+      for (const f of r.findings) for (const q of f.proposals) expect([bits, f.finding.ruleId, q.verification.status]).toEqual([bits, f.finding.ruleId, 'proved']);
+    }
   });
 });
