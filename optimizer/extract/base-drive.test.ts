@@ -39,4 +39,26 @@ describe('DTL base drive', () => {
     // the numbering that once read the base as a free input is among the cases
     expect(collided).toBeGreaterThan(0);
   });
+
+  it("reads a level-shift diode off another stage's pulled-up output as that output, also when the output feeds several such diodes", () => {
+    // E = NOT A (RTL inverter QI with pull-up RC); each of Y0, Y1 = NOT E through a diode DBk from E
+    const b = new NetlistBuilder('Wren-8 enable fan-out');
+    b.rail('VCC', 5);
+    b.model('QN', 'npn', { IS: 1e-14, BF: 50 });
+    b.model('DX', 'd', { IS: 1e-14 });
+    b.resistor('RA', 'A', 'BA', 4700);
+    b.npn('QI', 'E', 'BA', '0', { model: 'QN' });
+    b.resistor('RC', 'VCC', 'E', 2000);
+    for (const k of [0, 1]) {
+      b.diode(`DB${k}`, 'E', `B${k}`, { model: 'DX' });
+      b.resistor(`RB${k}`, `B${k}`, '0', 5000);
+      b.npn(`Q${k}`, `Y${k}`, `B${k}`, '0', { model: 'QN' });
+      b.resistor(`RL${k}`, 'VCC', `Y${k}`, 2000);
+    }
+    const view = extractLogic(b.build());
+    const fn = (name: string) => exprToString(view.nodes.find((n) => n.name === name)!.fn);
+    // neither the other diode's base (an input diode of a gate) nor a constant (an AND of nothing)
+    expect([fn('E'), fn('Y0'), fn('Y1')]).toEqual(['!A', '!E', '!E']);
+    expect(view.inputs).toEqual(['A']);
+  });
 });

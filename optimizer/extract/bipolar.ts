@@ -208,13 +208,19 @@ export class BaseResolver {
       if (pulls.length) {
         const inputs: number[] = [];
         const inputDiodes: number[] = [];
+        let driven = false;
         eachTerminal(cx, p, (d, t) => {
           const dev = cx.nl.devices[d];
           if (dev.kind === 'diode' && t === 0 && !shift.includes(d)) {
             inputDiodes.push(d);
             inputs.push(dev.terminals[1]);
-          }
+          } else if (dev.kind !== 'resistor' && dev.kind !== 'diode' && dev.kind !== 'capacitor') driven = true;
         });
+        // A pulled-up node that a transistor or gate also drives, or that no input diode reads
+        // into, is not a diode gate's node but a signal with its own pull-up (another stage's
+        // output), coupled to the base like any other signal. Read as a gate, its other fan-out
+        // diodes would be inputs, or with none an AND of nothing: a base always on.
+        if (driven || inputDiodes.length === 0) return this.coupledFrom(p, shift, drive);
         drive.levelShiftDiodes = shift;
         drive.inputDiodes = inputDiodes;
         drive.diodePullUp = pulls[0];

@@ -92,12 +92,18 @@ describe('regionOf on DTL bus bits', () => {
   it.each([
     ['a resistor and a diode', 'RE EN X 2.2k\nDB X BE DX'],
     ['a diode gate', 'RP VCC P 2k\nDE P EN DX\nDL1 P M DX\nDL2 M BE DX'],
+    // EN has its own pull-up (QI's collector resistor): a signal, not a diode gate's node
+    ['a level-shift diode straight from the inverter output', 'DB EN BE DX'],
   ])('enable base through %s: the region reads every compared net as the whole design does, and each proposal is proved at 3, 4, 5 and 12 bits', async (_l, base) => {
     for (const n of [3, 4, 5, 12]) {
       const nl = deckNetlist(busBits(n, base));
       const view = extractLogic(nl);
       const whole = new Map(view.nodes.map((x) => [x.name, exprToString(x.fn)]));
-      for (let k = 0; k < n; k++) expect([n, whole.get(`XO${k}.EN`)]).toEqual([n, '!OEN']);
+      for (let k = 0; k < n; k++) {
+        expect([n, whole.get(`XO${k}.EN`)]).toEqual([n, '!OEN']);
+        expect([n, whole.get(`BUS${k}`)]).toEqual([n, `!(D${k} & XO${k}.EN)`]);
+      }
+      expect(view.inputs).toEqual(['OEN', ...Array.from({ length: n }, (_, k) => `D${k}`)].sort());
       const r = await scan(nl, { view });
       const proposals = r.findings.flatMap((f) => f.proposals.map((q) => ({ rule: f.finding.ruleId, q })));
       expect(proposals.map((x) => x.rule).sort()).toEqual(['merge-duplicate-logic', 'shared-control-driver']);
