@@ -109,17 +109,26 @@ function acrossInstances(found: readonly Simplified[]): FindingReport[] {
 }
 
 /**
- * The report as text with its own instance prefix taken off names, and its output net's name
- * (which may be a port net named outside the instance) replaced by one mark; its place left out.
+ * The copy's words (its place left out), edit, margin figures and assumptions as one text, with
+ * its own instance prefix taken off names and its output net's name (which may be a port net
+ * named outside the instance) replaced by one mark.
  * Plain substring replacement: a name that merely contains the prefix can only make two copies
  * look alike, which changes the wording, never the edit (the union of each copy's own edit).
  */
 function relativeKey(f: Simplified): string {
   const prefix = `${f.path.join('.')}.`;
   const strip = (x: string) => x.split(prefix).join('\u0001.').split(f.net).join('\u0002');
-  const { place: _place, ...data } = f.report.data ?? {};
-  const shown = { ...f.report, data, location: { ...f.report.location, instances: undefined } };
-  return JSON.stringify(shown, (_k, v: unknown) => (typeof v === 'string' ? strip(v) : v));
+  const r = f.report;
+  const p = r.proposals[0];
+  const e = p.edit;
+  const { place: _place, ...data } = r.data ?? {};
+  // what the copy is and does: its words, its edit, its margins' figures and its assumptions
+  const parts: (string | number)[] = [r.messageId, ...Object.entries(data).flat(), ...e.removeDevices];
+  for (const m of e.mergeNets) parts.push('m', m.keep, m.remove);
+  for (const d of e.addDevices) parts.push('a', d.name, d.op ?? d.kind, ...d.terminals);
+  for (const m of p.margins ?? []) parts.push('g', m.name, m.value, m.limit, m.status);
+  parts.push('s', ...(p.assumptions ?? []));
+  return parts.map((x) => (typeof x === 'string' ? strip(x) : String(x))).join('\u0000');
 }
 
 function merged(list: readonly Simplified[]): FindingReport {
