@@ -1,5 +1,22 @@
 // Test decks of common-override shared by its rule table and its ngspice check: the Wren-8
-// register slice with its data inputs tied to the rails and a pulsed clear.
+// register slice with its data inputs tied to the rails and a pulsed clear, and the DTL reader
+// the clear-line decks hang on each line.
+import type { NetlistBuilder } from '../netlist/build';
+
+/**
+ * A DTL stage reading line Y inside the current instance: input diode DI from its node P (pulled
+ * up by RP), two level-shift diodes to QR's base (bleed RBL), QR pulling Z (pulled up by RZ).
+ * Needs the models QN (npn) and DN (diode).
+ */
+export function dtlReader(b: NetlistBuilder): void {
+  b.resistor('RP', 'VCC', 'P', 4700);
+  b.diode('DI', 'P', 'Y', { model: 'DN' });
+  b.diode('DL1', 'P', 'M', { model: 'DN' });
+  b.diode('DL2', 'M', 'BR', { model: 'DN' });
+  b.resistor('RBL', 'BR', '0', 5000);
+  b.resistor('RZ', 'VCC', 'Z', 2000);
+  b.npn('QR', 'Z', 'BR', '0', { model: 'QN' });
+}
 
 /**
  * The register slice with its data inputs tied to the rails and a pulsed clear: per bit, QEN

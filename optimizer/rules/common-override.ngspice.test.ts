@@ -13,7 +13,7 @@ import { applied, atCorner, deckOf, levelTable, relativeDiff, roleSign } from '@
 import { commonOverride } from './common-override';
 import { DEFAULT_MARGIN_SETTINGS } from '../margins/defaults';
 import { nmosNodeVolts } from './support/override-margins';
-import { tiedRegister } from './common-override.fixtures';
+import { dtlReader, tiedRegister } from './common-override.fixtures';
 import { deckNetlist, runOne } from './support/rule-test-kit';
 import type { Rule } from './types';
 
@@ -35,19 +35,13 @@ function clearLines(n: number, receiver: 'dtl' | 'rtl'): FlatNetlist {
       b.npn('QD', 'Y', 'BD', '0', { model: 'QN' });
       b.resistor('RK', '/CLR', 'BK', 1000);
       b.npn('QK', 'Y', 'BK', '0', { model: 'QN' });
-      if (receiver === 'dtl') {
-        b.resistor('RP', 'VCC', 'P', 4700);
-        b.diode('DI', 'P', 'Y', { model: 'DN' });
-        b.diode('DL1', 'P', 'M', { model: 'DN' });
-        b.diode('DL2', 'M', 'BR', { model: 'DN' });
-        b.resistor('RBL', 'BR', '0', 5000);
-        b.resistor('RZ', 'VCC', 'Z', 2000);
-      } else {
+      if (receiver === 'dtl') dtlReader(b);
+      else {
         // a sensitive RTL reader: 1k base resistor, 4.7k collector load
         b.resistor('RR', 'Y', 'BR', 1000);
         b.resistor('RZ', 'VCC', 'Z', 4700);
+        b.npn('QR', 'Z', 'BR', '0', { model: 'QN' });
       }
-      b.npn('QR', 'Z', 'BR', '0', { model: 'QN' });
     });
   }
   return b.build();

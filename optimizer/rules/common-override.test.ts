@@ -10,7 +10,7 @@ import { NetlistBuilder } from '../netlist/build';
 import type { FlatNetlist } from '../netlist/ir';
 import { applyProposals } from '../rewrite/apply';
 import { commonOverride } from './common-override';
-import { tiedRegister } from './common-override.fixtures';
+import { dtlReader, tiedRegister } from './common-override.fixtures';
 import { scan } from './scan';
 import { assumption, checkDeckExample, countDelta, deckExamples, deckNetlist, runOne } from './support/rule-test-kit';
 import type { Rule } from './types';
@@ -55,13 +55,7 @@ function bits(n: number, o: Bits = {}): FlatNetlist {
       b.npn('QK', 'Y', 'BK', '0', { model: 'QN' });
       if (o.activeHigh) b.pmos('MP', 'Y', '/LDN', 'VCC', { model: 'PM', bulk: 'VCC' });
       if (o.receiver === 'dtl') {
-        b.resistor('RP', 'VCC', 'P', 4700);
-        b.diode('DI', 'P', 'Y', { model: 'DN' });
-        b.diode('DL1', 'P', 'M', { model: 'DN' });
-        b.diode('DL2', 'M', 'BR', { model: 'DN' });
-        b.resistor('RBL', 'BR', '0', 5000);
-        b.resistor('RZ', 'VCC', 'Z', 2000);
-        b.npn('QR', 'Z', 'BR', '0', { model: 'QN' });
+        dtlReader(b);
       } else if (o.receiver !== 'none') {
         b.resistor('RR', 'Y', 'BR', 4700);
         b.resistor('RZ', 'VCC', 'Z', 1000);
@@ -484,13 +478,7 @@ describe('common-override: switches that are no override (options on by default)
         b.npn('QK', 'Y', 'BK', '0', { model: 'QN' });
         b.resistor('RK2', '/CLR', 'BK2', 4700);
         b.npn('QK2', 'Y', 'BK2', '0', { model: 'QN' });
-        b.resistor('RP', 'VCC', 'P', 4700);
-        b.diode('DI', 'P', 'Y', { model: 'DN' });
-        b.diode('DL1', 'P', 'M', { model: 'DN' });
-        b.diode('DL2', 'M', 'BR', { model: 'DN' });
-        b.resistor('RBL', 'BR', '0', 5000);
-        b.resistor('RZ', 'VCC', 'Z', 2000);
-        b.npn('QR', 'Z', 'BR', '0', { model: 'QN' });
+        dtlReader(b);
       });
     }
     const r = await runOne(rule, b.build());
