@@ -5,12 +5,11 @@ import { extractLogic } from '../extract';
 import { extractEdited } from '../extract/incremental';
 import type { LogicView } from '../extract/types';
 import { combinationalModel, ENABLE_SUFFIX, NEXT_SUFFIX } from '../extract/compose';
-import { and, evaluate, support, v, type Expr } from '../logic/expr';
+import { and, evaluate, v, type Expr } from '../logic/expr';
 import { editSavings, type Savings } from '../cost/cost';
 import { DEFAULT_PARTS_TABLE, type PartsTable } from '../cost/parts-table';
 import type { MarginResult } from '../margins/corners';
 import type { FlatNetlist } from '../netlist/ir';
-import { cutProof } from '../region/cut-proof';
 import { positions, proofKey, type ProofKey } from '../region/proof-key';
 import { applyProposals } from '../rewrite/apply';
 import { checkEquivalence, type EquivResult } from '../verify/equivalence';
@@ -66,8 +65,6 @@ export interface ScanOptions extends RunOptions {
   simulateUpTo?: number;
   partsTable?: PartsTable;
   verifier?: Verifier;
-  /** When a design-wide edit is proved by cut points first (default `never`; see CutMode). */
-  cutProof?: CutMode;
 }
 
 const defaultVerifier: Verifier = (before, after, assumptions) =>
@@ -281,15 +278,11 @@ export function verifyProposal(
   verifier: Verifier = defaultVerifier,
   simulateUpTo = 20_000,
   cache?: ProofCache,
-  how: { cut?: CutMode; wholeDesign?: boolean } = {},
 ): Verification {
-  // Off unless asked: measured on the bench's 1M design, re-extracting the two thirds of the nodes
-  // a design-wide edit touches costs more than composing the whole design (165 s against 150 s).
-  const cut = how.cut ?? 'never';
   const changed = changedNets(before.nl, before.view, p);
   // Work on the changed nets' fan-in cut out of the design, so a proof costs the region's size.
   const seeds = changed.filter((n) => before.view.nodeByNet.has(before.nl.netByName.get(n) ?? -1));
-  const nl = how.wholeDesign ? before.nl : regionOf(before.nl, before.view, seeds, p.edit);
+  const nl = regionOf(before.nl, before.view, seeds, p.edit);
   const after = applyProposals(nl, [p], { share: true });
   const used = assumptions.filter((a) => p.assumptions.includes(a.id));
   let problem: Problem | undefined;
@@ -300,39 +293,13 @@ export function verifyProposal(
     const reused = reuse(hit, key, used, problemNow);
     if (reused) return reused;
   }
-  // A design-wide edit is first proved by cut points (its changed nets one at a time, repeated
-  // slices once); only when that cannot decide is the whole design composed and proved.
-  const cutFirst =
-    nl === before.nl && nl.devices.length > simulateUpTo && (cut === 'always' || (cut === 'auto' && verifier === defaultVerifier && seeds.length > 0));
-  const r = (cutFirst ? cutVerification(before, after, p, changed, used) : undefined) ?? prove(nl, after, problemNow(), used, verifier, simulateUpTo);
+  const r = prove(nl, after, problemNow(), used, verifier, simulateUpTo);
   if (key && !hit && cacheable(r)) {
     const ids = used.map((a) => a.id);
     const assumptionAt = r.assumptions.map((id) => ids.indexOf(id));
     if (!assumptionAt.includes(-1)) cache!.set(key.key, { key, verification: r, assumptionAt });
   }
   return r;
-}
-
-/**
- * When the cut proof tries first: `auto` for a proposal verified on the whole design (its fan-in
- * too large to cut out) with the default verifier and no switch-level check; `always` for any
- * proposal verified on the whole design without the switch-level check (tests compare it with the
- * whole proof, `wholeDesign` skipping the region); `never`.
- */
-export type CutMode = 'auto' | 'always' | 'never';
-
-/**
- * The whole-design proof's verdict when the cut proof proves: every changed net equal before and
- * after whatever the cut points carry, so the whole proof holds with no assumption at all (it
- * drops each in turn, up to eight), by the method its input count picks. Undefined otherwise.
- */
-function cutVerification(before: { nl: FlatNetlist; view: LogicView }, after: FlatNetlist, p: Proposal, changed: string[], used: Assumption[]): Verification | undefined {
-  const assumptionInputs = new Set<string>();
-  for (const a of used) support(a.expr, assumptionInputs);
-  const r = cutProof(before, after, p.edit, changed, { assumptionInputs });
-  if (!r.proved) return undefined;
-  const assumptions = used.length > 8 ? used.map((a) => a.id) : [];
-  return { status: 'proved', method: r.proved.method, assumptions, compared: r.proved.compared, simulatedVectors: 0, note: 'design too large for the switch-level check' };
 }
 
 function prove(nl: FlatNetlist, after: FlatNetlist, problem: Problem, used: Assumption[], verifier: Verifier, simulateUpTo: number): Verification {
@@ -382,7 +349,7 @@ export async function scan(netlist: FlatNetlist, options: ScanOptions = {}): Pro
   const findings = run.findings.map((finding) => ({
     finding,
     proposals: finding.proposals.map((proposal) => {
-      const verification = verifyProposal({ nl: netlist, view }, proposal, assumptions, options.verifier, options.simulateUpTo, proofs, { cut: options.cutProof });
+      const verification = verifyProposal({ nl: netlist, view }, proposal, assumptions, options.verifier, options.simulateUpTo, proofs);
       return {
         proposal,
         verification,
