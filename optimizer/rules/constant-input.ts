@@ -35,6 +35,57 @@ function switchesOn(n: SwitchNetwork, into = new Map<number, Expr>()): Map<numbe
   return into;
 }
 
+/**
+ * Whether substituting the fixed nets could make the switch's condition constant: it holds a
+ * constant, a fixed net, or an empty and/or/xor (the constructors fold only constants, so a tree
+ * with none of these stays non-constant).
+ */
+function mayFold(e: Expr, fixed: ReadonlyMap<string, unknown>): boolean {
+  switch (e.op) {
+    case 'const':
+      return true;
+    case 'var':
+      return fixed.has(e.name);
+    case 'not':
+      return mayFold(e.arg, fixed);
+    case 'and':
+    case 'or':
+    case 'xor':
+      if (e.args.length === 0) return true;
+      for (const a of e.args) if (mayFold(a, fixed)) return true;
+      return false;
+    case 'implies':
+    case 'iff':
+      return mayFold(e.left, fixed) || mayFold(e.right, fixed);
+  }
+}
+
+function networkMayFold(n: SwitchNetwork, fixed: ReadonlyMap<string, unknown>): boolean {
+  if (n.type === 'switch') return mayFold(n.on, fixed);
+  for (const p of n.parts) if (networkMayFold(p, fixed)) return true;
+  return false;
+}
+
+/**
+ * A cheap test that transistorLevel can find nothing in a node: no switch condition folds to a
+ * constant and no base resistor or input diode hangs on a fixed net, so every path survives,
+ * nothing is shorted and nothing can go. Most gates of a design read no fixed net.
+ */
+function readsFixed(nl: RuleContext['netlist'], node: LogicNode, fixed: ReadonlyMap<string, unknown>): boolean {
+  for (const g of node.groups) {
+    if (g.pullDown && networkMayFold(g.pullDown, fixed)) return true;
+    if (g.pullUp && networkMayFold(g.pullUp, fixed)) return true;
+    for (const b of g.bases) {
+      if (b.kind === 'resistor-sum') {
+        for (const r of b.baseResistors) if (fixed.has(nl.nets[r.from].name)) return true;
+      } else if (b.kind === 'diode-and') {
+        for (const d of b.inputDiodes) if (fixed.has(nl.nets[nl.devices[d].terminals[1]].name)) return true;
+      }
+    }
+  }
+  return false;
+}
+
 interface Fixed extends FixedValue {
   why: string;
 }
@@ -68,6 +119,7 @@ export const constantInput = defineRule({
     const found: Simplified[] = [];
     for (const node of view.nodes) {
       if (!['static', 'open-collector', 'wired'].includes(node.kind) || !idx.ownsAlone(node)) continue;
+      if (node.family !== 'gate' && !readsFixed(nl, node, fixed)) continue;
       const one = node.family === 'gate' ? gateLevel(ctx, idx, node, fixed) : transistorLevel(ctx, idx, node, fixed);
       if (one) found.push(one);
     }
@@ -117,7 +169,12 @@ function acrossInstances(found: readonly Simplified[]): FindingReport[] {
  */
 function relativeKey(f: Simplified): string {
   const prefix = `${f.path.join('.')}.`;
-  const strip = (x: string) => x.split(prefix).join('\u0001.').split(f.net).join('\u0002');
+  const net = f.net;
+  // (replaceAll of a plain string is split/join; most parts hold neither name and are kept as they are)
+  const strip = (x: string) => {
+    const y = x.includes(prefix) ? x.replaceAll(prefix, '\u0001.') : x;
+    return y.includes(net) ? y.replaceAll(net, '\u0002') : y;
+  };
   const r = f.report;
   const p = r.proposals[0];
   const e = p.edit;
@@ -164,11 +221,21 @@ function merged(list: readonly Simplified[]): FindingReport {
   };
 }
 
+function sameNames(a: readonly string[], b: readonly string[]): boolean {
+  if (a === b) return true;
+  if (a.length !== b.length) return false;
+  for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return false;
+  return true;
+}
+
 /** The instance all of a gate's parts lie in, with its cell, or none when they span instances. */
 function instanceOf(nl: RuleContext['netlist'], devices: readonly number[]): Pick<Simplified, 'path' | 'cell'> {
   const d0 = nl.devices[devices[0]];
   const key = d0.path.join('.');
-  for (const d of devices) if (nl.devices[d].path.join('.') !== key || nl.devices[d].cell !== d0.cell) return { path: [] };
+  for (const d of devices) {
+    const dev = nl.devices[d];
+    if (dev.cell !== d0.cell || (!sameNames(dev.path, d0.path) && dev.path.join('.') !== key)) return { path: [] };
+  }
   return { path: d0.path, cell: d0.cell };
 }
 

@@ -15,33 +15,38 @@ const LOCKED_SET = { add: { value: frozenMapError }, delete: { value: frozenMapE
  */
 export function deepFreeze<T>(value: T): T {
   if (value === null || typeof value !== 'object' || Object.isFrozen(value)) return value;
+  // The pushes are written out (no helper closure): this loop visits every object of a design.
   const stack: object[] = [value as object];
-  const push = (x: unknown) => {
-    if (x !== null && typeof x === 'object' && !Object.isFrozen(x)) stack.push(x);
-  };
   while (stack.length) {
     const o = stack.pop()!;
     if (Object.isFrozen(o)) continue;
     if (ArrayBuffer.isView(o)) continue; // typed arrays cannot be frozen; the engine never hands them to rules mutable
-    if (o instanceof Map) {
+    if (Array.isArray(o)) {
+      Object.freeze(o);
+      for (let i = 0; i < o.length; i++) {
+        const x: unknown = o[i];
+        if (x !== null && typeof x === 'object' && !Object.isFrozen(x)) stack.push(x);
+      }
+    } else if (o instanceof Map) {
       // Object.freeze does not stop Map methods; shadow them on the instance.
       Object.defineProperties(o, LOCKED_MAP);
       Object.freeze(o);
       for (const [k, v] of o) {
-        push(k);
-        push(v);
+        if (k !== null && typeof k === 'object' && !Object.isFrozen(k)) stack.push(k);
+        if (v !== null && typeof v === 'object' && !Object.isFrozen(v)) stack.push(v);
       }
     } else if (o instanceof Set) {
       Object.defineProperties(o, LOCKED_SET);
       Object.freeze(o);
-      for (const v of o) push(v);
-    } else if (Array.isArray(o)) {
-      Object.freeze(o);
-      for (let i = 0; i < o.length; i++) push(o[i]);
+      for (const v of o) if (v !== null && typeof v === 'object' && !Object.isFrozen(v)) stack.push(v);
     } else {
       Object.freeze(o);
       const rec = o as Record<string, unknown>;
-      for (const key in rec) if (Object.prototype.hasOwnProperty.call(rec, key)) push(rec[key]);
+      for (const key in rec) {
+        if (!Object.prototype.hasOwnProperty.call(rec, key)) continue;
+        const x = rec[key];
+        if (x !== null && typeof x === 'object' && !Object.isFrozen(x)) stack.push(x);
+      }
     }
   }
   return value;

@@ -7,9 +7,10 @@ import type { MapFamily } from '../logic/family-parts';
 import { exactMinimiser, type Minimiser } from '../logic/minimiser';
 import { DEFAULT_MARGIN_SETTINGS, type MarginSettings } from '../margins/defaults';
 import type { FlatNetlist } from '../netlist/ir';
-import { editProblems, overlapOf, touched } from '../rewrite/edits';
+import { editProblems, overlapOf, touched, type Touched } from '../rewrite/edits';
 import { renderMessage } from './define-rule';
 import { deepFreeze } from './freeze';
+import { sealSettings } from './support/driver-margins';
 import { RULES } from './index';
 import type { Assumption, Finding, FindingReport, Rule, RuleContext } from './types';
 
@@ -78,6 +79,8 @@ export async function runRules(netlist: FlatNetlist, view: LogicView, options: R
   deepFreeze(netlist);
   deepFreeze(view);
   const assumptions = deepFreeze([...(options.assumptions ?? [])]);
+  // a frozen copy the rules share, so margin results can be remembered by their inputs
+  const margins = sealSettings(options.margins ?? DEFAULT_MARGIN_SETTINGS);
   const findings: Finding[] = [];
   const ruleErrors: RuleErrorRecord[] = [];
   const usedIds = new Set<string>();
@@ -88,7 +91,7 @@ export async function runRules(netlist: FlatNetlist, view: LogicView, options: R
       netlist,
       view,
       assumptions,
-      margins: options.margins ?? DEFAULT_MARGIN_SETTINGS,
+      margins,
       minimiser: options.minimiser ?? exactMinimiser,
       targetFamily: options.targetFamily ?? 'cmos',
       clockPeriod: options.clockPeriod,
@@ -141,28 +144,60 @@ export async function runRules(netlist: FlatNetlist, view: LogicView, options: R
   return { findings, ruleErrors, overlaps: overlapGraph(findings) };
 }
 
-/** Pairs of proposals that change a common device or net (alternatives of one finding included). */
+/**
+ * Pairs of proposals that change a common device or net (alternatives of one finding included).
+ * Each name touched gets a slot number in the order first met (devices with added names, then
+ * nets, proposal by proposal) and remembers the last proposal that touched it; only a name that a
+ * second proposal touches gets a list. A finding that spans every slice of a large design touches
+ * millions of names, so nothing else is kept per name, and each proposal's touched sets are built
+ * only when it is in a pair. Edges come in the order of the first shared name.
+ */
 export function overlapGraph(findings: Finding[]): OverlapGraph {
   const proposals = findings.flatMap((f) => f.proposals);
-  const sets = proposals.map((p) => touched(p.edit));
-  // Index by touched element so the pair search is linear in practice, not all pairs.
-  const byKey = new Map<string, number[]>();
-  sets.forEach((s, i) => {
-    for (const k of [...[...s.devices, ...s.added].map((d) => `d:${d}`), ...[...s.nets].map((n) => `n:${n}`)]) {
-      const list = byKey.get(k) ?? [];
-      if (list[list.length - 1] !== i) list.push(i);
-      byKey.set(k, list);
+  const devices = new Map<string, number>();
+  const nets = new Map<string, number>();
+  /** Last proposal to touch each slot. */
+  const last: number[] = [];
+  /** Proposals touching a slot, for slots touched by two or more. */
+  const lists = new Map<number, number[]>();
+  const note = (map: Map<string, number>, name: string, i: number): void => {
+    const slot = map.get(name);
+    if (slot === undefined) {
+      map.set(name, last.length);
+      last.push(i);
+    } else if (last[slot] !== i) {
+      let list = lists.get(slot);
+      if (!list) lists.set(slot, (list = [last[slot]]));
+      list.push(i);
+      last[slot] = i;
     }
-  });
-  const pairs = new Set<string>();
+  };
+  for (let i = 0; i < proposals.length; i++) {
+    const e = proposals[i].edit;
+    for (const d of e.removeDevices) note(devices, d, i);
+    for (const r of e.reconnect) note(devices, r.device, i);
+    for (const d of e.addDevices) note(devices, d.name, i);
+    for (const m of e.mergeNets) {
+      note(nets, m.keep, i);
+      note(nets, m.remove, i);
+    }
+  }
+  const sets = new Map<number, Touched>();
+  const setOf = (i: number): Touched => {
+    let t = sets.get(i);
+    if (!t) sets.set(i, (t = touched(proposals[i].edit)));
+    return t;
+  };
+  const pairs = new Set<number>();
   const edges: OverlapGraph['edges'] = [];
-  for (const list of byKey.values()) {
+  for (const slot of [...lists.keys()].sort((a, b) => a - b)) {
+    const list = lists.get(slot)!;
     for (let x = 0; x < list.length; x++) {
       for (let y = x + 1; y < list.length; y++) {
-        const key = `${list[x]}:${list[y]}`;
+        const key = list[x] * proposals.length + list[y];
         if (pairs.has(key)) continue;
         pairs.add(key);
-        const o = overlapOf(sets[list[x]], sets[list[y]]);
+        const o = overlapOf(setOf(list[x]), setOf(list[y]));
         edges.push({ a: proposals[list[x]].id, b: proposals[list[y]].id, ...o });
       }
     }

@@ -9,6 +9,7 @@ import { maxOf, minOf, type MarginResult } from '../../margins/corners';
 import { betaMinOf, type MarginSettings } from '../../margins/defaults';
 import { fanOut } from '../../margins/line';
 import type { FlatNetlist } from '../../netlist/ir';
+import { deepFreeze } from '../freeze';
 import { equivalentBaseResistor, type DriverLoads, type NetIndex } from './net-index';
 
 /** β_min of a transistor from its model (BF derated) or the family default. */
@@ -127,8 +128,74 @@ export function lineLoads(idx: NetIndex, net: number, s: MarginSettings, except:
   return out;
 }
 
-/** Fan-out, and loaded high level / load base current where the line is an RTL resistor pull-up. */
+/**
+ * Settings a scan hands to rules: a deep-frozen copy, recorded so that margin results computed
+ * under it can be remembered by their inputs (frozen settings cannot change under the memo).
+ */
+const sealed = new WeakSet<MarginSettings>();
+const lineMemo = new WeakMap<MarginSettings, Map<string, MarginResult[]>>();
+/** Bound on remembered lines per settings object (a design has a few kinds of line). */
+const LINE_MEMO_MAX = 4096;
+
+export function sealSettings(s: MarginSettings): MarginSettings {
+  if (sealed.has(s)) return s;
+  const copy = deepFreeze(structuredClone(s));
+  sealed.add(copy);
+  return copy;
+}
+
+const num = (x: number | undefined): string => (x === undefined ? 'u' : Object.is(x, -0) ? '-0' : String(x));
+
+/**
+ * Everything lineMargins reads of a driver and its loads, as text: the family, the driver's
+ * resistor pull-up and rail, the load count, and the base loads' count and worst figures.
+ */
+function lineKey(driver: LogicNode | undefined, loads: LineLoad[], family: MapFamily, s: MarginSettings): string {
+  const head = `${family}|${loads.length}|`;
+  if (!driver) return `${head}-`;
+  const rc = driver.pullUp?.kind === 'resistor' ? driver.pullUp.ohms : undefined;
+  let bases = 0;
+  let rb = Infinity;
+  let withLoad = 0;
+  let loadPullUp = Infinity;
+  let beta = Infinity;
+  for (const l of loads) {
+    if (l.rb === undefined) continue;
+    bases++;
+    rb = Math.min(rb, l.rb);
+    if (l.loadPullUp !== undefined) {
+      withLoad++;
+      loadPullUp = Math.min(loadPullUp, l.loadPullUp);
+      beta = Math.min(beta, l.betaMin ?? s.defaultBetaMin);
+    }
+  }
+  return `${head}${num(rc)}|${num(driver.pullUp?.railVolts)}|${bases}|${num(rb)}|${withLoad}|${num(loadPullUp)}|${num(beta)}`;
+}
+
+function copyMargin(m: MarginResult): MarginResult {
+  return { ...m, corner: { ...m.corner }, ...(m.inputs ? { inputs: { ...m.inputs } } : {}) } as MarginResult;
+}
+
+/**
+ * Fan-out, and loaded high level / load base current where the line is an RTL resistor pull-up.
+ * Under sealed settings the results are remembered by lineKey (a scan checks the same kind of
+ * line in every slice) and each call gets its own copies.
+ */
 export function lineMargins(driver: LogicNode | undefined, loads: LineLoad[], family: MapFamily, s: MarginSettings): MarginResult[] {
+  if (!sealed.has(s)) return computeLineMargins(driver, loads, family, s);
+  let memo = lineMemo.get(s);
+  if (!memo) lineMemo.set(s, (memo = new Map()));
+  const key = lineKey(driver, loads, family, s);
+  let hit = memo.get(key);
+  if (!hit) {
+    hit = computeLineMargins(driver, loads, family, s);
+    if (memo.size >= LINE_MEMO_MAX) memo.clear();
+    memo.set(key, hit);
+  }
+  return hit.map(copyMargin);
+}
+
+function computeLineMargins(driver: LogicNode | undefined, loads: LineLoad[], family: MapFamily, s: MarginSettings): MarginResult[] {
   const out: MarginResult[] = [fanOut({ loads: loads.length, family }, s)];
   if (!driver) {
     out[0] = { ...out[0], note: `${out[0].note}; the line is driven from outside this design — check its driver's data sheet` };
