@@ -6,6 +6,7 @@
 // minimiser, so it is outside both timings).
 // Run: npx tsx optimizer/logic/espresso/bench-minimise.ts [--runs N]   (npm run bench prints it too)
 import { createRequire } from 'node:module';
+import os from 'node:os';
 import { and, not, or, v } from '../expr';
 import { complementTable, fromExprs, type TruthTable } from '../truth-table';
 import { mapCover } from '../map-family';
@@ -31,36 +32,30 @@ function structured(n: number, terms: number, seed: number): TruthTable {
   return fromExprs(inputs, [{ name: 'F', fn }]);
 }
 
-/** Processor time of this process so far (ms). */
+/** Processor time of this process so far (ms), every thread of it (the collector's and compiler's too). */
 const cpuMs = () => {
   const u = process.cpuUsage();
   return (u.user + u.system) / 1000;
 };
 
 /**
- * Sizes measured: functions per batch and repetitions. Every repetition times both sides back to
- * back, in alternating order, so a burst of other work on a shared machine lands on both alike;
- * the best repetition of each side is kept.
+ * Sizes measured: functions per batch, and rounds. Every round times both sides on the same
+ * functions, interleaved in alternating order, so a burst of other work on a shared machine lands
+ * on both alike; each round gives one overhead figure and the table reports their median and range.
  */
 const SIZES = [
-  { n: 8, batch: 64, reps: 24 },
-  { n: 10, batch: 32, reps: 12 },
-  { n: 12, batch: 8, reps: 7 },
-  { n: 14, batch: 3, reps: 7 },
+  { n: 8, batch: 64, rounds: 15 },
+  { n: 10, batch: 32, rounds: 11 },
+  { n: 12, batch: 8, rounds: 9 },
+  { n: 14, batch: 3, rounds: 7 },
 ];
 
-interface Times {
-  cpu: number;
-  wall: number;
-}
-
-const timed = async (f: () => unknown | Promise<unknown>, childCpu: () => number = () => 0): Promise<Times> => {
+/** Processor time of `f` (ms): this process's, plus the child's for our side. */
+const timed = async (f: () => unknown | Promise<unknown>, childCpu: () => number = () => 0): Promise<number> => {
   const ch0 = childCpu();
   const c0 = cpuMs();
-  const w0 = performance.now();
   await f();
-  const wall = performance.now() - w0;
-  return { cpu: cpuMs() - c0 + (childCpu() - ch0), wall };
+  return cpuMs() - c0 + (childCpu() - ch0);
 };
 
 interface Pla {
@@ -96,60 +91,66 @@ function check(outcomes: Awaited<ReturnType<typeof ours>>): void {
   }
 }
 
-/** Best (least) of each measure over the repetitions. */
-class Best {
-  cpu = Infinity;
-  wall = Infinity;
-  keep(t: Times): void {
-    this.cpu = Math.min(this.cpu, t.cpu);
-    this.wall = Math.min(this.wall, t.wall);
-  }
+interface Round {
+  bare: number;
+  ours: number;
+  aloneBare: number;
+  alone: number;
 }
 
-async function measure(m: EspressoMinimiser, n: number, batch: number, reps: number): Promise<string[]> {
+const median = (xs: number[]) => {
+  const s = [...xs].sort((a, b) => a - b);
+  return s.length % 2 ? s[(s.length - 1) / 2] : (s[s.length / 2 - 1] + s[s.length / 2]) / 2;
+};
+
+/**
+ * One round: the batch on both sides (one minimiseMany against the native calls in a loop), then
+ * every function alone on both sides (its own minimiseMany against its own pair of native calls),
+ * processor time summed over the batch. Our side counts this process and the child.
+ */
+async function round(m: EspressoMinimiser, tables: readonly TruthTable[], plas: readonly Pla[], r: number): Promise<Round> {
+  const childCpu = () => m.pool.childCpuMicros / 1000;
+  const t: Round = { bare: 0, ours: 0, aloneBare: 0, alone: 0 };
+  const batchBare = async () => (t.bare = await timed(() => bare(plas)));
+  const batchOurs = async () => (t.ours = await timed(async () => check(await ours(m, tables)), childCpu));
+  for (const step of r % 2 ? [batchOurs, batchBare] : [batchBare, batchOurs]) await step();
+  for (let k = 0; k < tables.length; k++) {
+    const b = async () => (t.aloneBare += await timed(() => bare(plas.slice(k, k + 1))));
+    const o = async () => {
+      let answer: Awaited<ReturnType<typeof ours>> = [];
+      t.alone += await timed(async () => (answer = await ours(m, tables.slice(k, k + 1))), childCpu);
+      check(answer);
+    };
+    for (const step of (r + k) % 2 ? [o, b] : [b, o]) await step();
+  }
+  return t;
+}
+
+async function measure(m: EspressoMinimiser, n: number, batch: number, rounds: number): Promise<string[]> {
   const tables = Array.from({ length: batch }, (_, k) => structured(n, n, 7 + n + 1000 * k));
   const plas = tables.map((t) => ({ on: buildPla(t.outputs[0], n), off: buildPla(complementTable(t).outputs[0], n) }));
   const terms = native.minimize(plas[0].on).length;
-  const childCpu = () => m.pool.childCpuMicros / 1000;
-  const best = { bare: new Best(), ours: new Best(), aloneBare: new Best(), alone: new Best() };
-  for (let r = 0; r < reps; r++) {
-    // The batch as a scan sends it: one round trip for every function.
-    const pair = [async () => best.bare.keep(await timed(() => bare(plas))), async () => best.ours.keep(await timed(async () => check(await ours(m, tables)), childCpu))];
-    for (const step of r % 2 ? pair.reverse() : pair) await step();
-    // Alone: every function in a round trip of its own (a scan of a small design sends one block),
-    // each against its own bare pair of calls, summed over the batch.
-    const sum = { bare: { cpu: 0, wall: 0 }, ours: { cpu: 0, wall: 0 } };
-    for (let k = 0; k < batch; k++) {
-      const b = async () => {
-        const t = await timed(() => bare(plas.slice(k, k + 1)));
-        sum.bare.cpu += t.cpu;
-        sum.bare.wall += t.wall;
-      };
-      const o = async () => {
-        let answer: Awaited<ReturnType<typeof ours>> = [];
-        const t = await timed(async () => (answer = await ours(m, tables.slice(k, k + 1))), childCpu);
-        check(answer);
-        sum.ours.cpu += t.cpu;
-        sum.ours.wall += t.wall;
-      };
-      for (const step of (r + k) % 2 ? [o, b] : [b, o]) await step();
-    }
-    best.aloneBare.keep(sum.bare);
-    best.alone.keep(sum.ours);
-  }
-  const pct = (a: number, b: number) => (((a - b) / b) * 100).toFixed(0);
+  // One untimed round first: both sides' code is compiled and the child has run this size.
+  await round(m, tables, plas, 1);
+  const all: Round[] = [];
+  for (let r = 0; r < rounds; r++) all.push(await round(m, tables, plas, r));
+  const pct = (x: number) => `${x.toFixed(0)}`;
+  const spread = (xs: number[]) => `${pct(Math.min(...xs))}..${pct(Math.max(...xs))}`;
+  const batched = all.map((x) => (x.ours / x.bare - 1) * 100);
+  const alone = all.map((x) => (x.alone / x.aloneBare - 1) * 100);
   return [
     String(n),
     String(batch),
     String(terms),
-    (best.bare.cpu / batch).toFixed(2),
-    (best.ours.cpu / batch).toFixed(2),
-    pct(best.ours.cpu, best.bare.cpu),
-    pct(best.alone.cpu, best.aloneBare.cpu),
-    (best.bare.wall / batch).toFixed(2),
-    (best.ours.wall / batch).toFixed(2),
-    pct(best.ours.wall, best.bare.wall),
-    pct(best.alone.wall, best.aloneBare.wall),
+    String(rounds),
+    (median(all.map((x) => x.bare)) / batch).toFixed(2),
+    (median(all.map((x) => x.ours)) / batch).toFixed(2),
+    pct(median(batched)),
+    spread(batched),
+    (median(all.map((x) => x.aloneBare)) / batch).toFixed(2),
+    (median(all.map((x) => x.alone)) / batch).toFixed(2),
+    pct(median(alone)),
+    spread(alone),
   ];
 }
 
@@ -157,28 +158,32 @@ async function main() {
   const at = process.argv.indexOf('--runs');
   const runs = at > 0 ? Math.max(1, Number(process.argv[at + 1]) || 1) : 1;
   const m = createEspressoMinimiser({ size: 1 });
-  const header = ['inputs', 'batch', 'terms', 'bare cpu ms/fn', 'ours cpu ms/fn', 'overhead cpu %', 'alone cpu %', 'bare wall ms/fn', 'ours wall ms/fn', 'overhead wall %', 'alone wall %'];
+  const header = ['inputs', 'batch', 'terms', 'rounds', 'bare ms/fn', 'ours ms/fn', 'overhead %', 'range %', 'alone bare ms/fn', 'alone ours ms/fn', 'alone %', 'alone range %'];
   const rows: string[][] = [header];
+  const loads: string[] = [];
   try {
     await m.minimiseCover(structured(6, 2, 1)); // start the child outside the timings
     for (let run = 1; run <= runs; run++) {
-      for (const { n, batch, reps } of SIZES) rows.push(await measure(m, n, batch, reps));
+      const before = os.loadavg()[0].toFixed(1);
+      for (const { n, batch, rounds } of SIZES) rows.push(await measure(m, n, batch, rounds));
+      loads.push(`run ${run}: load average ${before} before, ${os.loadavg()[0].toFixed(1)} after`);
       if (run < runs) rows.push(header.map(() => ''));
     }
   } finally {
     m.close();
   }
-  console.log('per function (function and complement minimised), best of several repetitions; each repetition times');
-  console.log('both sides back to back, in alternating order. bare: the two native Espresso calls in-process on ready');
-  console.log('PLA lines. ours: complement, table checks, name-free cache key, the round trip to the child process');
-  console.log('(which writes the PLA text), parsing and the check of each cover against the truth table; cpu counts');
-  console.log('this process and the child. batch: the distinct functions of a size in one minimiseMany call, as a');
-  console.log('scan sends its blocks. alone: each function in a call of its own, as a scan of a small design sends');
-  console.log('its one block; the goal (overhead under 30 %) is meant for it too, in processor time. Its overhead is');
-  console.log('mostly the fixed cost of one round trip (two process wake-ups: ~0.1 ms of processor time on a quiet');
-  console.log('machine, several times that under heavy load), against ~0.7 ms of Espresso work for an 8-input function.');
-  console.log('The wall columns add the waits for a processor, which on a shared machine depend on its other load.');
-  if (runs > 1) console.log(`${runs} runs, one after another:`);
+  console.log('Processor time per function (function and complement minimised), this process and the child, the');
+  console.log('median of several rounds after one untimed warm-up round; each round times both sides on the same');
+  console.log('functions, interleaved in alternating order, and "range" is the least and greatest overhead of a');
+  console.log('round. bare: the two native Espresso calls in-process on ready PLA lines. ours: complement, table');
+  console.log('checks, name-free cache key, the round trip to the child process (framed binary messages on its');
+  console.log('stdin and stdout; the child writes the PLA text from the table words), parsing and the check of');
+  console.log('each cover against the truth table. batch: the distinct functions of a size in one minimiseMany');
+  console.log('call, as a scan sends its blocks. alone: each function in a call of its own, as a scan of a small');
+  console.log('design sends its one block; its overhead is mostly the fixed cost of one round trip (each process');
+  console.log('woken once), which grows with the machine\'s other load. Goal: overhead under 30 % at 8–14 inputs,');
+  console.log('batched and alone.');
+  for (const l of loads) console.log(l);
   const widths = header.map((_, c) => Math.max(...rows.map((r) => r[c].length)));
   for (const r of rows) console.log(r.map((x, c) => x.padStart(widths[c])).join('  '));
 }

@@ -25,14 +25,23 @@ function digitsFor(n) {
   return digits;
 }
 
-/** Little-endian 32-bit words from base64 text, exactly `count` of them, or an error. */
-function decodeWords(text, count, what) {
-  if (typeof text !== 'string') throw new Error(`the ${what} words are missing`);
-  const buf = Buffer.from(text, 'base64');
+/**
+ * Little-endian 32-bit words, exactly `count` of them, or an error: from the bytes the pool frames
+ * (a Buffer or Uint8Array), from base64 text, or as words already (a Uint32Array).
+ */
+function decodeWords(data, count, what) {
+  if (data instanceof Uint32Array) {
+    if (data.length !== count) throw new Error(`the ${what} words are ${data.length * 4} bytes, expected ${count * 4}`);
+    return data;
+  }
+  let buf;
+  if (typeof data === 'string') buf = Buffer.from(data, 'base64');
+  else if (data instanceof Uint8Array) buf = data;
+  else throw new Error(`the ${what} words are missing`);
   if (buf.length !== count * 4) throw new Error(`the ${what} words are ${buf.length} bytes, expected ${count * 4}`);
   const words = new Uint32Array(count);
   if (LITTLE_ENDIAN) new Uint8Array(words.buffer).set(buf);
-  else for (let w = 0; w < count; w++) words[w] = buf.readUInt32LE(w * 4);
+  else for (let w = 0; w < count; w++) words[w] = (buf[4 * w] | (buf[4 * w + 1] << 8) | (buf[4 * w + 2] << 16) | (buf[4 * w + 3] << 24)) >>> 0;
   return words;
 }
 
@@ -73,8 +82,9 @@ function writeRows(buf, at, words, n, mark) {
 
 /**
  * Type-fd PLA text (lines joined by "\n", ".e" last) of a table payload { n, on, dc } (words as
- * base64, little-endian). Throws on anything but a well-formed table with at least one on-set
- * minterm and no minterm both on and don't-care, so the native code only sees text written here.
+ * little-endian bytes or base64 text, or a Uint32Array). Throws on anything but a well-formed
+ * table with at least one on-set minterm and no minterm both on and don't-care, so the native
+ * code only sees text written here.
  * One string, not a line per row: the native bridge copies and writes each array element
  * separately, and the file it reads back is the same either way.
  */

@@ -135,21 +135,15 @@ export function parseCubes(lines: string[], n: number): Cover {
 
 const isBlank = (c: number) => c === SPACE || c === 9 || c === NL || c === 13;
 
-/** One output as the child takes it: input count and the on-set and don't-care words (base64, little-endian). */
+/**
+ * One output as the child takes it: input count and the on-set and don't-care words (a copy of the
+ * table's, sent as little-endian bytes; base64 text of those bytes is taken too).
+ */
 export interface TablePayload {
   n: number;
-  on: string;
-  dc: string;
+  on: Uint32Array | string;
+  dc: Uint32Array | string;
 }
-
-const LITTLE_ENDIAN = new Uint8Array(Uint32Array.of(1).buffer)[0] === 1;
-
-const wordsBase64 = (set: Uint32Array): string => {
-  if (LITTLE_ENDIAN) return Buffer.from(set.buffer, set.byteOffset, set.byteLength).toString('base64');
-  const buf = Buffer.allocUnsafe(set.length * 4);
-  for (let w = 0; w < set.length; w++) buf.writeUInt32LE(set[w], w * 4);
-  return buf.toString('base64');
-};
 
 /**
  * The table of one non-constant output, checked before it is sent: the child writes the PLA rows
@@ -170,5 +164,6 @@ export function tablePayload(out: OutputTable, n: number): TablePayload | string
   }
   // A PLA with no product rows corrupts the next call inside the native code.
   if (any === 0) return 'a PLA with no on-set rows is never sent (the function is constant)';
-  return { n, on: wordsBase64(out.on), dc: wordsBase64(out.dc) };
+  // Copies: what was checked is what is sent, whatever the caller does with its table meanwhile.
+  return { n, on: out.on.slice(), dc: out.dc.slice() };
 }

@@ -2,14 +2,14 @@
 // code is synchronous, may exit() on bad input and cannot share a process between threads, so
 // each batch of PLAs goes to a child of its own: queued, timed out per PLA (the child is killed),
 // and a child that dies or errs is replaced before it serves anything else.
-import { fork, type ChildProcess } from 'node:child_process';
+import { spawn, type ChildProcessByStdio } from 'node:child_process';
 import path from 'node:path';
-import type { TablePayload } from './pla';
+import type { Readable, Writable } from 'node:stream';
+import { encodeRequest, FrameError, ReplyReader, type PlaItem, type Reply } from './frames';
+
+export type { PlaItem } from './frames';
 
 export const WORKER_PATH = path.join(__dirname, 'worker.cjs');
-
-/** What the child minimises: PLA text (lines joined by "\n") or a checked table it writes the rows of. */
-export type PlaItem = string | TablePayload;
 
 /** Rough work of one item, for sharing a batch between children. */
 const weight = (item: PlaItem) => (typeof item === 'string' ? item.length : (item.n + 3) * 2 ** item.n);
@@ -48,7 +48,7 @@ interface Job {
 }
 
 interface Slot {
-  proc: ChildProcess;
+  proc: ChildProcessByStdio<Writable, Readable, Readable>;
   job?: Job;
   timer?: NodeJS.Timeout;
   stderr: string;
@@ -56,7 +56,7 @@ interface Slot {
   cpu: number;
 }
 
-/** Slack on a batch's timer: the child reports finished answers at least this often (worker.cjs). */
+/** Slack on a batch's timer: the child reports finished answers at least this often (child-frames.cjs). */
 const FLUSH_SLACK_MS = 100;
 
 /** Children in a row that may die on one request without answering anything before the rest of it fails too. */
@@ -67,14 +67,17 @@ export interface PoolOptions {
   size?: number;
   /** Default per-request kill timeout. */
   timeoutMs?: number;
-  /** Script to fork (tests substitute a misbehaving one). */
+  /** Script the children run (tests substitute a misbehaving one). */
   workerPath?: string;
+  /** Node options for the children (a profiler's, say); none by default. */
+  execArgv?: string[];
 }
 
 export class EspressoPool {
   private readonly size: number;
   private readonly defaultTimeout: number;
   private readonly workerPath: string;
+  private readonly execArgv: string[];
   private readonly slots = new Set<Slot>();
   private readonly queue: Job[] = [];
   private nextId = 1;
@@ -90,6 +93,7 @@ export class EspressoPool {
     this.size = Math.max(1, options.size ?? 2);
     this.defaultTimeout = options.timeoutMs ?? 10_000;
     this.workerPath = options.workerPath ?? WORKER_PATH;
+    this.execArgv = options.execArgv ?? [];
   }
 
   /** Sends PLA lines (already validated by the caller) and resolves with the cube lines. */
@@ -196,7 +200,8 @@ export class EspressoPool {
       return;
     }
     while (this.queue.length > 0) {
-      let slot = [...this.slots].find((s) => !s.job);
+      let slot: Slot | undefined;
+      for (const s of this.slots) if (!s.job) slot ??= s;
       if (!slot && this.slots.size < this.size) slot = this.spawn();
       if (!slot) return;
       const job = this.queue.shift()!;
@@ -205,15 +210,27 @@ export class EspressoPool {
   }
 
   private spawn(): Slot {
-    // execArgv empty: the worker is plain CommonJS and must not inherit a TypeScript loader.
-    const proc = fork(this.workerPath, [], { execArgv: [], stdio: ['ignore', 'ignore', 'pipe', 'ipc'], serialization: 'json' });
+    // Bare node with no inherited options: the worker is plain CommonJS and must not inherit a
+    // TypeScript loader. Requests and replies are binary frames on its stdin and stdout (frames.ts).
+    const proc = spawn(process.execPath, [...this.execArgv, this.workerPath], { stdio: ['pipe', 'pipe', 'pipe'] });
     this.spawned++;
     const slot: Slot = { proc, stderr: '', cpu: 0 };
     this.slots.add(slot);
-    proc.stderr?.on('data', (chunk: Buffer) => {
+    proc.stderr.on('data', (chunk: Buffer) => {
       slot.stderr = (slot.stderr + chunk.toString('utf8')).slice(-2000);
     });
-    proc.on('message', (msg: Reply) => this.onReply(slot, msg));
+    const reader = new ReplyReader((reply) => this.onReply(slot, reply));
+    proc.stdout.on('data', (chunk: Buffer) => {
+      if (!this.slots.has(slot)) return;
+      try {
+        reader.push(chunk);
+      } catch (err) {
+        if (!(err instanceof FrameError)) throw err;
+        this.onBadFrame(slot, err.message);
+      }
+    });
+    // A write to a child that has just died fails here; its 'close' reports the death.
+    proc.stdin.on('error', () => {});
     const onGone = (code: number | null, signal: NodeJS.Signals | null) => {
       if (!this.slots.has(slot)) return;
       const job = slot.job;
@@ -232,25 +249,37 @@ export class EspressoPool {
       }
       this.dispatch();
     };
-    proc.on('exit', onGone);
+    // 'close' rather than 'exit': it comes after the last of stdout and stderr is read, so answers
+    // written just before a crash are kept and the crash message is whole.
+    proc.on('close', onGone);
     proc.on('error', () => onGone(null, null));
-    this.idle(slot);
+    // An idle child must not keep the host process alive (a CLI run ends when its work does);
+    // while a job runs, its kill timer does.
+    proc.unref();
+    for (const stream of [proc.stdin, proc.stdout, proc.stderr]) (stream as unknown as { unref?: () => void }).unref?.();
     return slot;
+  }
+
+  /** A reply that cannot be read leaves the stream out of step: the child is replaced. */
+  private onBadFrame(slot: Slot, detail: string): void {
+    const job = slot.job;
+    this.retire(slot);
+    if (job) this.failUnknown(job, new MinimiserError('rejected', `the minimiser rejected its input: a malformed answer (${detail})`));
+    this.dispatch();
   }
 
   private onReply(slot: Slot, msg: Reply): void {
     const job = slot.job;
-    if (!job || !msg || msg.id !== job.id) return;
-    if (typeof msg.cpu === 'number' && msg.cpu >= slot.cpu) {
+    if (!job || msg.id !== job.id) return;
+    if (msg.cpu >= slot.cpu) {
       this.childCpuMicros += msg.cpu - slot.cpu;
       slot.cpu = msg.cpu;
     }
-    // Answers arrive in order; a reply without `from` answers the whole batch at once.
-    const from = typeof msg.from === 'number' ? msg.from : 0;
-    const cubes = Array.isArray(msg.cubes) ? msg.cubes : [];
-    const wellFormed = from === job.got && from + cubes.length <= job.items.length && cubes.every((c) => typeof c === 'string');
+    // Answers arrive in order, each reply continuing where the last one stopped.
+    const { from, cubes } = msg;
+    const wellFormed = from === job.got && from + cubes.length <= job.items.length;
     if (wellFormed) {
-      cubes.forEach((c, i) => this.answer(job.req, job.items[from + i], c as string));
+      for (let i = 0; i < cubes.length; i++) this.answer(job.req, job.items[from + i], cubes[i]);
       job.got = from + cubes.length;
       if (cubes.length) job.req.crashes = 0;
     }
@@ -286,43 +315,21 @@ export class EspressoPool {
   private start(slot: Slot, job: Job): void {
     slot.job = job;
     slot.stderr = '';
-    slot.proc.ref();
-    (slot.proc.channel as { ref?: () => void } | undefined)?.ref?.();
     this.arm(slot, job);
     this.sent += job.items.length;
-    slot.proc.send({ id: job.id, batch: job.items.map((k) => job.req.texts[k]) });
+    slot.proc.stdin.write(encodeRequest(job.id, job.items.map((k) => job.req.texts[k])));
   }
 
   private finish(slot: Slot): void {
     if (slot.timer) clearTimeout(slot.timer);
     slot.timer = undefined;
     slot.job = undefined;
-    this.idle(slot);
-  }
-
-  /** An idle child must not keep the host process alive (a CLI run ends when its work does). */
-  private idle(slot: Slot): void {
-    slot.proc.unref();
-    (slot.proc.channel as { unref?: () => void } | undefined)?.unref?.();
   }
 
   private retire(slot: Slot): void {
     if (!this.slots.delete(slot)) return;
     if (slot.timer) clearTimeout(slot.timer);
     slot.job = undefined;
-    slot.proc.removeAllListeners('message');
     if (slot.proc.exitCode === null && slot.proc.signalCode === null) slot.proc.kill('SIGKILL');
   }
-}
-
-/** A message from the child (worker.cjs); older children answer a whole batch in one `cubes`. */
-interface Reply {
-  id: number;
-  ok: boolean;
-  from?: number;
-  cubes?: unknown[];
-  done?: boolean;
-  at?: number;
-  error?: string;
-  cpu?: number;
 }
