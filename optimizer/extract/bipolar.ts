@@ -88,11 +88,30 @@ function emitterGrounded(cx: ExtractContext, net: number): boolean {
 const scratchInputs: number[] = [];
 const scratchResistors: BaseDrive['baseResistors'] = [];
 const scratchDevices: number[] = [];
+/** The terms of a base's OR, read into `on` before resolve returns. */
+const scratchTerms: Expr[] = [];
 
 export class BaseResolver {
   private readonly cache: (BaseDrive | undefined)[];
   /** Nets absorbed into base networks (DTL diode nodes): part of a gate, not signals. */
   readonly absorbed = new Set<number>();
+  /**
+   * The one drive transient() fills, again and again. A drive per call would be garbage at once,
+   * and once an extraction has kept a million of them the engine allocates that kind of object
+   * straight in the long-lived heap, where only a full collection frees it.
+   */
+  private readonly spare: BaseDrive = {
+    transistor: -1,
+    kind: 'direct',
+    inputs: scratchInputs,
+    on: TRUE,
+    baseResistors: scratchResistors,
+    inputDiodes: NONE,
+    levelShiftDiodes: NONE,
+    devices: scratchDevices,
+    diodePullUp: undefined,
+    bleed: undefined,
+  };
   constructor(private readonly cx: ExtractContext) {
     this.cache = new Array(cx.nl.devices.length);
   }
@@ -100,7 +119,16 @@ export class BaseResolver {
   drive(transistor: number): BaseDrive {
     let hit = this.cache[transistor];
     if (!hit) {
-      hit = this.resolve(transistor);
+      hit = this.resolve(transistor, {
+        transistor,
+        kind: 'direct',
+        inputs: scratchInputs,
+        on: TRUE,
+        baseResistors: scratchResistors,
+        inputDiodes: NONE,
+        levelShiftDiodes: NONE,
+        devices: scratchDevices,
+      });
       hit.inputs = fit(hit.inputs);
       hit.baseResistors = fit(hit.baseResistors);
       hit.devices = fit(hit.devices);
@@ -115,31 +143,36 @@ export class BaseResolver {
    * compiles it), so a million transistors leave no million cached drives behind.
    */
   transient(transistor: number): BaseDrive {
-    return this.cache[transistor] ?? this.resolve(transistor);
+    const hit = this.cache[transistor];
+    if (hit) return hit;
+    const d = this.spare;
+    d.transistor = transistor;
+    d.kind = 'direct';
+    d.inputs = scratchInputs;
+    d.on = TRUE;
+    d.baseResistors = scratchResistors;
+    d.inputDiodes = NONE;
+    d.levelShiftDiodes = NONE;
+    d.devices = scratchDevices;
+    d.diodePullUp = undefined;
+    d.bleed = undefined;
+    return this.resolve(transistor, d);
   }
 
-  private resolve(transistor: number): BaseDrive {
+  /** Fills `drive` (its lists the shared scratch ones) with the transistor's base drive. */
+  private resolve(transistor: number, drive: BaseDrive): BaseDrive {
     const cx = this.cx;
     const base = cx.nl.devices[transistor].terminals[B];
     // The lists are gathered in shared scratch arrays; drive() keeps exact-size copies.
     scratchInputs.length = 0;
     scratchResistors.length = 0;
     scratchDevices.length = 0;
-    const drive: BaseDrive = {
-      transistor,
-      kind: 'direct',
-      inputs: scratchInputs,
-      on: TRUE,
-      baseResistors: scratchResistors,
-      inputDiodes: NONE,
-      levelShiftDiodes: NONE,
-      devices: scratchDevices,
-    };
     if (isRail(cx, base)) {
       drive.on = { op: 'const', value: isHighRail(cx, base) ? 1 : 0 };
       return drive;
     }
-    const terms: Expr[] = [];
+    const terms = scratchTerms;
+    terms.length = 0;
     let direct = false;
     let diodeAnd = false;
     // a plain loop over the terminal index: a closure here would be allocated per transistor

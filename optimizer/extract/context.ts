@@ -3,6 +3,7 @@
 import type { Diagnostic } from '../errors';
 import type { FlatNetlist } from '../netlist/ir';
 import { c, v, type Expr } from '../logic/expr';
+import { OWN_BUFFERS, type TypedAlloc } from '../netlist/typed-arena';
 
 export interface ExtractContext {
   nl: FlatNetlist;
@@ -23,19 +24,21 @@ export interface ExtractContext {
   steering?: Uint8Array;
 }
 
-export function makeContext(nl: FlatNetlist): ExtractContext {
+/** @param alloc where the index's arrays come from (the switch model passes its build arena) */
+export function makeContext(nl: FlatNetlist, alloc: TypedAlloc = OWN_BUFFERS): ExtractContext {
   const nNets = nl.nets.length;
   const devices = nl.devices;
-  const counts = new Int32Array(nNets + 1);
+  const counts = alloc.i32(nNets + 1);
   for (let di = 0; di < devices.length; di++) {
     const ts = devices[di].terminals;
     for (let ti = 0; ti < ts.length; ti++) counts[ts[ti] + 1]++;
   }
   for (let i = 0; i < nNets; i++) counts[i + 1] += counts[i];
   const offsets = counts;
-  const fill = counts.slice(0, nNets);
-  const termDev = new Int32Array(offsets[nNets]);
-  const termIdx = new Int8Array(offsets[nNets]);
+  const fill = alloc.i32(nNets);
+  fill.set(counts.subarray(0, nNets));
+  const termDev = alloc.i32(offsets[nNets]);
+  const termIdx = alloc.i8(offsets[nNets]);
   for (let di = 0; di < devices.length; di++) {
     const ts = devices[di].terminals;
     for (let ti = 0; ti < ts.length; ti++) {
@@ -44,7 +47,7 @@ export function makeContext(nl: FlatNetlist): ExtractContext {
       termIdx[at] = ti;
     }
   }
-  const railVolts = new Float64Array(nNets).fill(NaN);
+  const railVolts = alloc.f64(nNets).fill(NaN);
   for (const r of nl.rails) railVolts[r.net] = r.volts;
   return { nl, offsets, termDev, termIdx, railVolts, diagnostics: [], vars: new Array(nNets) };
 }

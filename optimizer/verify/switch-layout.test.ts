@@ -3,7 +3,9 @@
 import { describe, expect, it } from 'vitest';
 import { generateBitSliced } from '../netlist/generate';
 import { flatten } from '../netlist/flatten';
-import { buildSwitchModel, OP_END, OP_NET } from './switch-model';
+import { arenaBytes, buildSwitchModel, OP_END, OP_NET } from './switch-model';
+import { TypedArena } from '../netlist/typed-arena';
+import { SwitchSimulator } from './switch-sim';
 
 const design = (family: 'rtl' | 'cmos') => flatten(generateBitSliced({ slices: 6, family }));
 
@@ -44,6 +46,19 @@ describe('switch model layout', () => {
         }
         expect(listed).toEqual(expected);
       }
+    });
+  }
+
+  for (const family of ['rtl', 'cmos'] as const) {
+    it(`${family}: the model's tables and the simulator's state fit the buffer sized for them`, () => {
+      const nl = design(family);
+      const sim = new SwitchSimulator(nl, ['LOAD'], {});
+      sim.apply({ LOAD: 1 });
+      const arena = sim.model.alloc as TypedArena;
+      // one buffer: the estimate is an upper bound for these designs, so the build starts no further one
+      expect(arena.buffers).toBe(1);
+      expect(arena.used).toBeGreaterThan(0);
+      expect(arena.used).toBeLessThanOrEqual(arenaBytes(nl).kept);
     });
   }
 });

@@ -4,6 +4,7 @@
 // read when layOut runs, after both modules have loaded (switch-model imports this file)
 import * as ops from './switch-model';
 import { permute, type Csr } from './csr';
+import { OWN_BUFFERS, type TypedAlloc } from '../netlist/typed-arena';
 
 /** Per edge: the device, its two ends, strongest signal it passes, control kind and net. */
 export interface EdgeTables {
@@ -67,10 +68,10 @@ export interface LaidOutTables extends EdgeTables, NetTables {
  * its results, including which drivers a contention report names, do not change. Edges between two
  * sources belong to no group and are read by nothing; they are left out.
  */
-export function layOut(t: BuiltTables): LaidOutTables {
+export function layOut(t: BuiltTables, kept: TypedAlloc = OWN_BUFFERS, scratch: TypedAlloc = OWN_BUFFERS): LaidOutTables {
   const { nNets, groupOf, groupNets, groupEdges } = t;
-  const netPos = new Int32Array(nNets);
-  const netAt = new Int32Array(nNets);
+  const netPos = kept.i32(nNets);
+  const netAt = kept.i32(nNets);
   let k = 0;
   for (let i = 0; i < groupNets.list.length; i++) {
     const n = groupNets.list[i];
@@ -86,15 +87,16 @@ export function layOut(t: BuiltTables): LaidOutTables {
   const pos = (n: number) => (n >= 0 ? netPos[n] : n);
 
   const edgeCount = groupEdges.list.length;
-  const edgeDevice = new Int32Array(edgeCount);
-  const edgeA = new Int32Array(edgeCount);
-  const edgeB = new Int32Array(edgeCount);
-  const edgeCap = new Uint8Array(edgeCount);
-  const edgeControl = new Uint8Array(edgeCount);
-  const edgeGate = new Int32Array(edgeCount);
-  const edgeOneWay = new Uint8Array(edgeCount);
-  const programAt = new Int32Array(edgeCount).fill(-1);
-  const code = new Int32Array(t.code.length);
+  const edgeDevice = kept.i32(edgeCount);
+  const edgeA = kept.i32(edgeCount);
+  const edgeB = kept.i32(edgeCount);
+  const edgeCap = kept.u8(edgeCount);
+  const edgeControl = kept.u8(edgeCount);
+  const edgeGate = kept.i32(edgeCount);
+  const edgeOneWay = kept.u8(edgeCount);
+  const programAt = kept.i32(edgeCount).fill(-1);
+  // filled here, then kept at its exact length (edges between two sources drop their programs)
+  const code = scratch.i32(t.code.length);
   let codeLen = 0;
   const { OP_END, OP_NET } = ops;
   for (let e = 0; e < edgeCount; e++) {
@@ -118,17 +120,19 @@ export function layOut(t: BuiltTables): LaidOutTables {
       if (op === OP_END) break;
     }
   }
-  const edgesAt = edgesAtNets(edgeA, edgeB, nNets, groupNets.list.length);
+  const edgesAt = edgesAtNets(edgeA, edgeB, nNets, groupNets.list.length, kept, scratch);
 
-  const groupOfNew = new Int32Array(nNets);
-  const railVal = new Int8Array(nNets);
-  const isInput = new Uint8Array(nNets);
+  const groupOfNew = kept.i32(nNets);
+  const railVal = kept.i8(nNets);
+  const isInput = kept.u8(nNets);
   for (let n = 0; n < nNets; n++) {
     const p = netPos[n];
     groupOfNew[p] = groupOf[n];
     railVal[p] = t.railVal[n];
     isInput[p] = t.isInput[n];
   }
+  const keptCode = kept.i32(codeLen);
+  keptCode.set(code.subarray(0, codeLen));
   return {
     netPos,
     netAt,
@@ -141,13 +145,13 @@ export function layOut(t: BuiltTables): LaidOutTables {
     edgeGate,
     edgeOneWay,
     programAt,
-    code: code.slice(0, codeLen),
+    code: keptCode,
     groupOf: groupOfNew,
     groupNetOff: groupNets.off,
     groupEdgeOff: groupEdges.off,
     edgesAt,
-    readers: permute(t.readers, netPos, netAt),
-    gateReaders: permute(t.gateReaders, netPos, netAt),
+    readers: permute(t.readers, netPos, netAt, kept),
+    gateReaders: permute(t.gateReaders, netPos, netAt, kept),
     railVal,
     isInput,
   };
@@ -159,8 +163,8 @@ export function layOut(t: BuiltTables): LaidOutTables {
  * walked them in (an edge with both ends on one net is listed twice, as before). Source nets, whose
  * lists the simulator never walks, get none.
  */
-function edgesAtNets(edgeA: Int32Array, edgeB: Int32Array, nNets: number, groupNets: number): Csr {
-  const off = new Int32Array(nNets + 1);
+function edgesAtNets(edgeA: Int32Array, edgeB: Int32Array, nNets: number, groupNets: number, kept: TypedAlloc, scratch: TypedAlloc): Csr {
+  const off = kept.i32(nNets + 1);
   // group nets are the first model ids
   const inGroup = (p: number) => p < groupNets;
   for (let e = 0; e < edgeA.length; e++) {
@@ -168,8 +172,9 @@ function edgesAtNets(edgeA: Int32Array, edgeB: Int32Array, nNets: number, groupN
     if (inGroup(edgeB[e])) off[edgeB[e] + 1]++;
   }
   for (let p = 0; p < nNets; p++) off[p + 1] += off[p];
-  const at = off.slice(0, nNets);
-  const list = new Int32Array(off[nNets]);
+  const at = scratch.i32(nNets);
+  at.set(off.subarray(0, nNets));
+  const list = kept.i32(off[nNets]);
   for (let e = 0; e < edgeA.length; e++) {
     if (inGroup(edgeA[e])) list[at[edgeA[e]]++] = e;
     if (inGroup(edgeB[e])) list[at[edgeB[e]]++] = e;

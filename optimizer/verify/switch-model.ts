@@ -9,6 +9,7 @@ import { BaseResolver } from '../extract/bipolar';
 import { loadTransistor } from '../extract/mos';
 import { grow, Pairs, permute, type Csr } from './csr';
 import { layOut, type LaidOutTables } from './switch-layout';
+import { TypedArena, type TypedAlloc } from '../netlist/typed-arena';
 
 export type { Csr } from './csr';
 
@@ -58,6 +59,8 @@ export interface SwitchModel extends LaidOutTables {
   railValue: Map<number, 0 | 1>;
   /** Netlist id of a named net (stimulus inputs first; an InputError for an unknown name). */
   netIdsOf: (name: string) => number;
+  /** Where the model's tables came from: per-net and per-group state built on it (the simulator's) comes from here too. */
+  alloc: TypedAlloc;
 }
 
 function find(p: Int32Array, x: number): number {
@@ -89,22 +92,69 @@ function netsNamed(nl: FlatNetlist, names: readonly string[]): Map<string, numbe
   return found;
 }
 
-export function buildSwitchModel(nl: FlatNetlist, inputNames: string[]): SwitchModel {
-  const cx = makeContext(nl);
-  const nNets = nl.nets.length;
-  // The stimulus inputs are found in one pass over the nets: the netlist's name index would be
-  // built for them otherwise, and on a large design it is one of its costliest structures.
-  const inputIds = netsNamed(nl, inputNames);
-  const netIdsOf = (name: string): number => {
+/**
+ * Bytes the build's two arenas are sized at, from counts one pass over the devices gives: the
+ * build's own working tables (`scratch`, dropped when it returns) and the tables the model keeps
+ * together with the simulator's state (`kept`). Upper bounds where cheap (groups ≤ nets,
+ * edges ≤ devices that can carry one), one program of one net per bipolar transistor (a wider
+ * base drive makes the arena start a further buffer).
+ */
+export function arenaBytes(nl: FlatNetlist): { scratch: number; kept: number } {
+  const N = nl.nets.length;
+  const D = nl.devices.length;
+  let T = 0;
+  let E = 0;
+  let P = 0;
+  let G = 0;
+  let GI = 0;
+  for (let i = 0; i < D; i++) {
+    const d = nl.devices[i];
+    T += d.terminals.length;
+    if (d.kind === 'gate') {
+      G++;
+      GI += d.terminals.length - 1;
+    } else if (d.kind !== 'capacitor' && d.kind !== 'vsource' && d.kind !== 'isource') E++;
+    if (d.kind === 'npn') P++;
+  }
+  const code = 4 * P + 64;
+  // readers: a source end or a gate per edge end, one per program net, one per gate input
+  const R = P + GI + 3 * E;
+  const slack = 64 * 8; // alignment of the arrays
+  const scratch = 95 * N + 5 * T + D + 4 * code + 39 * E + 24 * R + 16 * G + 12 * GI + slack;
+  const kept = 49 * N + D + 4 * code + 32 * E + 4 * R + 4 * G + 4 * GI + slack;
+  return { scratch, kept };
+}
+
+/**
+ * The model's name lookup. Made outside buildSwitchModel so the closure holds only these two: a
+ * closure made inside it would share the scope of every build table and keep them all alive for
+ * as long as the model.
+ */
+function netLookup(nl: FlatNetlist, inputIds: Map<string, number>): (name: string) => number {
+  return (name) => {
     const id = inputIds.get(name) ?? nl.netByName.get(name);
     if (id === undefined) throw InputError.at('simulate.unknown-net', `the stimulus names net "${name}", which the design does not have`);
     return id;
   };
-  const isInput = new Uint8Array(nNets);
+}
+
+export function buildSwitchModel(nl: FlatNetlist, inputNames: string[]): SwitchModel {
+  // Both arenas are taken at once, before any table is filled: their memory then starts at most
+  // one full collection of the heap around the model (typed-arena.ts), where a hundred separate
+  // arrays started one per 64 MB of them.
+  const bytes = arenaBytes(nl);
+  const scratch = new TypedArena(bytes.scratch);
+  const kept = new TypedArena(bytes.kept);
+  const cx = makeContext(nl, scratch);
+  const nNets = nl.nets.length;
+  // The stimulus inputs are found in one pass over the nets: the netlist's name index would be
+  // built for them otherwise, and on a large design it is one of its costliest structures.
+  const netIdsOf = netLookup(nl, netsNamed(nl, inputNames));
+  const isInput = scratch.u8(nNets);
   for (const n of inputNames) isInput[netIdsOf(n)] = 1;
   const railValue = new Map<number, 0 | 1>();
   for (const r of nl.rails) railValue.set(r.net, r.volts > 0 ? 1 : 0);
-  const railVal = new Int8Array(nNets).fill(-1);
+  const railVal = scratch.i8(nNets).fill(-1);
   for (const [net, v] of railValue) railVal[net] = v;
   // isRail inlined: the imported binding is read through a getter on every call, millions of times here
   const railVolts = cx.railVolts;
@@ -114,16 +164,16 @@ export function buildSwitchModel(nl: FlatNetlist, inputNames: string[]): SwitchM
   // order (the edges below meet the programs in the same order); the base-network marks are kept.
   const bases = new BaseResolver(cx);
   const nDev = nl.devices.length;
-  const baseNet = new Uint8Array(nNets);
-  const inBaseNetwork = new Uint8Array(nDev);
+  const baseNet = scratch.u8(nNets);
+  const inBaseNetwork = scratch.u8(nDev);
   const gates: number[] = [];
   let npnCount = 0;
   for (let i = 0; i < nDev; i++) if (nl.devices[i].kind === 'npn') npnCount++;
   // a resistor-fed base is one net: (net, end) per program; wider drives grow the buffer
-  let code = new Int32Array(4 * npnCount + 64);
+  let code = scratch.i32(4 * npnCount + 64);
   let codeLen = 0;
   const emit = (op: number, arg: number): void => {
-    if (codeLen + 2 > code.length) code = grow(code);
+    if (codeLen + 2 > code.length) code = grow(code, scratch);
     code[codeLen++] = op;
     code[codeLen++] = arg;
   };
@@ -202,14 +252,14 @@ export function buildSwitchModel(nl: FlatNetlist, inputNames: string[]): SwitchM
   // collections of the (large) heap holding the netlist.
   let edgeTotal = 0;
   for (let i = 0; i < nDev; i++) if (hasEdge(i)) edgeTotal++;
-  const edgeDevice = new Int32Array(edgeTotal);
-  const edgeA = new Int32Array(edgeTotal);
-  const edgeB = new Int32Array(edgeTotal);
-  const edgeCap = new Uint8Array(edgeTotal);
-  const edgeControl = new Uint8Array(edgeTotal);
-  const edgeGate = new Int32Array(edgeTotal);
-  const edgeOneWay = new Uint8Array(edgeTotal);
-  const programAt = new Int32Array(edgeTotal).fill(-1);
+  const edgeDevice = scratch.i32(edgeTotal);
+  const edgeA = scratch.i32(edgeTotal);
+  const edgeB = scratch.i32(edgeTotal);
+  const edgeCap = scratch.u8(edgeTotal);
+  const edgeControl = scratch.u8(edgeTotal);
+  const edgeGate = scratch.i32(edgeTotal);
+  const edgeOneWay = scratch.u8(edgeTotal);
+  const programAt = scratch.i32(edgeTotal).fill(-1);
   let nEdges = 0;
   let nextProgram = 0;
   const edge = (device: number, a: number, b: number, cap: number, control: number, gate: number, oneWay: boolean): void => {
@@ -256,7 +306,7 @@ export function buildSwitchModel(nl: FlatNetlist, inputNames: string[]): SwitchM
     }
   }
   // Groups: nets joined by edges, never through sources.
-  const parent = new Int32Array(nNets);
+  const parent = scratch.i32(nNets);
   for (let i = 0; i < nNets; i++) parent[i] = i;
   for (let ei = 0; ei < nEdges; ei++) {
     const a = edgeA[ei];
@@ -267,9 +317,9 @@ export function buildSwitchModel(nl: FlatNetlist, inputNames: string[]): SwitchM
     if (x !== y) parent[x] = y;
   }
   // Group ids and each group's nets in first-touch order (edges, then gate outputs).
-  const groupOf = new Int32Array(nNets).fill(-1);
-  const groupOfRoot = new Int32Array(nNets).fill(-1);
-  const netPairs = new Pairs(nNets);
+  const groupOf = scratch.i32(nNets).fill(-1);
+  const groupOfRoot = scratch.i32(nNets).fill(-1);
+  const netPairs = new Pairs(nNets, scratch);
   let groupCount = 0;
   const groupFor = (n: number): number => {
     if (isSource(n)) return -1;
@@ -286,7 +336,7 @@ export function buildSwitchModel(nl: FlatNetlist, inputNames: string[]): SwitchM
   for (const gi of gates) gateInputs += nl.devices[gi].terminals.length - 1;
   let programNets = 0;
   for (let pc = 0; pc < codeLen; pc += 2) if (code[pc] === OP_NET) programNets++;
-  const edgePairs = new Pairs(nEdges);
+  const edgePairs = new Pairs(nEdges, scratch);
   // at most one reader per source end and gate of an edge, one per program net, one per gate input
   let readerBound = programNets + gateInputs;
   for (let ei = 0; ei < nEdges; ei++) {
@@ -294,8 +344,8 @@ export function buildSwitchModel(nl: FlatNetlist, inputNames: string[]): SwitchM
     if (isSource(edgeB[ei])) readerBound++;
     if (edgeGate[ei] >= 0) readerBound++;
   }
-  const readerPairs = new Pairs(readerBound);
-  const lastReader = new Int32Array(nNets).fill(-1);
+  const readerPairs = new Pairs(readerBound, scratch);
+  const lastReader = scratch.i32(nNets).fill(-1);
   const addReader = (net: number, g: number): void => {
     if (lastReader[net] === g) return;
     lastReader[net] = g;
@@ -316,8 +366,8 @@ export function buildSwitchModel(nl: FlatNetlist, inputNames: string[]): SwitchM
       for (let pc = programAt[ei]; code[pc] !== OP_END; pc += 2) if (code[pc] === OP_NET) addReader(code[pc + 1], g);
     }
   }
-  const gatePairs = new Pairs(gates.length);
-  const gateReaderPairs = new Pairs(gateInputs);
+  const gatePairs = new Pairs(gates.length, scratch);
+  const gateReaderPairs = new Pairs(gateInputs, scratch);
   for (const gi of gates) {
     const d = nl.devices[gi];
     const g = groupFor(d.terminals[0]);
@@ -332,31 +382,37 @@ export function buildSwitchModel(nl: FlatNetlist, inputNames: string[]): SwitchM
   // ids and a wave of evaluations walks the group tables front to back.
   const oldNets = netPairs.toCsr(groupCount);
   const oldReaders = readerPairs.toCsr(nNets);
-  const order = rankGroups(groupCount, oldNets, oldReaders);
+  const order = rankGroups(groupCount, oldNets, oldReaders, scratch);
   for (let n = 0; n < nNets; n++) if (groupOf[n] >= 0) groupOf[n] = order[groupOf[n]];
   for (let i = 0; i < oldReaders.list.length; i++) oldReaders.list[i] = order[oldReaders.list[i]];
-  const byRank = new Int32Array(groupCount);
+  const byRank = scratch.i32(groupCount);
   for (let g = 0; g < groupCount; g++) byRank[order[g]] = g;
-  const laid = layOut({
-    nNets,
-    edgeDevice,
-    edgeA,
-    edgeB,
-    edgeCap,
-    edgeControl,
-    edgeGate,
-    edgeOneWay,
-    programAt,
-    code: code.subarray(0, codeLen),
-    groupOf,
-    groupNets: permute(oldNets, order, byRank),
-    groupEdges: permute(edgePairs.toCsr(groupCount), order, byRank),
-    readers: oldReaders,
-    gateReaders: gateReaderPairs.toCsr(nNets),
-    railVal,
-    isInput,
-  });
-  return { nl, ...laid, groupCount, groupGates: permute(gatePairs.toCsr(groupCount), order, byRank), gates, railValue, netIdsOf };
+  const laid = layOut(
+    {
+      nNets,
+      edgeDevice,
+      edgeA,
+      edgeB,
+      edgeCap,
+      edgeControl,
+      edgeGate,
+      edgeOneWay,
+      programAt,
+      code: code.subarray(0, codeLen),
+      groupOf,
+      // only the offsets are kept (the group ranges); the lists are read once, by layOut
+      groupNets: permute(oldNets, order, byRank, kept, scratch),
+      groupEdges: permute(edgePairs.toCsr(groupCount), order, byRank, kept, scratch),
+      readers: oldReaders,
+      gateReaders: gateReaderPairs.toCsr(nNets),
+      railVal,
+      isInput,
+    },
+    kept,
+    scratch,
+  );
+  const groupGates = permute(gatePairs.toCsr(groupCount), order, byRank, kept);
+  return { nl, ...laid, groupCount, groupGates, gates, railValue, netIdsOf, alloc: kept };
 }
 
 /** A control expression with net names resolved to ids once, evaluated in three values. */
@@ -393,11 +449,11 @@ export function compileExpr(e: Expr, nl: FlatNetlist): CompiledExpr {
  * one evaluation per group instead of unit-delay ripples that are quadratic in chain length.
  * Groups on loops get ranks after their ranked predecessors.
  */
-function rankGroups(n: number, groupNets: Csr, readers: Csr): Int32Array {
+function rankGroups(n: number, groupNets: Csr, readers: Csr, alloc: TypedAlloc): Int32Array {
   // successors of each group in first-seen order, without a set per group
   // each net belongs to one group, so a group's successors number at most its nets' readers
-  const succPairs = new Pairs(readers.list.length);
-  const seenBy = new Int32Array(n).fill(-1);
+  const succPairs = new Pairs(readers.list.length, alloc);
+  const seenBy = alloc.i32(n).fill(-1);
   for (let g = 0; g < n; g++) {
     for (let i = groupNets.off[g]; i < groupNets.off[g + 1]; i++) {
       const net = groupNets.list[i];
@@ -410,11 +466,11 @@ function rankGroups(n: number, groupNets: Csr, readers: Csr): Int32Array {
     }
   }
   const succ = succPairs.toCsr(n);
-  const indeg = new Int32Array(n);
+  const indeg = alloc.i32(n);
   for (let g = 0; g < n; g++) for (let i = succ.off[g]; i < succ.off[g + 1]; i++) if (succ.list[i] !== g) indeg[succ.list[i]]++;
-  const rank = new Int32Array(n).fill(-1);
+  const rank = alloc.i32(n).fill(-1);
   // every group enters the queue once: when its last predecessor is ranked, or to start a loop
-  const queue = new Int32Array(n);
+  const queue = alloc.i32(n);
   let tail = 0;
   for (let g = 0; g < n; g++) if (indeg[g] === 0) queue[tail++] = g;
   let next = 0;

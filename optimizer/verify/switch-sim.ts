@@ -67,10 +67,12 @@ export class SwitchSimulator {
   constructor(nl: FlatNetlist, inputs: string[], options: SimOptions = {}) {
     this.model = buildSwitchModel(nl, inputs);
     const n = nl.nets.length;
-    this.level = new Uint8Array(n);
-    this.mask = new Uint8Array(n).fill(3);
-    this.charge = new Uint8Array(n).fill(3);
-    this.gateOut = new Uint8Array(nl.devices.length);
+    // per-net and per-group state from the model's arena (switch-model.ts): no further buffers
+    const alloc = this.model.alloc;
+    this.level = alloc.u8(n);
+    this.mask = alloc.u8(n).fill(3);
+    this.charge = alloc.u8(n).fill(3);
+    this.gateOut = alloc.u8(nl.devices.length);
     for (const [net, v] of this.model.railValue) {
       this.level[this.model.netPos[net]] = RAIL;
       this.mask[this.model.netPos[net]] = v ? 2 : 1;
@@ -78,8 +80,8 @@ export class SwitchSimulator {
     this.maxEval = options.maxEvaluationsPerGroup ?? 50;
     // a flip-flop holds an unknown value until its first clock edge
     for (const gi of this.model.gates) if (nl.devices[gi].op === 'dff') this.gateOut[gi] = 3;
-    this.evalCount = new Int32Array(this.model.groupCount);
-    this.evalStep = new Int32Array(this.model.groupCount).fill(-1);
+    this.evalCount = alloc.i32(this.model.groupCount);
+    this.evalStep = alloc.i32(this.model.groupCount).fill(-1);
     // Per-evaluation scratch is bounded by the largest group, not the design: an evaluation
     // touches only its own group's nets.
     const off = this.model.groupNetOff;
@@ -204,7 +206,7 @@ export class SwitchSimulator {
 
   private scratch(): void {
     if (this.stack) return;
-    this.edgeSt = new Uint8Array(this.model.edgeCount);
+    this.edgeSt = this.model.alloc.u8(this.model.edgeCount);
     // a net enters pureTouched once per pure value, and the stack once per rise in strength or
     // growth of its value mask: at most twice per net of the group in one strength pass
     this.pureTouched = new Int32Array(2 * this.widestGroup);
