@@ -2,7 +2,7 @@
 // A cube over n inputs is (care, value) bit masks with input i at bit n-1-i, so its PLA text
 // reads left to right in input order: '1' = true literal, '0' = complemented, '-' = absent.
 import { InputError } from '../errors';
-import { getBit, type OutputTable, words, setBit } from './truth-table';
+import { getBit, type OutputTable, words } from './truth-table';
 
 export interface Cube {
   /** Bits of the inputs this term tests. */
@@ -63,17 +63,30 @@ export function coverLiterals(cover: Cover): number {
   return cover.reduce((s, c) => s + literalCount(c), 0);
 }
 
-/** Bitset of the minterms a cover is true on. */
+/** Positions (0..31 in a word) whose minterm bit b is 1, for b < 5. */
+const LOW_BIT_MASK = [0xaaaaaaaa, 0xcccccccc, 0xf0f0f0f0, 0xff00ff00, 0xffff0000];
+
+/**
+ * Bitset of the minterms a cover is true on, a word at a time: the inputs at minterm bits 0..4
+ * pick positions inside a word (one mask per cube), the others pick the words a cube reaches.
+ */
 export function coverToSet(cover: Cover, n: number): Uint32Array {
-  const set = new Uint32Array(words(n));
+  const count = words(n);
+  const set = new Uint32Array(count);
+  const valid = n >= 5 ? 0xffffffff : 2 ** 2 ** n - 1;
   for (const c of cover) {
-    // Enumerate the free bits of the cube instead of scanning every minterm.
-    const free = ~c.care & (2 ** n - 1);
-    let sub = free;
-    for (;;) {
-      setBit(set, c.value | sub);
-      if (sub === 0) break;
-      sub = (sub - 1) & free;
+    let mask = valid;
+    for (let b = 0; b < 5; b++) {
+      if (((c.care >>> b) & 1) === 0) continue;
+      mask &= (c.value >>> b) & 1 ? LOW_BIT_MASK[b] : ~LOW_BIT_MASK[b];
+    }
+    // Word w holds minterms 32w..32w+31: its index is the minterm's bits from 5 up.
+    const care = c.care >>> 5;
+    const value = c.value >>> 5;
+    if (care === 0) {
+      for (let w = 0; w < count; w++) set[w] |= mask;
+    } else {
+      for (let w = 0; w < count; w++) if ((w & care) === value) set[w] |= mask;
     }
   }
   return set;

@@ -32,13 +32,8 @@ const CACHE_ENTRIES = 512;
  * of their inputs; a cover moved from one to the other is still checked before it is used.
  */
 function tableKey(out: OutputTable, n: number): string {
-  // Two UTF-16 code units per word, in slices (one call per slice rather than a character each).
-  const chars = (set: Uint32Array) => {
-    const units = new Uint16Array(set.buffer, set.byteOffset, set.length * 2);
-    let text = '';
-    for (let at = 0; at < units.length; at += 4096) text += String.fromCharCode.apply(null, units.subarray(at, at + 4096) as unknown as number[]);
-    return text;
-  };
+  // Two UTF-16 code units per word, decoded natively from the words' bytes.
+  const chars = (set: Uint32Array) => Buffer.from(set.buffer, set.byteOffset, set.byteLength).toString('utf16le');
   return `${n}:${chars(out.on)}|${chars(out.dc)}`;
 }
 

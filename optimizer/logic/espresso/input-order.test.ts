@@ -68,6 +68,30 @@ describe('canonical input order', () => {
     );
   });
 
+  it('moves every minterm as moving its input bits one by one does, inside and across words', () => {
+    fc.assert(
+      fc.property(
+        fc.integer({ min: 1, max: 10 }).chain((n) =>
+          fc.tuple(
+            fc.constant(n),
+            fc.array(fc.constantFrom(0, 1, 2), { minLength: 2 ** n, maxLength: 2 ** n }),
+            fc.shuffledSubarray(Array.from({ length: n }, (_, i) => i), { minLength: n, maxLength: n }),
+          ),
+        ),
+        ([n, cells, perm]) => {
+          const moved = reorderOutput(table(n, cells), n, perm);
+          // The reference: minterm m of the original lands at moveBits(m), one input bit at a time.
+          const want = new Array<number>(2 ** n);
+          for (let m = 0; m < 2 ** n; m++) want[moveBits(m, n, perm)] = cells[m];
+          const expected = table(n, want);
+          expect([...moved.on]).toEqual([...expected.on]);
+          expect([...moved.dc]).toEqual([...expected.dc]);
+        },
+      ),
+      { numRuns: 300 },
+    );
+  });
+
   it('gives a renamed copy the same canonical table whenever the counts tell its inputs apart', () => {
     let told = 0;
     fc.assert(

@@ -2,7 +2,7 @@
 // orders, for tables and covers: the minimiser keys what it remembers on the table in this order,
 // so the same block wired to inputs whose names sort differently is minimised once.
 import type { Cover } from '../cubes';
-import { forEachMinterm, words, type OutputTable } from '../truth-table';
+import type { OutputTable } from '../truth-table';
 
 /**
  * Moves the input bits of a minterm or cube mask: input k of the result (bit n-1-k) is input
@@ -69,13 +69,69 @@ export function canonicalOrder(out: OutputTable, n: number): number[] {
   return order;
 }
 
-/** Moves every minterm of a bitset to the order `from` (input k of the result is input from[k]). */
+/** Minterm positions (0..31 in a word) whose index bit `b` is 1, for b < 5. */
+const LOW_BIT_MASK = [0xaaaaaaaa, 0xcccccccc, 0xf0f0f0f0, 0xff00ff00, 0xffff0000];
+
+/**
+ * Exchanges minterm index bits p < q of a bitset in place: the value at every minterm with bit p
+ * set and bit q clear trades places with the one at the minterm with those two bits the other way
+ * round. Word-parallel: shifts and masks inside a word, words paired or swapped across them.
+ */
+function swapIndexBits(set: Uint32Array, p: number, q: number): void {
+  if (q < 5) {
+    // Both inside a word: a delta swap of the positions with bit p set and bit q clear.
+    const d = (1 << q) - (1 << p);
+    const mask = (LOW_BIT_MASK[p] & ~LOW_BIT_MASK[q]) >>> 0;
+    for (let w = 0; w < set.length; w++) {
+      const x = set[w];
+      const t = ((x ^ (x >>> d)) & mask) >>> 0;
+      set[w] = x ^ t ^ (t << d);
+    }
+  } else if (p < 5) {
+    // Bit q picks the word: pair word w (bit q clear) with word w + 2^(q-5); bit p picks the position.
+    const span = 1 << (q - 5);
+    const s = 1 << p;
+    const low = ~LOW_BIT_MASK[p] >>> 0; // positions with bit p clear
+    for (let w = 0; w < set.length; w++) {
+      if (w & span) continue;
+      const a = set[w];
+      const b = set[w + span];
+      // a's positions with bit p set trade with b's with bit p clear.
+      const t = (((a >>> s) ^ b) & low) >>> 0;
+      set[w + span] = b ^ t;
+      set[w] = a ^ (t << s);
+    }
+  } else {
+    // Both pick the word: whole words trade places.
+    const wp = 1 << (p - 5);
+    const wq = 1 << (q - 5);
+    for (let w = 0; w < set.length; w++) {
+      if (!(w & wp) || w & wq) continue;
+      const v = w - wp + wq;
+      const x = set[w];
+      set[w] = set[v];
+      set[v] = x;
+    }
+  }
+}
+
+/**
+ * Moves every minterm of a bitset to the order `from` (input k of the result is input from[k]):
+ * at most n-1 exchanges of two inputs, each word-parallel, rather than a move per minterm.
+ */
 function moveSet(set: Uint32Array, n: number, from: readonly number[]): Uint32Array {
-  const out = new Uint32Array(words(n));
-  forEachMinterm(set, n, (m) => {
-    const t = moveBits(m, n, from);
-    out[t >>> 5] |= 1 << (t & 31);
-  });
+  const out = set.slice();
+  // at[k]: the input of the original now at position k.
+  const at = Array.from({ length: n }, (_, k) => k);
+  for (let k = 0; k < n; k++) {
+    if (at[k] === from[k]) continue;
+    let j = k + 1;
+    while (at[j] !== from[k]) j++;
+    // Input k sits at minterm bit n-1-k: exchanging positions k < j exchanges bits n-1-j < n-1-k.
+    swapIndexBits(out, n - 1 - j, n - 1 - k);
+    at[j] = at[k];
+    at[k] = from[k];
+  }
   return out;
 }
 

@@ -50,7 +50,11 @@ interface Job {
 interface Slot {
   proc: ChildProcessByStdio<Writable, Readable, Readable>;
   job?: Job;
+  /** The kill timer, kept across jobs (see arm); `timerAt` is when it fires. */
   timer?: NodeJS.Timeout;
+  timerAt: number;
+  /** When the running job's current item must be answered by (Date.now() time). */
+  deadline: number;
   stderr: string;
   /** The child's processor time (µs) at its last message. */
   cpu: number;
@@ -214,7 +218,7 @@ export class EspressoPool {
     // TypeScript loader. Requests and replies are binary frames on its stdin and stdout (frames.ts).
     const proc = spawn(process.execPath, [...this.execArgv, this.workerPath], { stdio: ['pipe', 'pipe', 'pipe'] });
     this.spawned++;
-    const slot: Slot = { proc, stderr: '', cpu: 0 };
+    const slot: Slot = { proc, stderr: '', cpu: 0, timerAt: 0, deadline: 0 };
     this.slots.add(slot);
     proc.stderr.on('data', (chunk: Buffer) => {
       slot.stderr = (slot.stderr + chunk.toString('utf8')).slice(-2000);
@@ -302,14 +306,39 @@ export class EspressoPool {
     this.dispatch();
   }
 
+  /**
+   * Sets the running job's deadline. The timer is not remade for every job: one that would fire
+   * no later than the deadline is kept (referenced while a job runs) and, when it fires early,
+   * waits out the rest of the current deadline; a round trip then costs no timer list work.
+   */
   private arm(slot: Slot, job: Job): void {
-    if (slot.timer) clearTimeout(slot.timer);
     const limit = job.req.timeoutMs + (job.items.length > 1 ? FLUSH_SLACK_MS : 0);
+    const now = Date.now();
+    slot.deadline = now + limit;
+    if (slot.timer && slot.timerAt <= slot.deadline) {
+      slot.timer.ref();
+      return;
+    }
+    if (slot.timer) clearTimeout(slot.timer);
+    this.setTimer(slot, limit, now);
+  }
+
+  private setTimer(slot: Slot, ms: number, now: number): void {
+    slot.timerAt = now + ms;
     slot.timer = setTimeout(() => {
+      slot.timer = undefined;
+      const job = slot.job;
+      if (!job || !this.slots.has(slot)) return;
+      const now = Date.now();
+      const left = slot.deadline - now;
+      if (left > 0) {
+        this.setTimer(slot, left, now);
+        return;
+      }
       this.retire(slot);
       this.failUnknown(job, new MinimiserError('timeout', `the minimiser took longer than ${job.req.timeoutMs} ms and was stopped`));
       this.dispatch();
-    }, limit);
+    }, ms);
   }
 
   private start(slot: Slot, job: Job): void {
@@ -321,14 +350,15 @@ export class EspressoPool {
   }
 
   private finish(slot: Slot): void {
-    if (slot.timer) clearTimeout(slot.timer);
-    slot.timer = undefined;
+    // An idle child's timer stays set but must not keep the host process alive.
+    slot.timer?.unref();
     slot.job = undefined;
   }
 
   private retire(slot: Slot): void {
     if (!this.slots.delete(slot)) return;
     if (slot.timer) clearTimeout(slot.timer);
+    slot.timer = undefined;
     slot.job = undefined;
     if (slot.proc.exitCode === null && slot.proc.signalCode === null) slot.proc.kill('SIGKILL');
   }
