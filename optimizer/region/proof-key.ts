@@ -82,6 +82,7 @@ function netlistKey(nl: FlatNetlist, pathClass: Map<string, number>, out: string
  * @param changed names of the nets the edit changes (the proof's candidates for comparison)
  * @param assumptions the assumptions the proposal relies on, in order
  * @param extra anything else the proof depends on (settings), as text
+ * @param cut driven nets the proof takes as free values (a region cut at unchanged nets)
  * @returns the key, or undefined when the region is too large to be worth keying
  */
 export function proofKey(
@@ -90,6 +91,7 @@ export function proofKey(
   changed: readonly string[],
   assumptions: readonly { expr: Expr }[],
   extra: string,
+  cut: readonly string[] = [],
 ): ProofKey | undefined {
   if (before.devices.length > MAX_KEYED_DEVICES || after.devices.length > MAX_KEYED_DEVICES) return undefined;
   const out: string[] = [extra];
@@ -105,7 +107,7 @@ export function proofKey(
   const varSet = new Set<string>();
   for (const a of assumptions) support(a.expr, varSet);
   const vars = [...varSet];
-  const all = new Set<string>([...before.netByName.keys(), ...after.netByName.keys(), ...changed, ...vars]);
+  const all = new Set<string>([...before.netByName.keys(), ...after.netByName.keys(), ...changed, ...cut, ...vars]);
   const outside = new Map<string, number>();
   for (const n of [...changed, ...vars]) if (!before.netByName.has(n) && !after.netByName.has(n) && !outside.has(n)) outside.set(n, outside.size);
   const token = (name: string): string => {
@@ -136,6 +138,7 @@ export function proofKey(
   out.push(`names:${order.join(' ')}`);
   const pos = (name: string) => position.get(name)!;
   out.push(`changed:${changed.map(pos).join(',')}`);
+  if (cut.length) out.push(`cut:${cut.map(pos).join(',')}`);
   for (const a of assumptions) {
     const parts: string[] = ['assume '];
     exprKey(a.expr, pos, parts);

@@ -39,6 +39,46 @@ export function indexOf(nl: FlatNetlist): DesignIndex {
   return idx;
 }
 
+/** Logic nodes whose groups hold each device: the first in a typed list, any further ones aside. */
+export interface Owners {
+  first: Int32Array;
+  more: Map<number, number[]>;
+}
+
+const ownerCache = new WeakMap<LogicView, Owners>();
+
+/** Device index → nodes whose groups contain it (built once per view). */
+export function ownersOf(view: LogicView, deviceCount: number): Owners {
+  let o = ownerCache.get(view);
+  if (o) return o;
+  o = { first: new Int32Array(deviceCount).fill(-1), more: new Map() };
+  view.nodes.forEach((node, i) => {
+    for (const d of node.devices) {
+      if (d < deviceCount && o!.first[d] < 0) o!.first[d] = i;
+      else {
+        const list = o!.more.get(d);
+        if (list) list.push(i);
+        else o!.more.set(d, [i]);
+      }
+    }
+  });
+  ownerCache.set(view, o);
+  return o;
+}
+
+const nodeOfNetCache = new WeakMap<LogicView, Int32Array>();
+
+/** Net id → index of the node driving it, or -1 (view.nodeByNet as a typed list, built once per view). */
+export function nodeOfNet(view: LogicView, netCount: number): Int32Array {
+  let a = nodeOfNetCache.get(view);
+  if (!a || a.length < netCount) {
+    a = new Int32Array(netCount).fill(-1);
+    for (const [net, i] of view.nodeByNet) if (net < netCount) a[net] = i;
+    nodeOfNetCache.set(view, a);
+  }
+  return a;
+}
+
 const nodeCache = new WeakMap<LogicView, Map<string, number>>();
 
 function nodeIndex(view: LogicView): Map<string, number> {
@@ -98,7 +138,14 @@ export function regionOf(nl: FlatNetlist, view: LogicView, seeds: string[], edit
   }
   for (const i of idx.sources) deviceIds.add(i);
   if (deviceIds.size >= nl.devices.length) return nl;
+  return cutOut(nl, deviceIds, [...seeds, ...editNetNames(nl, edit)]);
+}
 
+/**
+ * The devices given, as a FlatNetlist of their own: the nets they touch renumbered in the order
+ * met (ground and rails first), plus the named nets (which keep every name they are known by).
+ */
+export function cutOut(nl: FlatNetlist, deviceIds: Set<number>, keepNames: string[]): FlatNetlist {
   // Renumber only the nets the region touches (plus ground, rails and the edit's nets).
   const netMap = new Map<number, number>();
   const nets: FlatNet[] = [];
@@ -113,7 +160,7 @@ export function regionOf(nl: FlatNetlist, view: LogicView, seeds: string[], edit
   };
   keepNet(0);
   for (const r of nl.rails) keepNet(r.net);
-  for (const name of [...seeds, ...editNetNames(nl, edit)]) {
+  for (const name of keepNames) {
     const id = nl.netByName.get(name);
     if (id !== undefined) keepNet(id);
   }
@@ -124,7 +171,7 @@ export function regionOf(nl: FlatNetlist, view: LogicView, seeds: string[], edit
   const netByName = new Map<string, number>();
   for (const [id, k] of netMap) netByName.set(nl.nets[id].name, k);
   // Other names of kept nets that the proof and the edit use (aliases left by merges).
-  for (const name of [...seeds, ...editNetNames(nl, edit)]) {
+  for (const name of keepNames) {
     const id = nl.netByName.get(name);
     if (id !== undefined) netByName.set(name, netMap.get(id)!);
   }

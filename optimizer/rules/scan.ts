@@ -10,10 +10,12 @@ import { editSavings, type Savings } from '../cost/cost';
 import { DEFAULT_PARTS_TABLE, type PartsTable } from '../cost/parts-table';
 import type { MarginResult } from '../margins/corners';
 import type { FlatNetlist } from '../netlist/ir';
+import { partKey, PartTable } from '../region/part-key';
 import { positions, proofKey, type ProofKey } from '../region/proof-key';
 import { applyProposals } from '../rewrite/apply';
 import { checkEquivalence, type EquivResult } from '../verify/equivalence';
-import { indexOf, regionOf } from './region';
+import { cutParts, cutRegion, partRegion } from './cut-parts';
+import { indexOf, ownersOf, regionOf } from './region';
 import { simulationCheck } from './sim-check';
 import { devicesOnTouchedNodes } from './touched-nodes';
 import { runRules, type OverlapGraph, type RuleErrorRecord, type RunOptions } from './run-rules';
@@ -70,40 +72,22 @@ export interface ScanOptions extends RunOptions {
 const defaultVerifier: Verifier = (before, after, assumptions) =>
   checkEquivalence(before, after, { assumptions: assumptions.map((a) => ({ name: a.id, expr: a.expr })) });
 
-/** Logic nodes whose groups hold each device: the first in a typed list, any further ones aside. */
-interface Owners {
-  first: Int32Array;
-  more: Map<number, number[]>;
-}
-
-const ownerCache = new WeakMap<LogicView, Owners>();
-
-/** Device index → nodes whose groups contain it (built once per view). */
-function ownersOf(view: LogicView, deviceCount: number): Owners {
-  let o = ownerCache.get(view);
-  if (o) return o;
-  o = { first: new Int32Array(deviceCount).fill(-1), more: new Map() };
-  view.nodes.forEach((node, i) => {
-    for (const d of node.devices) {
-      if (d < deviceCount && o!.first[d] < 0) o!.first[d] = i;
-      else {
-        const list = o!.more.get(d);
-        if (list) list.push(i);
-        else o!.more.set(d, [i]);
-      }
-    }
-  });
-  ownerCache.set(view, o);
-  return o;
-}
-
 /**
  * Nets an edit changes: terminals of removed, reconnected and added devices, merged nets, and
  * every driven net whose logic group contains a removed or reconnected device (a base resistor
  * moved changes the collector node it feeds). A merge moves every device on the removed net onto
  * the kept one, so the groups holding those devices change too.
  */
-function changedNets(nl: FlatNetlist, view: LogicView, p: Proposal): string[] {
+interface Changed {
+  /** Names, sorted, each once. */
+  names: string[];
+  /** The nets among them named by their own name, by id. */
+  ids: number[];
+  /** The other names (a net's second name, a net the edit creates). */
+  others: string[];
+}
+
+function changedNets(nl: FlatNetlist, view: LogicView, p: Proposal): Changed {
   // Nets gathered by id and devices by index (numbers, not names): a design-wide edit names
   // hundreds of thousands of each, and a one-slice edit must not cost the design's size.
   const netIds = new Set<number>();
@@ -146,11 +130,21 @@ function changedNets(nl: FlatNetlist, view: LogicView, p: Proposal): string[] {
   }
   const rails = new Set(nl.rails.map((r) => nl.nets[r.net].name));
   const names: string[] = [];
-  for (const id of netIds) if (!rails.has(nl.nets[id].name)) names.push(nl.nets[id].name);
-  for (const n of others) if (!rails.has(n)) names.push(n);
+  const ids: number[] = [];
+  const otherNames: string[] = [];
+  for (const id of netIds) {
+    if (rails.has(nl.nets[id].name)) continue;
+    names.push(nl.nets[id].name);
+    ids.push(id);
+  }
+  for (const n of others) {
+    if (rails.has(n)) continue;
+    names.push(n);
+    otherNames.push(n);
+  }
   names.sort();
   // Two nets of one name (or a name also met as text) count once, as in a set of names.
-  return names.filter((n, k) => k === 0 || n !== names[k - 1]);
+  return { names: names.filter((n, k) => k === 0 || n !== names[k - 1]), ids, others: otherNames };
 }
 
 const NOTHING_DRIVEN = 'the rewrite changes no driven net the extractor can see';
@@ -172,7 +166,21 @@ type Problem =
   | { done: Verification }
   | { done?: undefined; compared: string[]; beforeFns: Record<string, Expr>; afterFns: Record<string, Expr>; inputs: string[]; compareNames: [string, string][] };
 
-function problemOf(nl: FlatNetlist, view: LogicView, after: FlatNetlist, edit: Proposal['edit'], changed: string[], used: Assumption[]): Problem {
+/** The view as the proof composes it: nets in `cut` are free values, not their drivers' logic. */
+function cutView(view: LogicView, cut?: ReadonlySet<string>): LogicView {
+  if (!cut || cut.size === 0) return view;
+  return { ...view, nodes: view.nodes.filter((n) => !cut.has(n.name)), inputs: [...view.inputs, ...cut] };
+}
+
+function problemOf(
+  nl: FlatNetlist,
+  view: LogicView,
+  after: FlatNetlist,
+  edit: Proposal['edit'],
+  changed: string[],
+  used: Assumption[],
+  cut?: ReadonlySet<string>,
+): Problem {
   // Only the groups the edit touches are extracted again; every other node is the region's own.
   const afterView = extractEdited({ nl, view }, after, edit);
   const driven = (view: LogicView, nl: FlatNetlist, name: string) => {
@@ -190,10 +198,10 @@ function problemOf(nl: FlatNetlist, view: LogicView, after: FlatNetlist, edit: P
   if (compared.length === 0) {
     return { done: { status: 'unproved', method: 'none', assumptions: used.map((a) => a.id), compared, simulatedVectors: 0, note: NOTHING_DRIVEN } };
   }
-  const bModel = combinationalModel(view, compared.map((n) => nl.nets[nl.netByName.get(n)!].name));
+  const bModel = combinationalModel(cutView(view, cut), compared.map((n) => nl.nets[nl.netByName.get(n)!].name));
   const afterNames = compared.map((n) => after.nets[after.netByName.get(n)!].name);
   const drivenAfter = afterNames.filter((n) => afterView.nodeByNet.has(after.netByName.get(n)!));
-  const aModel = combinationalModel(afterView, drivenAfter);
+  const aModel = combinationalModel(cutView(afterView, cut), drivenAfter);
   const beforeFns: Record<string, Expr> = {};
   const afterFns: Record<string, Expr> = {};
   compared.forEach((name, k) => {
@@ -217,7 +225,9 @@ function problemOf(nl: FlatNetlist, view: LogicView, after: FlatNetlist, edit: P
     }
   });
   const compareNames = compared.map((n, k): [string, string] => [nl.nets[nl.netByName.get(n)!].name, afterNames[k]]);
-  return { compared, beforeFns, afterFns, inputs: bModel.inputs, compareNames };
+  // The switch-level check drives the region's own inputs; a cut net keeps its driver there.
+  const inputs = cut ? [...new Set([...view.inputs, ...view.stateBits])] : bModel.inputs;
+  return { compared, beforeFns, afterFns, inputs, compareNames };
 }
 
 /** Can this verdict be told to another region? Only when every name in it maps by position. */
@@ -270,6 +280,10 @@ function reuse(hit: CachedProof, key: ProofKey, used: Assumption[], problem: () 
  * A net the rewrite leaves undriven and unread (an internal node of removed parts) is skipped;
  * one that stays read but loses its driver is compared as a free variable, which refutes.
  * With a cache, a region whose canonical key was proved before in this scan reuses that verdict.
+ * When the changed nets' fan-in is beyond the switch-level check's size (a design-wide edit, a
+ * deep ripple chain), the edit is first proved part by part on
+ * regions cut at the nets it leaves unchanged (see cut-parts), each part simulated on its own;
+ * only if a part is not proved that way is the whole design used.
  */
 export function verifyProposal(
   before: { nl: FlatNetlist; view: LogicView },
@@ -279,15 +293,37 @@ export function verifyProposal(
   simulateUpTo = 20_000,
   cache?: ProofCache,
 ): Verification {
-  const changed = changedNets(before.nl, before.view, p);
+  const changedSet = changedNets(before.nl, before.view, p);
+  const changed = changedSet.names;
   // Work on the changed nets' fan-in cut out of the design, so a proof costs the region's size.
   const seeds = changed.filter((n) => before.view.nodeByNet.has(before.nl.netByName.get(n) ?? -1));
   const nl = regionOf(before.nl, before.view, seeds, p.edit);
-  const after = applyProposals(nl, [p], { share: true });
   const used = assumptions.filter((a) => p.assumptions.includes(a.id));
+  const check: RegionCheck = { used, verifier, simulateUpTo, cache };
+  // A region small enough for the switch-level check is proved whole (the check then sees every
+  // path between parts); a larger one gets no such check whole, so its parts are checked instead.
+  if (nl.devices.length > simulateUpTo) {
+    const byParts = verifyByParts(before, p, changedSet, check);
+    if (byParts) return byParts;
+  }
+  return verifyRegion(nl, nl === before.nl ? before.view : undefined, p.edit, changed, check);
+}
+
+interface RegionCheck {
+  used: Assumption[];
+  verifier: Verifier;
+  simulateUpTo: number;
+  cache?: ProofCache;
+}
+
+/** The proof of one region (or the whole design) before and after an edit, through the cache. */
+function verifyRegion(nl: FlatNetlist, view: LogicView | undefined, edit: Proposal['edit'], changed: string[], check: RegionCheck, cut?: string[]): Verification {
+  const { used, verifier, simulateUpTo, cache } = check;
+  const after = applyProposals(nl, [{ id: 'region', title: '', edit, assumptions: [], margins: [] }], { share: true });
   let problem: Problem | undefined;
-  const problemNow = () => (problem ??= problemOf(nl, nl === before.nl ? before.view : extractLogic(nl), after, p.edit, changed, used));
-  const key = cache ? proofKey(nl, after, changed, used, `simulate:${nl.devices.length <= simulateUpTo}`) : undefined;
+  const cutSet = cut && new Set(cut);
+  const problemNow = () => (problem ??= problemOf(nl, view ?? extractLogic(nl), after, edit, changed, used, cutSet));
+  const key = cache ? proofKey(nl, after, changed, used, `simulate:${nl.devices.length <= simulateUpTo}`, cut) : undefined;
   const hit = key && cache!.get(key.key);
   if (hit) {
     const reused = reuse(hit, key, used, problemNow);
@@ -300,6 +336,86 @@ export function verifyProposal(
     if (!assumptionAt.includes(-1)) cache!.set(key.key, { key, verification: r, assumptionAt });
   }
   return r;
+}
+
+/** A part's proof, reusable by any part with the same key (region/part-key). */
+interface PartProof {
+  verification: Verification;
+  /** Places (in the key) of the compared nets. */
+  comparedAt: Set<number>;
+  /** Positions, in the proposal's assumption list, of the assumptions the verdict names. */
+  assumptionAt: number[];
+}
+
+/** Part proofs of one scan, beside its region proofs. */
+const partProofs = new WeakMap<ProofCache, PartTable<PartProof>>();
+
+/**
+ * A design-wide edit proved part by part (cut-parts): every part proved, or nothing to compare,
+ * gives the proposal's verdict; any part refuted or unproved gives undefined, and the caller
+ * proves the whole design (a cut can refute what the wider logic makes true). Only proved parts
+ * are reused, so a part's key need not carry names.
+ */
+function verifyByParts(before: { nl: FlatNetlist; view: LogicView }, p: Proposal, changed: Changed, check: RegionCheck): Verification | undefined {
+  const parts = cutParts(before.nl, before.view, p.edit, changed);
+  if (!parts || parts.length === 0) return undefined;
+  let proofs: PartTable<PartProof> | undefined;
+  if (check.cache) {
+    proofs = partProofs.get(check.cache);
+    if (!proofs) partProofs.set(check.cache, (proofs = new PartTable()));
+  }
+  const { byName } = indexOf(before.nl);
+  const deviceIndex = (name: string) => byName.get(name);
+  const extra = `simulate-up-to:${check.simulateUpTo}`;
+  const ids = check.used.map((a) => a.id);
+  const compared: string[] = [];
+  const methods = new Set<string>();
+  const usedIds = new Set<string>();
+  let vectors = 0;
+  for (const part of parts) {
+    const region = partRegion(before.nl, before.view, part);
+    if (!region) return undefined;
+    const key = partKey(before.nl, {
+      devices: region.devices,
+      keep: region.keep,
+      cut: region.cut,
+      changed: part.changed,
+      edit: part.edit,
+      removed: part.removed,
+      moved: part.moved,
+      assumptions: check.used,
+      extra,
+      deviceIndex,
+    });
+    let known = proofs?.get(key);
+    if (!known) {
+      const { region: nl, changed: names, cut } = cutRegion(before.nl, part, region);
+      const r = verifyRegion(nl, undefined, part.edit, names, { ...check, cache: undefined }, cut);
+      if (r.status === 'refuted' || (r.status === 'unproved' && r.note !== NOTHING_DRIVEN)) return undefined;
+      const compares = new Set(r.compared);
+      const comparedAt = new Set<number>();
+      part.changed.forEach((id, k) => compares.has(before.nl.nets[id].name) && comparedAt.add(key.places[k]));
+      known = { verification: r, comparedAt, assumptionAt: r.assumptions.map((id) => ids.indexOf(id)) };
+      proofs?.set(key, known);
+    }
+    const r = known.verification;
+    if (r.status !== 'proved') continue; // nothing to compare in this part
+    for (let k = 0; k < part.changed.length; k++) if (known.comparedAt.has(key.places[k])) compared.push(before.nl.nets[part.changed[k]].name);
+    methods.add(r.method);
+    for (const k of known.assumptionAt) usedIds.add(ids[k]);
+    vectors = Math.max(vectors, r.simulatedVectors);
+  }
+  const assumptions = ids.filter((id) => usedIds.has(id));
+  if (compared.length === 0) return { status: 'unproved', method: 'none', assumptions, compared, simulatedVectors: 0, note: NOTHING_DRIVEN };
+  compared.sort();
+  return {
+    status: 'proved',
+    method: [...methods].sort().join('+'),
+    assumptions,
+    compared,
+    simulatedVectors: vectors,
+    note: `proved in ${parts.length} part${parts.length === 1 ? '' : 's'}, each cut out at the nets the rewrite leaves unchanged`,
+  };
 }
 
 function prove(nl: FlatNetlist, after: FlatNetlist, problem: Problem, used: Assumption[], verifier: Verifier, simulateUpTo: number): Verification {

@@ -8,7 +8,8 @@ import type { Edit } from './types';
 
 const inputCache = new WeakMap<LogicView, Set<string>>();
 
-function inputsOf(view: LogicView): Set<string> {
+/** Primary inputs and state bits of a view, by name (built once per view). */
+export function inputsOf(view: LogicView): Set<string> {
   let s = inputCache.get(view);
   if (!s) inputCache.set(view, (s = new Set([...view.inputs, ...view.stateBits])));
   return s;
@@ -22,6 +23,17 @@ function inputsOf(view: LogicView): Set<string> {
  * Each device once, in the order met.
  */
 export function devicesOnTouchedNodes(nl: FlatNetlist, view: LogicView, edit: Edit): number[] {
+  const known = touchedCache.get(edit);
+  if (known && known.nl === nl && known.view === view) return known.devices;
+  const devices = touchedDevices(nl, view, edit);
+  touchedCache.set(edit, { nl, view, devices });
+  return devices;
+}
+
+/** The last answer per edit: the scan asks twice for one proposal (changed nets, then its parts). */
+const touchedCache = new WeakMap<Edit, { nl: FlatNetlist; view: LogicView; devices: number[] }>();
+
+function touchedDevices(nl: FlatNetlist, view: LogicView, edit: Edit): number[] {
   const { byName, onNetStart, onNetList } = indexOf(nl);
   const inputs = inputsOf(view);
   const rails = new Set(nl.rails.map((r) => r.net));

@@ -1,0 +1,340 @@
+// A proposal split into parts that can be proved one by one, each on a small region cut at the nets
+// the rewrite leaves unchanged (cut points): a design-wide edit made of one change per bit slice
+// becomes one part per slice, and slices cut out alike share one proof through the proof cache.
+import type { LogicView } from '../extract/types';
+import type { FlatNetlist } from '../netlist/ir';
+import { cutOut, editNetNames, indexOf, MAX_REGION_NODES, nodeOfNet, ownersOf } from './region';
+import { devicesOnTouchedNodes, inputsOf } from './touched-nodes';
+import type { Edit } from './types';
+
+export interface CutPart {
+  edit: Edit;
+  /** Device indices of edit.removeDevices, in order. */
+  removed: number[];
+  /** Device indices of edit.reconnect's devices, in order. */
+  moved: number[];
+  /** Changed nets the part compares, by id (each named by its own name). */
+  changed: number[];
+  /** Nodes cut out whole and composed in the proof: the part's changed nets and the unchanged nets it merges or moves loads onto. */
+  core: Set<number>;
+}
+
+/** What a part's region holds, before it is cut out (see cutRegion). */
+export interface PartRegion {
+  /** Devices by design index, ascending. */
+  devices: number[];
+  /** Driven nets the region keeps only so its core reads them in context; the proof takes their values as free. */
+  cut: number[];
+  /** Nets the region keeps though no device of it may touch them (compared nets, the edit's nets), by id. */
+  keep: number[];
+}
+
+/** Vector sources by the nets they touch (built once per design). */
+const sourceCache = new WeakMap<FlatNetlist, Map<number, number[]>>();
+
+function sourcesByNet(nl: FlatNetlist): Map<number, number[]> {
+  let m = sourceCache.get(nl);
+  if (m) return m;
+  m = new Map();
+  for (const i of indexOf(nl).sources) {
+    for (const t of nl.devices[i].terminals) {
+      const list = m.get(t);
+      if (!list) m.set(t, [i]);
+      else if (!list.includes(i)) list.push(i);
+    }
+  }
+  sourceCache.set(nl, m);
+  return m;
+}
+
+/**
+ * Splits a proposal's edit into parts whose changed nets depend on one another only through nets
+ * the edit leaves unchanged. Two changes fall in one part when they touch a common net the edit
+ * changes (an internal node, a net merged away, a net whose driving group loses or gains parts).
+ * A driven net whose group the edit leaves alone — a kept shared driver others are merged onto, a
+ * line that only loses a load — links nothing: it is compared in a part of its own, and a part
+ * that merges or moves loads onto it composes its (unchanged) logic.
+ *
+ * Why the parts' proofs prove the whole: each part's changed nets are proved equal before and after
+ * for every value of the nets the region cuts, so in the design, where those nets are either
+ * unchanged or changed nets proved equal by their own parts, every changed net keeps its value
+ * (induction along the logic's fan-in; latch nets are cut as state bits in both).
+ *
+ * @param changed the changed nets of the whole proposal (as the scan computes them): by id those
+ *   named by their own name, and any other names
+ * @returns the parts, or undefined when the edit cannot be split this way (an added or removed
+ *   part that touches no net a proof could compare, a removed source, a driven net changed under
+ *   a second name)
+ */
+export function cutParts(nl: FlatNetlist, view: LogicView, edit: Edit, changed: { ids: number[]; others: string[] }): CutPart[] | undefined {
+  const { byName, onNetStart, onNetList } = indexOf(nl);
+  const owners = ownersOf(view, nl.devices.length);
+  const inputs = inputsOf(view);
+  const netCount = nl.nets.length;
+  const deviceCount = nl.devices.length;
+  // Typed marks by net and device id: a design-wide edit names hundreds of thousands of each.
+  const railNet = new Uint8Array(netCount);
+  railNet[0] = 1;
+  for (const r of nl.rails) railNet[r.net] = 1;
+  const nodeOf = nodeOfNet(view, netCount);
+  const isInput = (id: number) => nodeOf[id] < 0 && inputs.has(nl.nets[id].name);
+
+  // New nets an edit names (an added driver's output) get ids after the design's.
+  const newNet = new Map<string, number>();
+  const netId = (name: string): number => {
+    const id = nl.netByName.get(name);
+    if (id !== undefined) return id;
+    let k = newNet.get(name);
+    if (k === undefined) newNet.set(name, (k = netCount + newNet.size));
+    return k;
+  };
+  for (const r of edit.reconnect) netId(r.net);
+  for (const d of edit.addDevices) for (const t of d.terminals) netId(t);
+  for (const m of edit.mergeNets) netId(m.keep);
+  const ids = netCount + newNet.size;
+
+  const removed = new Uint8Array(deviceCount);
+  const hit = new Uint8Array(deviceCount);
+  const hitList: number[] = [];
+  const hitDevice = (d: number) => {
+    if (hit[d] === 0) {
+      hit[d] = 1;
+      hitList.push(d);
+    }
+  };
+  const removedIds: number[] = [];
+  for (const name of edit.removeDevices) {
+    const i = byName.get(name);
+    if (i === undefined || nl.devices[i].kind === 'vsource') return undefined;
+    removed[i] = 1;
+    removedIds.push(i);
+    hitDevice(i);
+  }
+  const reconnectIds: number[] = [];
+  for (const r of edit.reconnect) {
+    const i = byName.get(r.device);
+    if (i === undefined) return undefined;
+    reconnectIds.push(i);
+    hitDevice(i);
+  }
+  const mergedAway = new Uint8Array(netCount);
+  const removeIds: number[] = [];
+  for (const m of edit.mergeNets) {
+    const id = nl.netByName.get(m.remove);
+    if (id === undefined) return undefined;
+    mergedAway[id] = 1;
+    removeIds.push(id);
+    for (let k = onNetStart[id]; k < onNetStart[id + 1]; k++) hitDevice(onNetList[k]);
+  }
+  for (const d of devicesOnTouchedNodes(nl, view, edit)) hitDevice(d);
+  const addedOn = new Uint8Array(ids);
+  for (const d of edit.addDevices) for (const t of d.terminals) addedOn[netId(t)] = 1;
+
+  // Quiet: driven, its group holds no part the edit touches, nothing is added on it, and every net
+  // merged into it brings no driver of its own (the merged net's group is removed whole).
+  const quietMark = new Uint8Array(netCount); // 0 not yet known, 1 quiet, 2 not
+  const quiet = (id: number): boolean => {
+    if (id >= netCount) return false;
+    if (quietMark[id] === 0) {
+      const node = nodeOf[id];
+      const q = node >= 0 && addedOn[id] === 0 && mergedAway[id] === 0 && !view.nodes[node].devices.some((d) => hit[d] === 1);
+      quietMark[id] = q ? 1 : 2;
+    }
+    return quietMark[id] === 1;
+  };
+  edit.mergeNets.forEach((m, k) => {
+    const keep = nl.netByName.get(m.keep);
+    const gone = nodeOf[removeIds[k]];
+    if (keep !== undefined && gone >= 0 && view.nodes[gone].devices.some((d) => removed[d] === 0)) quietMark[keep] = 2;
+  });
+
+  // Union-find over net ids (new nets after the design's).
+  const parent = new Int32Array(ids).fill(-1);
+  const find = (x: number): number => {
+    if (parent[x] < 0) return (parent[x] = x);
+    let r = x;
+    while (parent[r] !== r) r = parent[r];
+    while (parent[x] !== r) {
+      const p = parent[x];
+      parent[x] = r;
+      x = p;
+    }
+    return r;
+  };
+  const union = (a: number, b: number) => {
+    const ra = find(a);
+    const rb = find(b);
+    if (ra !== rb) parent[ra] = rb;
+  };
+  /** A net an item links through: not ground or a rail, not a quiet driven net, not an input a removed or moved part only read. */
+  const links = (id: number, fromAdded: boolean) => !(id < netCount && (railNet[id] === 1 || quiet(id) || (!fromAdded && isInput(id))));
+
+  // Each item joins its linking nets; the first is its atom. An item with none is not split.
+  const itemAtoms: number[] = [];
+  const atomOfDevice = new Int32Array(deviceCount).fill(-1);
+  const item = (nets: readonly number[], fromAdded: boolean): number => {
+    let first = -1;
+    for (const id of nets) {
+      if (!links(id, fromAdded)) continue;
+      if (first < 0) first = id;
+      union(first, id);
+    }
+    if (first >= 0) itemAtoms.push(first);
+    return first;
+  };
+  for (const i of removedIds) if ((atomOfDevice[i] = item(nl.devices[i].terminals, false)) < 0) return undefined;
+  for (let k = 0; k < reconnectIds.length; k++) {
+    const i = reconnectIds[k];
+    const atom = item([...nl.devices[i].terminals, netId(edit.reconnect[k].net)], false);
+    if (atom < 0) return undefined;
+    atomOfDevice[i] = atom;
+  }
+  for (const d of edit.addDevices) if (item(d.terminals.map(netId), true) < 0) return undefined;
+  for (let k = 0; k < removeIds.length; k++) if (item([removeIds[k], netId(edit.mergeNets[k].keep)], false) < 0) return undefined;
+
+  // Every group holding a part the edit touches changes with that item: its net joins the item
+  // (through the item's atom, a net merged away it sat on, or an internal node it shares).
+  for (const d of hitList) {
+    let atom = atomOfDevice[d];
+    for (const t of nl.devices[d].terminals) {
+      if (parent[t] < 0 || railNet[t] === 1 || !(mergedAway[t] === 1 || nodeOf[t] < 0)) continue;
+      if (atom < 0) atom = t;
+      else union(atom, t);
+    }
+    if (atom < 0) return undefined;
+    if (owners.first[d] >= 0) union(view.nodes[owners.first[d]].net, atom);
+    for (const i of owners.more.get(d) ?? []) union(view.nodes[i].net, atom);
+  }
+
+  // Group items and changed nets by root.
+  const parts = new Map<number, CutPart>();
+  const empty = (): CutPart => ({ edit: { removeDevices: [], addDevices: [], reconnect: [], mergeNets: [] }, removed: [], moved: [], changed: [], core: new Set() });
+  const partOf = (root: number): CutPart => {
+    let p = parts.get(root);
+    if (!p) parts.set(root, (p = empty()));
+    return p;
+  };
+  let k = 0;
+  edit.removeDevices.forEach((name, j) => {
+    const p = partOf(find(itemAtoms[k++]));
+    p.edit.removeDevices.push(name);
+    p.removed.push(removedIds[j]);
+  });
+  edit.reconnect.forEach((r, j) => {
+    const p = partOf(find(itemAtoms[k++]));
+    p.edit.reconnect.push(r);
+    p.moved.push(reconnectIds[j]);
+  });
+  for (const d of edit.addDevices) partOf(find(itemAtoms[k++])).edit.addDevices.push(d);
+  for (const m of edit.mergeNets) partOf(find(itemAtoms[k++])).edit.mergeNets.push(m);
+  if (edit.addModels?.length) for (const p of parts.values()) if (p.edit.addDevices.length) p.edit.addModels = edit.addModels;
+  for (const name of changed.others) {
+    const id = nl.netByName.get(name);
+    if (id !== undefined && nodeOf[id] >= 0) return undefined;
+  }
+  const quietParts: CutPart[] = [];
+  for (const id of changed.ids) {
+    const node = nodeOf[id];
+    if (node < 0) continue; // undriven before: never compared
+    if (quiet(id)) {
+      const p = empty();
+      p.core.add(node);
+      p.changed.push(id);
+      quietParts.push(p);
+      continue;
+    }
+    const p = parent[id] < 0 ? undefined : parts.get(find(id));
+    if (!p) return undefined; // a changed net no item reaches: not split
+    p.changed.push(id);
+    p.core.add(node);
+  }
+  // Unchanged nets a part merges into or moves loads onto: their logic is composed in its proof.
+  for (const p of parts.values()) {
+    for (const name of [...p.edit.mergeNets.map((m) => m.keep), ...p.edit.reconnect.map((r) => r.net)]) {
+      const id = nl.netByName.get(name);
+      if (id !== undefined && id < netCount && nodeOf[id] >= 0 && quiet(id)) p.core.add(nodeOf[id]);
+    }
+  }
+  for (const p of parts.values()) p.changed.sort((a, b) => a - b);
+  return [...parts.values(), ...quietParts];
+}
+
+/**
+ * The part's core nodes with their parts, the parts the edit names, the drivers of every net those
+ * read (the cut: kept for context, free in the proof) and the sources on any of their nets.
+ * @returns undefined when the region would exceed MAX_REGION_NODES logic nodes
+ */
+export function partRegion(nl: FlatNetlist, view: LogicView, part: CutPart): PartRegion | undefined {
+  const marks = marksOf(nl, view);
+  const nodeOf = nodeOfNet(view, nl.nets.length);
+  const stamp = ++marks.stamp;
+  const core = part.core;
+  const ring: number[] = [];
+  const devices: number[] = [];
+  const takeDevice = (d: number) => {
+    if (marks.device[d] !== stamp) {
+      marks.device[d] = stamp;
+      devices.push(d);
+    }
+  };
+  for (const i of core) marks.node[i] = stamp;
+  const readBy = (d: number, own: number) => {
+    for (const t of nl.devices[d].terminals) {
+      if (t === own) continue;
+      const j = nodeOf[t];
+      if (j >= 0 && marks.node[j] !== stamp) {
+        marks.node[j] = stamp;
+        ring.push(j);
+      }
+    }
+  };
+  for (const i of core) {
+    for (const d of view.nodes[i].devices) {
+      takeDevice(d);
+      readBy(d, view.nodes[i].net);
+    }
+  }
+  for (const list of [part.removed, part.moved]) {
+    for (const i of list) {
+      takeDevice(i);
+      readBy(i, -1);
+    }
+  }
+  if (core.size + ring.length > MAX_REGION_NODES) return undefined;
+  for (const j of ring) for (const d of view.nodes[j].devices) takeDevice(d);
+  const sources = sourcesByNet(nl);
+  for (const r of nl.rails) for (const s of sources.get(r.net) ?? []) takeDevice(s);
+  const n = devices.length;
+  for (let k = 0; k < n; k++) for (const t of nl.devices[devices[k]].terminals) for (const s of sources.get(t) ?? []) takeDevice(s);
+  const keep = [...part.changed];
+  for (const name of editNetNames(nl, part.edit)) {
+    const id = nl.netByName.get(name);
+    if (id !== undefined) keep.push(id);
+  }
+  return { devices: devices.sort((a, b) => a - b), cut: ring.map((j) => view.nodes[j].net), keep };
+}
+
+/** Scratch marks by device and node, stamped per region so they need no clearing (one set per design). */
+interface Marks {
+  stamp: number;
+  device: Int32Array;
+  node: Int32Array;
+}
+
+const markCache = new WeakMap<LogicView, Marks>();
+
+function marksOf(nl: FlatNetlist, view: LogicView): Marks {
+  let m = markCache.get(view);
+  if (!m || m.device.length !== nl.devices.length) {
+    m = { stamp: 0, device: new Int32Array(nl.devices.length), node: new Int32Array(view.nodes.length) };
+    markCache.set(view, m);
+  }
+  return m;
+}
+
+/** The part's region as a netlist of its own, its compared nets' names and its cut nets' names. */
+export function cutRegion(nl: FlatNetlist, part: CutPart, r: PartRegion): { region: FlatNetlist; changed: string[]; cut: string[] } {
+  const name = (id: number) => nl.nets[id].name;
+  const changed = part.changed.map(name).sort();
+  return { region: cutOut(nl, new Set(r.devices), [...changed, ...editNetNames(nl, part.edit)]), changed, cut: r.cut.map(name).sort() };
+}
