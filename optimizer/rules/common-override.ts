@@ -4,7 +4,7 @@
 // pull the lines through steering diodes; checked for sink current, forced β or on-resistance, the
 // lines' low level against their receivers, contention under the assumptions, and back-feed.
 import { z } from 'zod';
-import { isRail, makeContext, type ExtractContext } from '../extract/context';
+import { isRail, type ExtractContext } from '../extract/context';
 import type { LogicNode } from '../extract/types';
 import type { MapFamily } from '../logic/family-parts';
 import type { MarginResult } from '../margins/corners';
@@ -14,6 +14,7 @@ import { chunked, worstPerName, type Chunk } from './support/chunks';
 import { betaMinOfDevice } from './support/driver-margins';
 import { describePlaces } from './support/finding-words';
 import { mosParams } from './support/mos-params';
+import { NetIndex } from './support/net-index';
 import { findOverrides, lineInfo, readersByName, sharedNodeOf, type LineInfo, type Override, type SharedNode } from './support/override-lines';
 import {
   addLoads,
@@ -320,7 +321,8 @@ export const commonOverride = defineRule({
   },
   find(ctx, options) {
     const nl = ctx.netlist;
-    const cx = makeContext(nl as Parameters<typeof makeContext>[0]);
+    // the terminal index every rule of a scan shares (built once per frozen design)
+    const cx = NetIndex.of(nl, ctx.view).context;
     const ov = findOverrides(ctx, cx, options.minCopies, options.mosLines);
     if (ov.length < options.minCopies) return;
     const byControl = new Map<string, number[]>();

@@ -7,12 +7,12 @@ import type { MapFamily } from '../logic/family-parts';
 import { exactMinimiser, type Minimiser } from '../logic/minimiser';
 import { DEFAULT_MARGIN_SETTINGS, type MarginSettings } from '../margins/defaults';
 import type { FlatNetlist } from '../netlist/ir';
-import { editProblems, overlapOf, touched, type Touched } from '../rewrite/edits';
+import { deviceIndex, editProblems, type NameIndex } from '../rewrite/edits';
 import { renderMessage } from './define-rule';
 import { deepFreeze } from './freeze';
 import { sealSettings } from './support/driver-margins';
 import { RULES } from './index';
-import type { Assumption, Finding, FindingReport, Rule, RuleContext } from './types';
+import type { Assumption, Edit, Finding, FindingReport, Rule, RuleContext } from './types';
 
 export interface RunOptions {
   /** The rule map to draw from (default: every rule in the catalogue). */
@@ -141,7 +141,7 @@ export async function runRules(netlist: FlatNetlist, view: LogicView, options: R
       });
     }
   }
-  return { findings, ruleErrors, overlaps: overlapGraph(findings) };
+  return { findings, ruleErrors, overlaps: overlapGraph(findings, netlist) };
 }
 
 /**
@@ -149,47 +149,68 @@ export async function runRules(netlist: FlatNetlist, view: LogicView, options: R
  * Each name touched gets a slot number in the order first met (devices with added names, then
  * nets, proposal by proposal) and remembers the last proposal that touched it; only a name that a
  * second proposal touches gets a list. A finding that spans every slice of a large design touches
- * millions of names, so nothing else is kept per name, and each proposal's touched sets are built
- * only when it is in a pair. Edges come in the order of the first shared name.
+ * millions of names, so nothing else is kept per name, and what a pair shares is found by marking
+ * names rather than building sets per proposal. Edges come in the order of the first shared name.
+ * Given the netlist the proposals target, its device and net names are numbered by its indexes
+ * instead of new maps.
  */
-export function overlapGraph(findings: Finding[]): OverlapGraph {
+export function overlapGraph(findings: Finding[], netlist?: FlatNetlist): OverlapGraph {
   const proposals = findings.flatMap((f) => f.proposals);
-  const devices = new Map<string, number>();
-  const nets = new Map<string, number>();
   /** Last proposal to touch each slot. */
   const last: number[] = [];
   /** Proposals touching a slot, for slots touched by two or more. */
   const lists = new Map<number, number[]>();
-  const note = (map: Map<string, number>, name: string, i: number): void => {
+  const touch = (slot: number, i: number): void => {
+    if (last[slot] === i) return;
+    let list = lists.get(slot);
+    if (!list) lists.set(slot, (list = [last[slot]]));
+    list.push(i);
+    last[slot] = i;
+  };
+  // Names of the design's devices and nets are numbered by the netlist's own indexes (slot + 1 in
+  // a typed array, 0 while unmet); other names (added devices, unknown nets) go in maps.
+  const devIds = netlist ? deviceIndex(netlist) : undefined;
+  const devSlot = new Int32Array(netlist ? netlist.devices.length : 0);
+  const netSlot = new Int32Array(netlist ? netlist.nets.length : 0);
+  const devices = new Map<string, number>();
+  const nets = new Map<string, number>();
+  const noteIn = (table: Int32Array, id: number, i: number): void => {
+    const slot = table[id] - 1;
+    if (slot < 0) {
+      table[id] = last.length + 1;
+      last.push(i);
+    } else touch(slot, i);
+  };
+  const noteName = (map: Map<string, number>, name: string, i: number): void => {
     const slot = map.get(name);
     if (slot === undefined) {
       map.set(name, last.length);
       last.push(i);
-    } else if (last[slot] !== i) {
-      let list = lists.get(slot);
-      if (!list) lists.set(slot, (list = [last[slot]]));
-      list.push(i);
-      last[slot] = i;
-    }
+    } else touch(slot, i);
+  };
+  const noteDevice = (name: string, i: number): void => {
+    const id = devIds?.get(name);
+    if (id === undefined) noteName(devices, name, i);
+    else noteIn(devSlot, id, i);
+  };
+  const noteNet = (name: string, i: number): void => {
+    const id = netlist?.netByName.get(name);
+    if (id === undefined) noteName(nets, name, i);
+    else noteIn(netSlot, id, i);
   };
   for (let i = 0; i < proposals.length; i++) {
     const e = proposals[i].edit;
-    for (const d of e.removeDevices) note(devices, d, i);
-    for (const r of e.reconnect) note(devices, r.device, i);
-    for (const d of e.addDevices) note(devices, d.name, i);
+    for (const d of e.removeDevices) noteDevice(d, i);
+    for (const r of e.reconnect) noteDevice(r.device, i);
+    for (const d of e.addDevices) noteDevice(d.name, i);
     for (const m of e.mergeNets) {
-      note(nets, m.keep, i);
-      note(nets, m.remove, i);
+      noteNet(m.keep, i);
+      noteNet(m.remove, i);
     }
   }
-  const sets = new Map<number, Touched>();
-  const setOf = (i: number): Touched => {
-    let t = sets.get(i);
-    if (!t) sets.set(i, (t = touched(proposals[i].edit)));
-    return t;
-  };
   const pairs = new Set<number>();
   const edges: OverlapGraph['edges'] = [];
+  let shared: SharedNames | undefined;
   for (const slot of [...lists.keys()].sort((a, b) => a - b)) {
     const list = lists.get(slot)!;
     for (let x = 0; x < list.length; x++) {
@@ -197,10 +218,82 @@ export function overlapGraph(findings: Finding[]): OverlapGraph {
         const key = list[x] * proposals.length + list[y];
         if (pairs.has(key)) continue;
         pairs.add(key);
-        const o = overlapOf(setOf(list[x]), setOf(list[y]));
+        shared ??= new SharedNames(netlist);
+        const o = shared.between(proposals[list[x]].edit, proposals[list[y]].edit);
         edges.push({ a: proposals[list[x]].id, b: proposals[list[y]].id, ...o });
       }
     }
   }
   return { nodes: proposals.map((p) => p.id), edges };
+}
+
+/**
+ * Names of one kind marked with stamps: by the design's index where it numbers the name (a typed
+ * array, no map entry per name), in a map otherwise. A new stamp forgets every earlier mark.
+ */
+class NameMarks {
+  private readonly byId: Int32Array;
+  private readonly byName = new Map<string, number>();
+  constructor(
+    size: number,
+    private readonly idOf: (name: string) => number | undefined,
+  ) {
+    this.byId = new Int32Array(size);
+  }
+  get(name: string): number {
+    const id = this.idOf(name);
+    return id === undefined ? (this.byName.get(name) ?? 0) : this.byId[id];
+  }
+  set(name: string, stamp: number): void {
+    const id = this.idOf(name);
+    if (id === undefined) this.byName.set(name, stamp);
+    else this.byId[id] = stamp;
+  }
+}
+
+/**
+ * What two edits both change, as overlapOf(touched(a), touched(b)) gives it: a's removed or
+ * reconnected devices that b removes or reconnects, then a's added names that b adds, and a's
+ * merged nets that b merges, each in a's order without repeats. Marks instead of sets per edit.
+ */
+class SharedNames {
+  private stamp = 0;
+  private readonly devices: NameMarks;
+  private readonly added: NameMarks;
+  private readonly nets: NameMarks;
+  constructor(netlist?: FlatNetlist) {
+    const devIds: NameIndex | undefined = netlist ? deviceIndex(netlist) : undefined;
+    this.devices = new NameMarks(netlist ? netlist.devices.length : 0, (n) => devIds?.get(n));
+    this.added = new NameMarks(0, () => undefined);
+    this.nets = new NameMarks(netlist ? netlist.nets.length : 0, (n) => netlist?.netByName.get(n));
+  }
+
+  between(a: Edit, b: Edit): { devices: string[]; nets: string[] } {
+    const inB = ++this.stamp;
+    for (const d of b.removeDevices) this.devices.set(d, inB);
+    for (const r of b.reconnect) this.devices.set(r.device, inB);
+    for (const d of b.addDevices) this.added.set(d.name, inB);
+    for (const m of b.mergeNets) {
+      this.nets.set(m.keep, inB);
+      this.nets.set(m.remove, inB);
+    }
+    // a's names are marked as met once read, so a repeat is skipped (its first reading decided)
+    const met = ++this.stamp;
+    const devices: string[] = [];
+    const nets: string[] = [];
+    const visit = (marks: NameMarks, name: string, out: string[]): void => {
+      const m = marks.get(name);
+      if (m === met) return;
+      if (m === inB) out.push(name);
+      marks.set(name, met);
+    };
+    for (const d of a.removeDevices) visit(this.devices, d, devices);
+    for (const r of a.reconnect) visit(this.devices, r.device, devices);
+    for (const d of a.addDevices) visit(this.added, d.name, devices);
+    for (const m of a.mergeNets) {
+      visit(this.nets, m.keep, nets);
+      visit(this.nets, m.remove, nets);
+    }
+    return { devices, nets };
+  }
 }

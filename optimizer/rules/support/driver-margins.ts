@@ -100,32 +100,47 @@ export interface LineLoad {
   betaMin?: number;
 }
 
-/** Loads of a net as fan-out counts them (one per reading node), with base-resistor detail. */
-export function lineLoads(idx: NetIndex, net: number, s: MarginSettings, except: Set<number> = new Set()): LineLoad[] {
+/**
+ * Loads of a net as fan-out counts them (one per reading node), with base-resistor detail: the
+ * terminals on the net, less the net's own driving node's devices, sources and `except`. Walks the
+ * index's terminal table directly (this runs for every line a rule checks).
+ */
+export function lineLoads(idx: NetIndex, net: number, s: MarginSettings, except?: Set<number>): LineLoad[] {
   const out: LineLoad[] = [];
-  const seenOwner = new Set<number>();
-  for (const l of idx.loads(net)) {
-    if (except.has(l.device)) continue;
-    const dev = idx.nl.devices[l.device];
-    if (l.owner >= 0) {
-      const node = idx.view.nodes[l.owner];
-      const base = dev.kind === 'resistor' ? node.groups.flatMap((g) => g.bases).find((b) => b.baseResistors.some((r) => r.device === l.device)) : undefined;
+  const nl = idx.nl as FlatNetlist;
+  const ownList = idx.nodeOfNet(net)?.devices ?? [];
+  // a node owns a few devices: a linear look-up beats building a set per line
+  const own = ownList.length > 16 ? new Set(ownList) : undefined;
+  let seenOwner: Set<number> | undefined;
+  const { from, to } = idx.termRange(net);
+  for (let i = from; i < to; i++) {
+    const device = idx.termDevice(i);
+    if (own ? own.has(device) : ownList.includes(device)) continue;
+    const dev = nl.devices[device];
+    if (dev.kind === 'vsource' || dev.kind === 'isource') continue;
+    if (except?.has(device)) continue;
+    const owner = idx.ownerOf[device];
+    if (owner >= 0) {
+      const node = idx.view.nodes[owner];
+      const base = dev.kind === 'resistor' ? baseFedBy(node, device) : undefined;
       if (base) {
-        const q = idx.nl.devices[base.transistor];
-        out.push({
-          device: l.device,
-          rb: dev.value,
-          loadPullUp: node.pullUps.filter((u) => u.ohms).reduce<number | undefined>((m, u) => (m === undefined ? u.ohms : Math.min(m, u.ohms!)), undefined),
-          betaMin: betaMinOfDevice(idx.nl as FlatNetlist, base.transistor, s),
-        });
+        let loadPullUp: number | undefined;
+        for (const u of node.pullUps) if (u.ohms) loadPullUp = loadPullUp === undefined ? u.ohms : Math.min(loadPullUp, u.ohms);
+        out.push({ device, rb: dev.value, loadPullUp, betaMin: betaMinOfDevice(nl, base.transistor, s) });
         continue;
       }
-      if (seenOwner.has(l.owner)) continue;
-      seenOwner.add(l.owner);
+      if (seenOwner?.has(owner)) continue;
+      (seenOwner ??= new Set()).add(owner);
     }
-    out.push({ device: l.device });
+    out.push({ device });
   }
   return out;
+}
+
+/** The base network a resistor feeds, in a node's groups (first match, as the groups list them). */
+function baseFedBy(node: LogicNode, resistor: number): LogicNode['groups'][number]['bases'][number] | undefined {
+  for (const g of node.groups) for (const b of g.bases) for (const r of b.baseResistors) if (r.device === resistor) return b;
+  return undefined;
 }
 
 /**

@@ -134,6 +134,11 @@ export class NetIndex {
     this.railNets = t.railNets;
   }
 
+  /** The design's terminal index as extraction helpers take it (shared: read it, never write it). */
+  get context(): ExtractContext {
+    return this.cx;
+  }
+
   netId(name: string): number | undefined {
     return this.nl.netByName.get(name);
   }

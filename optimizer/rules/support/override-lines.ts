@@ -58,7 +58,6 @@ export function findOverrides(ctx: RuleContext, cx: ExtractContext, min = 1, mos
   type Candidate = { ni: number; br: { device: number; on: Expr }; control: string; vcc: number; hung?: ReturnType<typeof hungFrom> };
   const candidates: Candidate[] = [];
   const perControl = new Map<string, number>();
-  const seenOnLine = new Set<string>();
   view.nodes.forEach((node, ni) => {
     const bipolar = node.family === 'rtl' || node.family === 'dtl';
     if (!bipolar && !(mos && node.family === 'nmos')) return;
@@ -73,6 +72,7 @@ export function findOverrides(ctx: RuleContext, cx: ExtractContext, min = 1, mos
     const branches = node.groups.flatMap((g) => (g.pullDown ? (g.pullDown.type === 'parallel' ? g.pullDown.parts : [g.pullDown]) : []));
     // A line with nothing but the override is a plain inverter of the control: another rule's.
     if (branches.length < 2) return;
+    const seenOnLine: string[] = [];
     for (const br of branches) {
       if (br.type !== 'switch') continue;
       const q = nl.devices[br.device];
@@ -82,9 +82,8 @@ export function findOverrides(ctx: RuleContext, cx: ExtractContext, min = 1, mos
       if (br.on.op === 'const') continue;
       const control = `${node.family}|${exprToString(br.on)}`;
       // a second override of the same control on the same line is paralleled, not another line
-      const key = `${control}#${ni}`;
-      if (seenOnLine.has(key)) continue;
-      seenOnLine.add(key);
+      if (seenOnLine.includes(control)) continue;
+      seenOnLine.push(control);
       candidates.push({ ni, br, control, vcc, ...(hung ? { hung } : {}) });
       perControl.set(control, (perControl.get(control) ?? 0) + 1);
     }

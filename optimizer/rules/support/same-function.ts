@@ -57,20 +57,54 @@ export function truthKey(fn: Expr, inputs: string[]): string {
   return out;
 }
 
+/** A node's sorted inputs and, once asked, its class key. */
+interface NodeKey {
+  inputs: string[];
+  key?: string;
+}
+
+/**
+ * Sorted inputs and class keys by node index, for a frozen view (as a scan freezes it): they
+ * depend only on each node's family, inputs and function, which a frozen view cannot change, and
+ * several rules ask for the classes of the same view. One table per view, not one entry per node.
+ */
+const viewKeys = new WeakMap<LogicView, (NodeKey | undefined)[]>();
+
+function keyTable(view: LogicView): (NodeKey | undefined)[] | undefined {
+  if (!Object.isFrozen(view) || !Object.isFrozen(view.nodes)) return undefined;
+  let t = viewKeys.get(view);
+  if (!t) {
+    // filled by push so the array stays packed (a large `new Array(n)` is a slow dictionary)
+    t = [];
+    for (let i = 0; i < view.nodes.length; i++) t.push(undefined);
+    viewKeys.set(view, t);
+  }
+  return t;
+}
+
 export function sameFunctionClasses(view: LogicView, options: SameFunctionOptions): FunctionClass[] {
   const kinds = new Set(options.kinds ?? ['static']);
   const byKey = new Map<string, FunctionClass>();
-  view.nodes.forEach((node, i) => {
-    if (!kinds.has(node.kind) || node.enable) return;
-    const inputs = [...node.inputs].sort();
+  const nodes = view.nodes;
+  const table = keyTable(view);
+  for (let i = 0; i < nodes.length; i++) {
+    const node = nodes[i];
+    if (!kinds.has(node.kind) || node.enable) continue;
+    let nk = table?.[i];
+    if (!nk) {
+      nk = { inputs: [...node.inputs].sort() };
+      // (a node of a frozen view is frozen with it: deepFreeze walks the whole view)
+      if (table && Object.isFrozen(node)) table[i] = nk;
+    }
+    const inputs = nk.inputs;
     // Constant nets are another rule's business; wide functions are left to the minimiser.
-    if (inputs.length === 0 || inputs.length > options.maxInputs) return;
-    if (options.accept && !options.accept(node, i)) return;
-    const key = `${node.family}|${inputs.join(',')}|${truthKey(node.fn, inputs)}`;
+    if (inputs.length === 0 || inputs.length > options.maxInputs) continue;
+    if (options.accept && !options.accept(node, i)) continue;
+    const key = (nk.key ??= `${node.family}|${inputs.join(',')}|${truthKey(node.fn, inputs)}`);
     const cls = byKey.get(key);
     if (cls) cls.members.push(i);
-    else byKey.set(key, { key, family: node.family, inputs, fn: node.fn, members: [i] });
-  });
+    else byKey.set(key, { key, family: node.family, inputs: [...inputs], fn: node.fn, members: [i] });
+  }
   const min = options.minSize ?? 2;
   return [...byKey.values()].filter((c) => c.members.length >= min);
 }
