@@ -16,15 +16,12 @@ import {
 } from './context';
 import { nodePullUp, withNodePullUp } from './node-pull-ups';
 import { eachDiodeTap, isBleed } from './diode-taps';
+import { fit } from './fit';
 
 // Shared empty lists for the common (non-DTL) base drive: most transistors have none of these.
 const NONE: number[] = Object.freeze([]) as unknown as number[];
 
-/**
- * An exact-size copy of a list built by push: V8 grows a pushed-to array to 17 slots, so the
- * one- to three-entry lists a large design keeps by the hundred thousand would be mostly spare.
- */
-export const fit = <T>(a: T[]): T[] => a.slice();
+export { fit } from './fit';
 
 const C = 0;
 const B = 1;
@@ -485,6 +482,7 @@ const scratchUsed: number[] = [];
 /** Scratch lists of collectorNode: a group's devices and the node's; only exact-size copies are kept. */
 const scratchGroup: number[] = [];
 const scratchNode: number[] = [];
+const scratchDrives: BaseDrive[] = [];
 
 const samePath = (p: string[], q: string[]): boolean => p === q || (p.length === q.length && p.every((x, i) => x === q[i]));
 
@@ -519,7 +517,9 @@ function collectorNode(cx: ExtractContext, bases: BaseResolver, net: number, ded
     const brs = entry.brs;
     const network: SwitchNetwork = brs.length === 1 ? brs[0] : brs === branches ? pd : { type: 'parallel', parts: brs };
     const switches = switchesOf(network);
-    const baseDrives = switches.map((s) => bases.drive(s));
+    scratchDrives.length = 0;
+    for (const sw of switches) scratchDrives.push(bases.drive(sw));
+    const baseDrives = fit(scratchDrives);
     // a load belongs to the group of its own instance (paths compared as their dotted names)
     const key = entry.key;
     let dtl = false;
@@ -545,7 +545,7 @@ function collectorNode(cx: ExtractContext, bases: BaseResolver, net: number, ded
       pullsLow: networkCondition(network),
       pullsHigh: TRUE,
       bases: baseDrives,
-      devices: groupDevices.slice(),
+      devices: fit(groupDevices),
       path: commonPath(cx, switches),
       openCollector: own === 0,
     });

@@ -6,6 +6,7 @@ import { support } from '../logic/expr';
 import type { FlatNetlist } from '../netlist/ir';
 import { NameTable } from '../netlist/name-table';
 import { markLoops, successors } from './loops';
+import { fit } from './fit';
 import type { DesignFamily, Family, LogicNode, LogicView } from './types';
 
 export interface NodeSummary {
@@ -22,13 +23,16 @@ export function summariseNodes(nl: FlatNetlist, nodes: LogicNode[]): NodeSummary
   const nodeOfName = new Int32Array(nodes.length);
   // one support set reused for every node: a Set per node is most of a large design's garbage
   const s = new Set<string>();
+  const list: string[] = [];
   for (let i = 0; i < nodes.length; i++) {
     const n = nodes[i];
     nodeByNet.set(n.net, i);
     s.clear();
     support(n.fn, s);
     if (n.enable) support(n.enable, s);
-    n.inputs = [...s];
+    list.length = 0;
+    for (const x of s) list.push(x);
+    n.inputs = fit(list);
     nodeOfName[names.add(n.name)] = i;
   }
   // one name lookup per fan-in: the loop search's successor lists and the design's inputs together
