@@ -75,165 +75,189 @@ export interface PartKey {
   places: Int32Array;
 }
 
-/** Scratch per design, stamped per key so it needs no clearing. */
-interface Scratch {
-  stamp: number;
-  seen: Int32Array;
-  at: Int32Array;
-  deviceSeen: Int32Array;
-  deviceAt: Int32Array;
-  out: Int32Array;
-}
-
-const scratchCache = new WeakMap<FlatNetlist, Scratch>();
-
 // Section marks in the stream (negative: never a count or a number).
-const DEVICE = -1, NETS = -2, KIND = -3, RAIL = -4, PORTS = -5, CHANGED = -6, CUT = -7, REMOVE = -8, MOVE = -9, MERGE = -10, ADD = -11, MODELS = -12, ASSUME = -13, UNKNOWN = -14, FRESH = -15;
+const DEVICE = -1, NETS = -2, KIND = -3, RAIL = -4, PORTS = -5, CHANGED = -6, CUT = -7, REMOVE = -8, MOVE = -9, MERGE = -10, ADD = -11, MODELS = -12, ASSUME = -13, UNKNOWN = -14, FRESH = -15; // prettier-ignore
 
-export function partKey(nl: FlatNetlist, input: PartKeyInput): PartKey {
-  let scratch = scratchCache.get(nl);
-  if (!scratch) {
+/** Per-design tables and scratch for keys, stamped per key so the scratch needs no clearing. */
+class KeyWriter {
+  private stamp = 0;
+  private readonly seen: Int32Array;
+  private readonly at: Int32Array;
+  private readonly deviceSeen: Int32Array;
+  private readonly deviceAt: Int32Array;
+  private out = new Int32Array(1024);
+  private len = 0;
+  private nets = 0;
+  private readonly texts: DeviceTexts;
+  /** Text id + 1 of each net's kind (0: none). */
+  private readonly netKind: Int32Array;
+  private readonly railNet: Int32Array;
+  private readonly railVolts: Int32Array;
+  private readonly railSource: Int32Array;
+  private readonly pathClass = new Map<readonly string[], number>();
+  private readonly fresh = new Map<string, number>();
+  private readonly outside = new Map<string, number>();
+
+  constructor(
+    private readonly nl: FlatNetlist,
+    deviceIndex: (name: string) => number | undefined,
+  ) {
     const n = nl.nets.length;
     const m = nl.devices.length;
-    scratch = { stamp: 0, seen: new Int32Array(n), at: new Int32Array(n), deviceSeen: new Int32Array(m), deviceAt: new Int32Array(m), out: new Int32Array(1024) };
-    scratchCache.set(nl, scratch);
+    this.seen = new Int32Array(n);
+    this.at = new Int32Array(n);
+    this.deviceSeen = new Int32Array(m);
+    this.deviceAt = new Int32Array(m);
+    this.texts = textsOf(nl);
+    this.netKind = new Int32Array(n);
+    for (let i = 0; i < n; i++) {
+      const kind = nl.nets[i].kind;
+      if (kind) this.netKind[i] = intern(this.texts, kind) + 1;
+    }
+    this.railNet = Int32Array.from(nl.rails, (r) => r.net);
+    this.railVolts = Int32Array.from(nl.rails, (r) => intern(this.texts, String(r.volts)));
+    this.railSource = Int32Array.from(nl.rails, (r) => (r.source === undefined ? -1 : (deviceIndex(r.source) ?? -1)));
   }
-  const sc = scratch;
-  const { seen, at, deviceSeen, deviceAt } = sc;
-  const stamp = ++sc.stamp;
-  const texts = textsOf(nl);
-  let len = 0;
-  const put = (x: number) => {
-    if (len === sc.out.length) {
-      const grown = new Int32Array(sc.out.length * 2);
-      grown.set(sc.out);
-      sc.out = grown;
-    }
-    sc.out[len++] = x;
-  };
-  const text = (s: string) => put(intern(texts, s));
-  let nets = 0;
-  const net = (id: number) => {
-    if (seen[id] !== stamp) {
-      seen[id] = stamp;
-      at[id] = nets++;
-    }
-    return at[id];
-  };
-  const has = (id: number) => seen[id] === stamp;
-  const place = (name: string, id: number) => net(id) * 2 + (nl.nets[id].name === name ? 1 : 0);
 
-  text(input.extra);
-  put(input.devices.length);
-  net(0);
-  for (const r of nl.rails) net(r.net);
-  const pathClass = new Map<readonly string[], number>();
-  input.devices.forEach((i, k) => {
-    deviceSeen[i] = stamp;
-    deviceAt[i] = k;
-    const d = nl.devices[i];
-    let pc = pathClass.get(d.path);
-    if (pc === undefined) pathClass.set(d.path, (pc = pathClass.size));
-    put(DEVICE);
-    put(deviceText(nl, i));
-    put(pc);
-    for (const t of d.terminals) put(net(t));
-  });
-  for (const id of input.keep) net(id);
-  put(NETS);
-  put(nets);
-  // Net kinds (Verilog tri/wand …) of every numbered net, by number.
-  for (const d of input.devices) {
-    for (const t of nl.devices[d].terminals) {
-      const kind = nl.nets[t].kind;
-      if (kind) {
-        put(KIND);
-        put(at[t]);
-        text(kind);
+  private put(x: number): void {
+    if (this.len === this.out.length) {
+      const grown = new Int32Array(this.out.length * 2);
+      grown.set(this.out);
+      this.out = grown;
+    }
+    this.out[this.len++] = x;
+  }
+
+  private text(s: string): void {
+    this.put(intern(this.texts, s));
+  }
+
+  private net(id: number): number {
+    if (this.seen[id] !== this.stamp) {
+      this.seen[id] = this.stamp;
+      this.at[id] = this.nets++;
+    }
+    return this.at[id];
+  }
+
+  private place(name: string, id: number): number {
+    return this.net(id) * 2 + (this.nl.nets[id].name === name ? 1 : 0);
+  }
+
+  private netRef(name: string): void {
+    const id = this.nl.netByName.get(name);
+    if (id !== undefined) return this.put(this.place(name, id));
+    let k = this.fresh.get(name);
+    if (k === undefined) this.fresh.set(name, (k = this.fresh.size));
+    this.put(FRESH);
+    this.put(k);
+  }
+
+  private deviceRef(i: number): number {
+    return this.deviceSeen[i] === this.stamp ? this.deviceAt[i] : UNKNOWN;
+  }
+
+  private assumed(name: string): string {
+    const id = this.nl.netByName.get(name);
+    if (id !== undefined && this.seen[id] === this.stamp) return String(this.place(name, id));
+    let k = this.outside.get(name);
+    if (k === undefined) this.outside.set(name, (k = this.outside.size));
+    return `o${k}`;
+  }
+
+  key(input: PartKeyInput): PartKey {
+    const nl = this.nl;
+    const stamp = ++this.stamp;
+    this.len = 0;
+    this.nets = 0;
+    this.pathClass.clear();
+    this.fresh.clear();
+    this.outside.clear();
+    this.text(input.extra);
+    this.put(input.devices.length);
+    this.net(0);
+    for (let k = 0; k < this.railNet.length; k++) this.net(this.railNet[k]);
+    const devices = input.devices;
+    for (let k = 0; k < devices.length; k++) {
+      const i = devices[k];
+      this.deviceSeen[i] = stamp;
+      this.deviceAt[i] = k;
+      const d = nl.devices[i];
+      let pc = this.pathClass.get(d.path);
+      if (pc === undefined) this.pathClass.set(d.path, (pc = this.pathClass.size));
+      this.put(DEVICE);
+      this.put(deviceText(nl, i));
+      this.put(pc);
+      for (const t of d.terminals) {
+        this.put(this.net(t));
+        // A net's kind (Verilog tri, wand …) beside its number.
+        if (this.netKind[t] !== 0) {
+          this.put(KIND);
+          this.put(this.netKind[t]);
+        }
       }
     }
-  }
-  const sources = railSources(nl, input.deviceIndex);
-  nl.rails.forEach((r, k) => {
-    const source = sources[k];
-    put(RAIL);
-    put(at[r.net]);
-    text(String(r.volts));
-    put(source < 0 ? -2 : deviceSeen[source] === stamp ? deviceAt[source] : -1);
-  });
-  put(PORTS);
-  for (const p of nl.ports) if (has(p)) put(at[p]);
+    for (const id of input.keep) this.net(id);
+    this.put(NETS);
+    this.put(this.nets);
+    for (let k = 0; k < this.railNet.length; k++) {
+      const source = this.railSource[k];
+      this.put(RAIL);
+      this.put(this.at[this.railNet[k]]);
+      this.put(this.railVolts[k]);
+      this.put(source < 0 ? -2 : this.deviceSeen[source] === stamp ? this.deviceAt[source] : -1);
+    }
+    this.put(PORTS);
+    for (const p of nl.ports) if (this.seen[p] === stamp) this.put(this.at[p]);
 
-  const places = new Int32Array(input.changed.length);
-  input.changed.forEach((id, k) => (places[k] = net(id)));
-  put(CHANGED);
-  for (const x of [...places].sort((a, b) => a - b)) put(x);
-  put(CUT);
-  for (const x of input.cut.map(net).sort((a, b) => a - b)) put(x);
+    const places = new Int32Array(input.changed.length);
+    for (let k = 0; k < places.length; k++) places[k] = this.net(input.changed[k]);
+    this.put(CHANGED);
+    for (const x of places.slice().sort()) this.put(x);
+    this.put(CUT);
+    for (const x of Int32Array.from(input.cut, (id) => this.net(id)).sort()) this.put(x);
 
-  // The edit, in the part's own numbering; nets it creates by order of first mention.
-  const fresh = new Map<string, number>();
-  const netRef = (name: string) => {
-    const id = nl.netByName.get(name);
-    if (id !== undefined) return put(place(name, id));
-    let k = fresh.get(name);
-    if (k === undefined) fresh.set(name, (k = fresh.size));
-    put(FRESH);
-    put(k);
-  };
-  const deviceRef = (i: number): number => (deviceSeen[i] === stamp ? deviceAt[i] : UNKNOWN);
-  const e = input.edit;
-  put(REMOVE);
-  for (const x of input.removed.map(deviceRef).sort((a, b) => a - b)) put(x);
-  for (let k = 0; k < e.reconnect.length; k++) {
-    const r = e.reconnect[k];
-    put(MOVE);
-    put(deviceRef(input.moved[k]));
-    put(r.terminal);
-    netRef(r.net);
+    // The edit, in the part's own numbering; nets it creates by order of first mention.
+    const e = input.edit;
+    this.put(REMOVE);
+    for (const x of Int32Array.from(input.removed, (i) => this.deviceRef(i)).sort()) this.put(x);
+    for (let k = 0; k < e.reconnect.length; k++) {
+      const r = e.reconnect[k];
+      this.put(MOVE);
+      this.put(this.deviceRef(input.moved[k]));
+      this.put(r.terminal);
+      this.netRef(r.net);
+    }
+    for (const m of e.mergeNets) {
+      this.put(MERGE);
+      this.netRef(m.keep);
+      this.netRef(m.remove);
+    }
+    for (const d of e.addDevices) {
+      this.put(ADD);
+      this.text(describe(this.texts, d));
+      for (const t of d.terminals) this.netRef(t);
+    }
+    if (e.addModels?.length) {
+      this.put(MODELS);
+      this.text(JSON.stringify(e.addModels));
+    }
+    // Assumptions: names in the region by net, others by first appearance.
+    for (const a of input.assumptions) {
+      this.put(ASSUME);
+      this.text(exprText(a.expr, (name) => this.assumed(name)));
+    }
+    const stream = this.out.subarray(0, this.len);
+    return { key: hashText(stream), stream, places };
   }
-  for (const m of e.mergeNets) {
-    put(MERGE);
-    netRef(m.keep);
-    netRef(m.remove);
-  }
-  for (const d of e.addDevices) {
-    put(ADD);
-    text(describe(texts, d));
-    for (const t of d.terminals) netRef(t);
-  }
-  if (e.addModels?.length) {
-    put(MODELS);
-    text(JSON.stringify(e.addModels));
-  }
-  // Assumptions: names in the region by net, others by first appearance.
-  const outside = new Map<string, number>();
-  for (const a of input.assumptions) {
-    put(ASSUME);
-    text(
-      exprText(a.expr, (name) => {
-        const id = nl.netByName.get(name);
-        if (id !== undefined && has(id)) return String(place(name, id));
-        let k = outside.get(name);
-        if (k === undefined) outside.set(name, (k = outside.size));
-        return `o${k}`;
-      }),
-    );
-  }
-  const stream = sc.out.subarray(0, len);
-  return { key: hashText(stream), stream, places };
 }
 
-const railSourceCache = new WeakMap<FlatNetlist, Int32Array>();
+const writerCache = new WeakMap<FlatNetlist, KeyWriter>();
 
-/** Device index of each rail's source (-1 when it has none), once per design. */
-function railSources(nl: FlatNetlist, deviceIndex: (name: string) => number | undefined): Int32Array {
-  let a = railSourceCache.get(nl);
-  if (!a) {
-    a = Int32Array.from(nl.rails, (r) => (r.source === undefined ? -1 : (deviceIndex(r.source) ?? -1)));
-    railSourceCache.set(nl, a);
-  }
-  return a;
+export function partKey(nl: FlatNetlist, input: PartKeyInput): PartKey {
+  let w = writerCache.get(nl);
+  if (!w) writerCache.set(nl, (w = new KeyWriter(nl, input.deviceIndex)));
+  return w.key(input);
 }
 
 /** Two independent 32-bit hashes (FNV-1a and a multiply–xorshift) and the length. */

@@ -29,20 +29,28 @@ export interface PartRegion {
   keep: number[];
 }
 
-/** Vector sources by the nets they touch (built once per design). */
-const sourceCache = new WeakMap<FlatNetlist, Map<number, number[]>>();
+/** Vector sources by the nets they touch, and those of the rails (built once per design). */
+interface Sources {
+  byNet: Map<number, number[]>;
+  onNet: Uint8Array;
+  rails: number[];
+}
 
-function sourcesByNet(nl: FlatNetlist): Map<number, number[]> {
+const sourceCache = new WeakMap<FlatNetlist, Sources>();
+
+function sourcesOf(nl: FlatNetlist): Sources {
   let m = sourceCache.get(nl);
   if (m) return m;
-  m = new Map();
+  m = { byNet: new Map(), onNet: new Uint8Array(nl.nets.length), rails: [] };
   for (const i of indexOf(nl).sources) {
     for (const t of nl.devices[i].terminals) {
-      const list = m.get(t);
-      if (!list) m.set(t, [i]);
+      m.onNet[t] = 1;
+      const list = m.byNet.get(t);
+      if (!list) m.byNet.set(t, [i]);
       else if (!list.includes(i)) list.push(i);
     }
   }
+  for (const r of nl.rails) for (const i of m.byNet.get(r.net) ?? []) if (!m.rails.includes(i)) m.rails.push(i);
   sourceCache.set(nl, m);
   return m;
 }
@@ -302,10 +310,10 @@ export function partRegion(nl: FlatNetlist, view: LogicView, part: CutPart): Par
   }
   if (core.size + ring.length > MAX_REGION_NODES) return undefined;
   for (const j of ring) for (const d of view.nodes[j].devices) takeDevice(d);
-  const sources = sourcesByNet(nl);
-  for (const r of nl.rails) for (const s of sources.get(r.net) ?? []) takeDevice(s);
+  const sources = sourcesOf(nl);
+  for (const s of sources.rails) takeDevice(s);
   const n = devices.length;
-  for (let k = 0; k < n; k++) for (const t of nl.devices[devices[k]].terminals) for (const s of sources.get(t) ?? []) takeDevice(s);
+  for (let k = 0; k < n; k++) for (const t of nl.devices[devices[k]].terminals) if (sources.onNet[t] === 1) for (const s of sources.byNet.get(t)!) takeDevice(s);
   const keep = [...part.changed];
   for (const name of editNetNames(nl, part.edit)) {
     const id = nl.netByName.get(name);

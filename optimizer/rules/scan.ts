@@ -117,7 +117,11 @@ function changedNets(nl: FlatNetlist, view: LogicView, p: Proposal): Changed {
   // every group on them, so the driven outputs of those groups are compared too.
   for (const d of devicesOnTouchedNodes(nl, view, p.edit)) hitDevice(d);
   const owners = ownersOf(view, nl.devices.length);
-  const nodeName = (i: number) => byName(view.nodes[i].name);
+  const nodeName = (i: number) => {
+    const node = view.nodes[i];
+    if (nl.nets[node.net].name === node.name) markNet(node.net);
+    else byName(node.name);
+  };
   for (const d of hit) {
     if (d < owners.first.length && owners.first[d] >= 0) nodeName(owners.first[d]);
     for (const i of owners.more.get(d) ?? []) nodeName(i);
