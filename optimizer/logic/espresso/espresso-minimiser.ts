@@ -10,7 +10,7 @@ import { MAX_QM_INPUTS, minimiseOutputQm } from '../quine-mccluskey';
 import { constantValue, type OutputTable, type TruthTable } from '../truth-table';
 import { EspressoPool, MinimiserError, type PoolOptions } from './pool';
 import { canonicalOrder, inverseOrder, reorderCover, reorderOutput } from './input-order';
-import { MAX_ESPRESSO_INPUTS, parseCubes, tablePayload, type TablePayload } from './pla';
+import { MAX_ESPRESSO_INPUTS, parseCubesText, tablePayload, type TablePayload } from './pla';
 
 /** Inputs up to which a cover Espresso got wrong is recomputed exactly instead of failing. */
 export const EXACT_FALLBACK_INPUTS = 10;
@@ -61,6 +61,8 @@ interface Wanted {
   n: number;
   users: User[];
   answer?: Answer;
+  /** The checked cover in canonical order, once the minimiser has answered. */
+  canonical?: Remembered;
 }
 
 export function createEspressoMinimiser(options: PoolOptions & { pool?: EspressoPool } = {}): EspressoMinimiser {
@@ -88,31 +90,35 @@ export function createEspressoMinimiser(options: PoolOptions & { pool?: Espresso
   }
 
   async function minimiseMany(fns: readonly TruthTable[], opts: MinimiseOptions = {}): Promise<MinimiseOutcome[]> {
-    const answers: Answer[][] = fns.map((fn) => new Array<Answer>(fn.outputs.length));
+    const answers: Answer[][] = new Array(fns.length);
     const wanted = new Map<string, Wanted>();
-    fns.forEach((fn, f) => {
+    // Plain loops: this runs for every call, and a scan of a small design makes one call per block.
+    for (let f = 0; f < fns.length; f++) {
+      const fn = fns[f];
       const n = fn.inputs.length;
-      fn.outputs.forEach((out, k) => {
+      const row = (answers[f] = new Array<Answer>(fn.outputs.length));
+      for (let k = 0; k < fn.outputs.length; k++) {
+        const out = fn.outputs[k];
         const constant = constantValue(out, n);
-        if (constant === 0) answers[f][k] = { cover: [], method: 'constant' };
-        else if (constant === 1) answers[f][k] = { cover: [{ care: 0, value: 0 }], method: 'constant' };
+        if (constant === 0) row[k] = { cover: [], method: 'constant' };
+        else if (constant === 1) row[k] = { cover: [{ care: 0, value: 0 }], method: 'constant' };
         else if (n > MAX_ESPRESSO_INPUTS) {
-          answers[f][k] = { error: new MinimiserError('rejected', `functions of more than ${MAX_ESPRESSO_INPUTS} inputs are not sent to the minimiser (got ${n})`) };
+          row[k] = { error: new MinimiserError('rejected', `functions of more than ${MAX_ESPRESSO_INPUTS} inputs are not sent to the minimiser (got ${n})`) };
         } else {
           const order = canonicalOrder(out, n);
           const key = tableKey(reorderOutput(out, n, order), n);
           const user: User = { f, k, out, order };
           const hit = cache.get(key);
           const cover = hit && moved(hit, user, n);
-          if (cover) answers[f][k] = { cover, method: 'espresso' };
+          if (cover) row[k] = { cover, method: 'espresso' };
           else {
             const w = wanted.get(key);
             if (w) w.users.push(user);
             else wanted.set(key, { out, n, users: [user] });
           }
         }
-      });
-    });
+      }
+    }
     // Each distinct function once, built and validated here, all of them in one batch.
     // The child writes each PLA's rows from the checked table words: a few bytes each way.
     const send: { key: string; w: Wanted; item: TablePayload }[] = [];
@@ -122,19 +128,19 @@ export function createEspressoMinimiser(options: PoolOptions & { pool?: Espresso
       else send.push({ key, w, item });
     }
     const replies = send.length ? await pool.runEach(send.map((x) => x.item), opts.timeoutMs) : [];
-    const remembered = new Map<Wanted, Remembered>();
-    send.forEach(({ key, w }, i) => {
+    for (let i = 0; i < send.length; i++) {
+      const { key, w } = send[i];
       const reply = replies[i];
       if (reply instanceof Error) {
         w.answer = { error: reply };
-        return;
+        continue;
       }
       try {
-        const r = accept(w.out, w.n, parseCubes(reply === '' ? [] : reply.split('\n'), w.n));
+        const r = accept(w.out, w.n, parseCubesText(reply, w.n));
         w.answer = r;
         const source = w.users[0].order;
         const canonical = { cover: reorderCover(r.cover, w.n, source), order: source };
-        remembered.set(w, canonical);
+        w.canonical = canonical;
         if (r.method === 'espresso') {
           if (cache.size >= CACHE_ENTRIES) cache.delete(cache.keys().next().value!);
           cache.set(key, canonical);
@@ -142,21 +148,22 @@ export function createEspressoMinimiser(options: PoolOptions & { pool?: Espresso
       } catch (err) {
         w.answer = { error: err instanceof Error ? err : new Error(String(err)) };
       }
-    });
+    }
     for (const w of wanted.values()) {
       const a = w.answer!;
       // The first user sent its own table; the others get the cover moved to their input order.
-      const canonical = remembered.get(w);
-      w.users.forEach((user, u) => {
+      const canonical = w.canonical;
+      for (let u = 0; u < w.users.length; u++) {
+        const user = w.users[u];
         if (!canonical || 'error' in a || u === 0) {
           answers[user.f][user.k] = a;
-          return;
+          continue;
         }
         const cover = moved(canonical, user, w.n);
         answers[user.f][user.k] = cover
           ? { cover, method: a.method }
           : { error: new InternalError(`the cover of ${w.out.name} does not fit ${user.out.name}, whose table differs only in input order`) };
-      });
+      }
     }
     // A function fails with its first failing output, as a single request would.
     return fns.map((fn, f): MinimiseOutcome => {

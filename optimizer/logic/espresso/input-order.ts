@@ -4,6 +4,9 @@
 import type { Cover } from '../cubes';
 import type { OutputTable } from '../truth-table';
 
+/** Minterm positions (0..31 in a word) whose index bit `b` is 1, for b < 5. */
+const LOW_BIT_MASK = [0xaaaaaaaa, 0xcccccccc, 0xf0f0f0f0, 0xff00ff00, 0xffff0000];
+
 /**
  * Moves the input bits of a minterm or cube mask: input k of the result (bit n-1-k) is input
  * from[k] of x (bit n-1-from[k]).
@@ -29,7 +32,7 @@ function countWithInput(set: Uint32Array, n: number, i: number): number {
   let c = 0;
   if (b < 5) {
     // The input alternates inside each word: a fixed mask per bit position.
-    const mask = [0xaaaaaaaa, 0xcccccccc, 0xf0f0f0f0, 0xff00ff00, 0xffff0000][b];
+    const mask = LOW_BIT_MASK[b];
     for (let w = 0; w < set.length; w++) c += popcount32(set[w] & mask);
   } else {
     // The input is constant over runs of words.
@@ -68,9 +71,6 @@ export function canonicalOrder(out: OutputTable, n: number): number[] {
   }
   return order;
 }
-
-/** Minterm positions (0..31 in a word) whose index bit `b` is 1, for b < 5. */
-const LOW_BIT_MASK = [0xaaaaaaaa, 0xcccccccc, 0xf0f0f0f0, 0xff00ff00, 0xffff0000];
 
 /**
  * Exchanges minterm index bits p < q of a bitset in place: the value at every minterm with bit p
@@ -122,7 +122,8 @@ function swapIndexBits(set: Uint32Array, p: number, q: number): void {
 function moveSet(set: Uint32Array, n: number, from: readonly number[]): Uint32Array {
   const out = set.slice();
   // at[k]: the input of the original now at position k.
-  const at = Array.from({ length: n }, (_, k) => k);
+  const at = new Array<number>(n);
+  for (let k = 0; k < n; k++) at[k] = k;
   for (let k = 0; k < n; k++) {
     if (at[k] === from[k]) continue;
     let j = k + 1;

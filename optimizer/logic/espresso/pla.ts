@@ -2,7 +2,7 @@
 // (validated by a single pass over its characters: the native code exits on malformed input), or
 // as the output's checked table words from which the child writes the same rows; parsed on return.
 import { InternalError } from '../../errors';
-import type { Cover } from '../cubes';
+import type { Cover, Cube } from '../cubes';
 import { forEachMinterm, popcount, words, type OutputTable } from '../truth-table';
 
 /** Largest input count sent to Espresso (2^16 rows of minterms at most). */
@@ -109,35 +109,51 @@ export function plaProblem(lines: string[]): string | undefined {
  */
 export function parseCubes(lines: string[], n: number): Cover {
   const cover: Cover = new Array(lines.length);
-  for (let k = 0; k < lines.length; k++) {
-    const line = lines[k];
-    let at = 0;
-    let end = line.length;
-    while (at < end && isBlank(line.charCodeAt(at))) at++;
-    while (end > at && isBlank(line.charCodeAt(end - 1))) end--;
-    let ok = end - at === n + 2 && line.charCodeAt(at + n) === SPACE && line.charCodeAt(at + n + 1) === C1;
-    let care = 0;
-    let value = 0;
-    for (let i = 0; ok && i < n; i++) {
-      const c = line.charCodeAt(at + i);
-      const bit = 1 << (n - 1 - i);
-      if (c === C1) {
-        care |= bit;
-        value |= bit;
-      } else if (c === C0) care |= bit;
-      else ok = c === DASH;
-    }
-    if (!ok) throw new InternalError(`unexpected line from the minimiser: "${line.slice(0, 60)}"`);
-    cover[k] = { care, value };
-  }
+  for (let k = 0; k < lines.length; k++) cover[k] = parseCube(lines[k], 0, lines[k].length, n);
   return cover;
+}
+
+/** The same from the cube lines as one text (lines joined by "\n", "" for none), without splitting it. */
+export function parseCubesText(text: string, n: number): Cover {
+  const cover: Cover = [];
+  if (text === '') return cover;
+  let start = 0;
+  for (;;) {
+    const stop = text.indexOf('\n', start);
+    const end = stop < 0 ? text.length : stop;
+    cover.push(parseCube(text, start, end, n));
+    if (stop < 0) return cover;
+    start = stop + 1;
+  }
+}
+
+/** One cube line: the characters of `text` from `at` to `end`. */
+function parseCube(text: string, at: number, end: number, n: number): Cube {
+  const from = at;
+  const to = end;
+  while (at < end && isBlank(text.charCodeAt(at))) at++;
+  while (end > at && isBlank(text.charCodeAt(end - 1))) end--;
+  let ok = end - at === n + 2 && text.charCodeAt(at + n) === SPACE && text.charCodeAt(at + n + 1) === C1;
+  let care = 0;
+  let value = 0;
+  for (let i = 0; ok && i < n; i++) {
+    const c = text.charCodeAt(at + i);
+    const bit = 1 << (n - 1 - i);
+    if (c === C1) {
+      care |= bit;
+      value |= bit;
+    } else if (c === C0) care |= bit;
+    else ok = c === DASH;
+  }
+  if (!ok) throw new InternalError(`unexpected line from the minimiser: "${text.slice(from, Math.min(to, from + 60))}"`);
+  return { care, value };
 }
 
 const isBlank = (c: number) => c === SPACE || c === 9 || c === NL || c === 13;
 
 /**
- * One output as the child takes it: input count and the on-set and don't-care words (a copy of the
- * table's, sent as little-endian bytes; base64 text of those bytes is taken too).
+ * One output as the child takes it: input count and the on-set and don't-care words (sent as
+ * little-endian bytes; base64 text of those bytes is taken too).
  */
 export interface TablePayload {
   n: number;
@@ -164,6 +180,7 @@ export function tablePayload(out: OutputTable, n: number): TablePayload | string
   }
   // A PLA with no product rows corrupts the next call inside the native code.
   if (any === 0) return 'a PLA with no on-set rows is never sent (the function is constant)';
-  // Copies: what was checked is what is sent, whatever the caller does with its table meanwhile.
-  return { n, on: out.on.slice(), dc: out.dc.slice() };
+  // The table's own words, not copies: the child checks them again before writing any row, so
+  // a table changed while its request waits cannot put unchecked text in front of the native code.
+  return { n, on: out.on, dc: out.dc };
 }
