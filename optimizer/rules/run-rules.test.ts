@@ -4,9 +4,10 @@ import { describe, expect, it } from 'vitest';
 import { z } from 'zod';
 import { InputError, InternalError } from '../errors';
 import { defineRule, renderMessage } from './define-rule';
-import { runRules, stableHash } from './run-rules';
+import { overlapOf, touched } from '../rewrite/edits';
+import { overlapGraph, runRules, stableHash, type OverlapGraph } from './run-rules';
 import { emptyView, sliceInverters } from './test-helpers';
-import { emptyEdit, type Rule } from './types';
+import { emptyEdit, type Finding, type Rule } from './types';
 
 /** Proposes removing one slice's inverter transistor per slice (enough to exercise the engine). */
 const perSlice = defineRule({
@@ -132,5 +133,74 @@ describe('runRules', () => {
     const r = await runRules(sliceInverters(2), emptyView(), { rules: { [twice.id]: twice } });
     expect(r.overlaps.nodes).toHaveLength(3);
     expect(r.overlaps.edges).toEqual([{ a: r.findings[0].id, b: r.findings[1].id, devices: ['XS0.Q1'], nets: [] }]);
+  });
+});
+
+/** The overlap graph as a plain reading of its contract: every pair by shared names, in name order. */
+function overlapReference(findings: Finding[]): OverlapGraph {
+  const proposals = findings.flatMap((f) => f.proposals);
+  const sets = proposals.map((p) => touched(p.edit));
+  const byKey = new Map<string, number[]>();
+  sets.forEach((s, i) => {
+    for (const k of [...[...s.devices, ...s.added].map((d) => `d:${d}`), ...[...s.nets].map((n) => `n:${n}`)]) {
+      const list = byKey.get(k) ?? [];
+      if (list[list.length - 1] !== i) list.push(i);
+      byKey.set(k, list);
+    }
+  });
+  const seen = new Set<string>();
+  const edges: OverlapGraph['edges'] = [];
+  for (const list of byKey.values()) {
+    for (let x = 0; x < list.length; x++) {
+      for (let y = x + 1; y < list.length; y++) {
+        if (seen.has(`${list[x]}:${list[y]}`)) continue;
+        seen.add(`${list[x]}:${list[y]}`);
+        edges.push({ a: proposals[list[x]].id, b: proposals[list[y]].id, ...overlapOf(sets[list[x]], sets[list[y]]) });
+      }
+    }
+  }
+  return { nodes: proposals.map((p) => p.id), edges };
+}
+
+describe('overlap graph', () => {
+  it('matches the plain reading on random edits, with and without the netlist to number names', () => {
+    const nl = sliceInverters(4);
+    const devs = nl.devices.map((d) => d.name);
+    const nets = nl.nets.map((n) => n.name);
+    // names the design has and names it lacks (added parts, misspelt nets), repeats included
+    const devPool = [...devs, 'NEW1', 'NEW2'];
+    const netPool = [...nets, 'NOWHERE'];
+    let seed = 7;
+    const rand = (n: number) => ((seed = (Math.imul(seed, 1103515245) + 12345) >>> 0) % n);
+    const pick = <T>(xs: T[], n: number) => Array.from({ length: n }, () => xs[rand(xs.length)]);
+    let edgesSeen = 0;
+    for (let round = 0; round < 60; round++) {
+      const findings: Finding[] = Array.from({ length: 1 + rand(5) }, (_, f) => ({
+        id: `f${f}`,
+        ruleId: 'test',
+        messageId: 'm',
+        data: {},
+        message: '',
+        location: { devices: [], instances: [], nets: [] },
+        proposals: Array.from({ length: 1 + rand(3) }, (_, k) => ({
+          id: `f${f}.${k}`,
+          title: '',
+          assumptions: [],
+          margins: [],
+          edit: {
+            ...emptyEdit(),
+            removeDevices: pick(devPool, rand(4)),
+            reconnect: pick(devPool, rand(2)).map((device) => ({ device, terminal: 0, net: 'LOAD' })),
+            addDevices: pick(['NEW1', 'NEW2', devs[0]], rand(2)).map((name) => ({ name, kind: 'resistor' as const, terminals: ['A', 'B'], path: [] })),
+            mergeNets: pick(netPool, rand(3)).map((keep) => ({ keep, remove: netPool[rand(netPool.length)] })),
+          },
+        })),
+      }));
+      const want = overlapReference(findings);
+      expect(overlapGraph(findings)).toEqual(want);
+      expect(overlapGraph(findings, nl)).toEqual(want);
+      edgesSeen += want.edges.length;
+    }
+    expect(edgesSeen).toBeGreaterThan(30); // the rounds do overlap
   });
 });

@@ -147,25 +147,43 @@ export async function runRules(netlist: FlatNetlist, view: LogicView, options: R
 /**
  * Pairs of proposals that change a common device or net (alternatives of one finding included).
  * Each name touched gets a slot number in the order first met (devices with added names, then
- * nets, proposal by proposal) and remembers the last proposal that touched it; only a name that a
- * second proposal touches gets a list. A finding that spans every slice of a large design touches
- * millions of names, so nothing else is kept per name, and what a pair shares is found by marking
- * names rather than building sets per proposal. Edges come in the order of the first shared name.
+ * nets, proposal by proposal) and remembers the first and last proposal that touched it; only a
+ * name that three or more proposals touch gets a list. A finding that spans every slice of a large
+ * design touches millions of names, so nothing else is kept per name; each pair keeps the first
+ * slot it shares, and what a pair shares is found by marking names rather than building sets per
+ * proposal. Edges come in the order of the first shared name, pairs of one name in proposal order.
  * Given the netlist the proposals target, its device and net names are numbered by its indexes
  * instead of new maps.
  */
 export function overlapGraph(findings: Finding[], netlist?: FlatNetlist): OverlapGraph {
   const proposals = findings.flatMap((f) => f.proposals);
-  /** Last proposal to touch each slot. */
+  const count = proposals.length;
+  /** First and last proposal to touch each slot (proposals come in order, so a slot's are increasing). */
+  const first: number[] = [];
   const last: number[] = [];
-  /** Proposals touching a slot, for slots touched by two or more. */
-  const lists = new Map<number, number[]>();
+  /** Every proposal touching a slot, for slots touched by three or more. */
+  const more = new Map<number, number[]>();
+  /** Least slot each pair of proposals shares, by j · count + i (j < i). */
+  const pairSlot = new Map<number, number>();
+  const meet = (j: number, i: number, slot: number): void => {
+    const key = j * count + i;
+    const s = pairSlot.get(key);
+    if (s === undefined || slot < s) pairSlot.set(key, slot);
+  };
   const touch = (slot: number, i: number): void => {
     if (last[slot] === i) return;
-    let list = lists.get(slot);
-    if (!list) lists.set(slot, (list = [last[slot]]));
-    list.push(i);
+    if (first[slot] === last[slot]) meet(first[slot], i, slot);
+    else {
+      let list = more.get(slot);
+      if (!list) more.set(slot, (list = [first[slot], last[slot]]));
+      for (const j of list) meet(j, i, slot);
+      list.push(i);
+    }
     last[slot] = i;
+  };
+  const open = (i: number): number => {
+    first.push(i);
+    return last.push(i) - 1;
   };
   // Names of the design's devices and nets are numbered by the netlist's own indexes (slot + 1 in
   // a typed array, 0 while unmet); other names (added devices, unknown nets) go in maps.
@@ -176,17 +194,13 @@ export function overlapGraph(findings: Finding[], netlist?: FlatNetlist): Overla
   const nets = new Map<string, number>();
   const noteIn = (table: Int32Array, id: number, i: number): void => {
     const slot = table[id] - 1;
-    if (slot < 0) {
-      table[id] = last.length + 1;
-      last.push(i);
-    } else touch(slot, i);
+    if (slot < 0) table[id] = open(i) + 1;
+    else touch(slot, i);
   };
   const noteName = (map: Map<string, number>, name: string, i: number): void => {
     const slot = map.get(name);
-    if (slot === undefined) {
-      map.set(name, last.length);
-      last.push(i);
-    } else touch(slot, i);
+    if (slot === undefined) map.set(name, open(i));
+    else touch(slot, i);
   };
   const noteDevice = (name: string, i: number): void => {
     const id = devIds?.get(name);
@@ -208,21 +222,14 @@ export function overlapGraph(findings: Finding[], netlist?: FlatNetlist): Overla
       noteNet(m.remove, i);
     }
   }
-  const pairs = new Set<number>();
+  // A pair's edge sits at the first slot the two share; pairs of one slot in proposal order.
+  const order = [...pairSlot].sort((x, y) => x[1] - y[1] || x[0] - y[0]);
   const edges: OverlapGraph['edges'] = [];
-  let shared: SharedNames | undefined;
-  for (const slot of [...lists.keys()].sort((a, b) => a - b)) {
-    const list = lists.get(slot)!;
-    for (let x = 0; x < list.length; x++) {
-      for (let y = x + 1; y < list.length; y++) {
-        const key = list[x] * proposals.length + list[y];
-        if (pairs.has(key)) continue;
-        pairs.add(key);
-        shared ??= new SharedNames(netlist);
-        const o = shared.between(proposals[list[x]].edit, proposals[list[y]].edit);
-        edges.push({ a: proposals[list[x]].id, b: proposals[list[y]].id, ...o });
-      }
-    }
+  const shared = order.length ? new SharedNames(netlist) : undefined;
+  for (const [key] of order) {
+    const j = Math.floor(key / count);
+    const i = key - j * count;
+    edges.push({ a: proposals[j].id, b: proposals[i].id, ...shared!.between(proposals[j].edit, proposals[i].edit) });
   }
   return { nodes: proposals.map((p) => p.id), edges };
 }
