@@ -15,7 +15,7 @@ import { positions, proofKey, type ProofKey } from '../region/proof-key';
 import { applyProposals } from '../rewrite/apply';
 import { checkEquivalence, type EquivResult } from '../verify/equivalence';
 import { cutParts, cutRegion, partRegion } from './cut-parts';
-import { indexOf, ownersOf, regionOf } from './region';
+import { indexOf, MAX_REGION_NODES, ownersOf, regionOf } from './region';
 import { simulationCheck } from './sim-check';
 import { devicesOnTouchedNodes } from './touched-nodes';
 import { runRules, type OverlapGraph, type RuleErrorRecord, type RunOptions } from './run-rules';
@@ -79,8 +79,8 @@ const defaultVerifier: Verifier = (before, after, assumptions) =>
  * the kept one, so the groups holding those devices change too.
  */
 interface Changed {
-  /** Names, sorted, each once. */
-  names: string[];
+  /** Names, sorted, each once (built when first read). */
+  readonly names: string[];
   /** The nets among them named by their own name, by id. */
   ids: number[];
   /** The other names (a net's second name, a net the edit creates). */
@@ -133,22 +133,24 @@ function changedNets(nl: FlatNetlist, view: LogicView, p: Proposal): Changed {
     byName(m.remove);
   }
   const rails = new Set(nl.rails.map((r) => nl.nets[r.net].name));
-  const names: string[] = [];
   const ids: number[] = [];
   const otherNames: string[] = [];
-  for (const id of netIds) {
-    if (rails.has(nl.nets[id].name)) continue;
-    names.push(nl.nets[id].name);
-    ids.push(id);
-  }
-  for (const n of others) {
-    if (rails.has(n)) continue;
-    names.push(n);
-    otherNames.push(n);
-  }
-  names.sort();
-  // Two nets of one name (or a name also met as text) count once, as in a set of names.
-  return { names: names.filter((n, k) => k === 0 || n !== names[k - 1]), ids, others: otherNames };
+  for (const id of netIds) if (!rails.has(nl.nets[id].name)) ids.push(id);
+  for (const n of others) if (!rails.has(n)) otherNames.push(n);
+  let names: string[] | undefined;
+  return {
+    ids,
+    others: otherNames,
+    // Sorted names are built only when asked for: a design-wide edit proved by parts needs none.
+    get names() {
+      if (!names) {
+        const all = [...ids.map((id) => nl.nets[id].name), ...otherNames].sort();
+        // Two nets of one name (or a name also met as text) count once, as in a set of names.
+        names = all.filter((n, k) => k === 0 || n !== all[k - 1]);
+      }
+      return names;
+    },
+  };
 }
 
 const NOTHING_DRIVEN = 'the rewrite changes no driven net the extractor can see';
@@ -298,10 +300,13 @@ export function verifyProposal(
   cache?: ProofCache,
 ): Verification {
   const changedSet = changedNets(before.nl, before.view, p);
-  const changed = changedSet.names;
-  // Work on the changed nets' fan-in cut out of the design, so a proof costs the region's size.
-  const seeds = changed.filter((n) => before.view.nodeByNet.has(before.nl.netByName.get(n) ?? -1));
-  const nl = regionOf(before.nl, before.view, seeds, p.edit);
+  // Work on the changed nets' fan-in cut out of the design, so a proof costs the region's size;
+  // more driven nets changed than a region may hold means the whole design at once.
+  const driven = changedSet.ids.filter((id) => before.view.nodeByNet.has(id)).length;
+  const nl =
+    driven > MAX_REGION_NODES
+      ? before.nl
+      : regionOf(before.nl, before.view, changedSet.names.filter((n) => before.view.nodeByNet.has(before.nl.netByName.get(n) ?? -1)), p.edit);
   const used = assumptions.filter((a) => p.assumptions.includes(a.id));
   const check: RegionCheck = { used, verifier, simulateUpTo, cache };
   // A region small enough for the switch-level check is proved whole (the check then sees every
@@ -310,7 +315,7 @@ export function verifyProposal(
     const byParts = verifyByParts(before, p, changedSet, check);
     if (byParts) return byParts;
   }
-  return verifyRegion(nl, nl === before.nl ? before.view : undefined, p.edit, changed, check);
+  return verifyRegion(nl, nl === before.nl ? before.view : undefined, p.edit, changedSet.names, check);
 }
 
 interface RegionCheck {
