@@ -51,4 +51,30 @@ describe('TypedArena', () => {
     };
     expect(fill(new TypedArena(1 << 10))).toEqual(fill(OWN_BUFFERS));
   });
+
+  it('reuses the memory taken after a mark once released, zero-filled again', () => {
+    const arena = new TypedArena(1 << 12);
+    const kept = arena.i32(4).fill(9);
+    const m = arena.mark();
+    const temp = arena.f64(16).fill(-1);
+    arena.release(m);
+    const again = arena.i32(8);
+    expect(again.buffer).toBe(temp.buffer);
+    expect(again.byteOffset).toBe(temp.byteOffset);
+    expect(Array.from(again)).toEqual(new Array(8).fill(0));
+    expect(Array.from(kept)).toEqual([9, 9, 9, 9]);
+    expect(arena.used).toBe(16 + 32);
+  });
+
+  it('reuses nothing when the arena has moved on to a further buffer since the mark', () => {
+    const arena = new TypedArena(64);
+    const first = arena.u8(8).buffer;
+    const m = arena.mark();
+    const big = arena.i32(100); // a further buffer
+    big.fill(5);
+    arena.release(m);
+    const next = arena.u8(8);
+    expect(next.buffer).not.toBe(first);
+    expect(Array.from(big)).toEqual(new Array(100).fill(5));
+  });
 });

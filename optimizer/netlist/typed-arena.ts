@@ -28,6 +28,8 @@ export const OWN_BUFFERS: TypedAlloc = {
 export class TypedArena implements TypedAlloc {
   private buf: ArrayBuffer;
   private at = 0;
+  /** End of the memory handed out before the last release(): reused memory below it is zeroed. */
+  private dirty = 0;
   private readonly chunk: number;
   /** Bytes handed out, alignment included (for sizing estimates in tests and benches). */
   used = 0;
@@ -51,7 +53,24 @@ export class TypedArena implements TypedAlloc {
     const from = this.at;
     this.at += size;
     this.used += size;
+    if (from < this.dirty) new Uint8Array(this.buf, from, Math.min(size, this.dirty - from)).fill(0);
     return from;
+  }
+
+  /** A point to release back to: everything handed out after it can be reused. */
+  mark(): { buf: ArrayBuffer; at: number } {
+    return { buf: this.buf, at: this.at };
+  }
+
+  /**
+   * Hands the memory taken since `m` back for reuse (arrays taken since then must not be used
+   * again). After the arena moved on to a further buffer, nothing is reused.
+   */
+  release(m: { buf: ArrayBuffer; at: number }): void {
+    if (m.buf !== this.buf) return;
+    this.dirty = Math.max(this.dirty, this.at);
+    this.used -= this.at - m.at;
+    this.at = m.at;
   }
 
   i32(n: number): Int32Array {

@@ -382,7 +382,11 @@ export function buildSwitchModel(nl: FlatNetlist, inputNames: string[]): SwitchM
   // ids and a wave of evaluations walks the group tables front to back.
   const oldNets = netPairs.toCsr(groupCount);
   const oldReaders = readerPairs.toCsr(nNets);
-  const order = rankGroups(groupCount, oldNets, oldReaders, scratch);
+  // the ranking's working tables are released at once: the tables built after it reuse that memory
+  const order = scratch.i32(groupCount);
+  const beforeRanking = scratch.mark();
+  rankGroups(groupCount, oldNets, oldReaders, scratch, order);
+  scratch.release(beforeRanking);
   for (let n = 0; n < nNets; n++) if (groupOf[n] >= 0) groupOf[n] = order[groupOf[n]];
   for (let i = 0; i < oldReaders.list.length; i++) oldReaders.list[i] = order[oldReaders.list[i]];
   const byRank = scratch.i32(groupCount);
@@ -447,9 +451,9 @@ export function compileExpr(e: Expr, nl: FlatNetlist): CompiledExpr {
 /**
  * Topological ranks of the group graph (Kahn): evaluating in rank order settles acyclic logic with
  * one evaluation per group instead of unit-delay ripples that are quadratic in chain length.
- * Groups on loops get ranks after their ranked predecessors.
+ * Groups on loops get ranks after their ranked predecessors. The ranks are written into `rank`.
  */
-function rankGroups(n: number, groupNets: Csr, readers: Csr, alloc: TypedAlloc): Int32Array {
+function rankGroups(n: number, groupNets: Csr, readers: Csr, alloc: TypedAlloc, rank: Int32Array): void {
   // successors of each group in first-seen order, without a set per group
   // each net belongs to one group, so a group's successors number at most its nets' readers
   const succPairs = new Pairs(readers.list.length, alloc);
@@ -468,7 +472,7 @@ function rankGroups(n: number, groupNets: Csr, readers: Csr, alloc: TypedAlloc):
   const succ = succPairs.toCsr(n);
   const indeg = alloc.i32(n);
   for (let g = 0; g < n; g++) for (let i = succ.off[g]; i < succ.off[g + 1]; i++) if (succ.list[i] !== g) indeg[succ.list[i]]++;
-  const rank = alloc.i32(n).fill(-1);
+  rank.fill(-1);
   // every group enters the queue once: when its last predecessor is ranked, or to start a loop
   const queue = alloc.i32(n);
   let tail = 0;
@@ -495,5 +499,4 @@ function rankGroups(n: number, groupNets: Csr, readers: Csr, alloc: TypedAlloc):
     if (tail >= n) throw new InternalError('switch model: group ranking queued a group twice');
     queue[tail++] = firstUnranked;
   }
-  return rank;
 }
