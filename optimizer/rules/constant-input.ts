@@ -150,7 +150,8 @@ function acrossInstances(found: readonly Simplified[]): FindingReport[] {
       alone.push(f);
       continue;
     }
-    const key = `${f.cell}\u0000${f.report.messageId}\u0000${relativeKey(f)}`;
+    // (joined so the key is one flat string: map look-ups on a concatenated one are slow)
+    const key = [f.cell, f.report.messageId, relativeKey(f)].join('\u0000');
     const list = groups.get(key);
     if (list) list.push(f);
     else groups.set(key, [f]);

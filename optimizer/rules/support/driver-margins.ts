@@ -82,13 +82,15 @@ export function driverSignature(
     return b;
   };
   const drive = baseDriveOf(nl, driver, s);
-  let text = `${driver.family}|${driver.pullUp?.kind}|${driver.pullUp?.ohms}|${driver.pullUp?.railVolts}|`;
-  text += drive ? `${drive.ohms},${drive.volts},${beta(drive.transistor)}` : '-';
-  text += `|${loads.total}|${loads.direct}|`;
-  for (const l of loads.resistorBases) text += `${l.ohms},${l.collectorPullUp},${beta(l.transistor)};`;
-  text += '|';
-  for (const d of loads.diodeInputs) text += `${d.pullUpOhms};`;
-  return text;
+  // pieces joined once: the result is a flat string, which callers use as a map key (a string
+  // grown by += is a chain of pieces that every look-up has to walk)
+  const text: string[] = [`${driver.family}|${driver.pullUp?.kind}|${driver.pullUp?.ohms}|${driver.pullUp?.railVolts}|`];
+  text.push(drive ? `${drive.ohms},${drive.volts},${beta(drive.transistor)}` : '-');
+  text.push(`|${loads.total}|${loads.direct}|`);
+  for (const l of loads.resistorBases) text.push(`${l.ohms},${l.collectorPullUp},${beta(l.transistor)};`);
+  text.push('|');
+  for (const d of loads.diodeInputs) text.push(`${d.pullUpOhms};`);
+  return text.join('');
 }
 
 /** One load on a line: a base resistor (RTL) with what that base must saturate, or a plain input. */
@@ -166,8 +168,7 @@ const num = (x: number | undefined): string => (x === undefined ? 'u' : Object.i
  * resistor pull-up and rail, the load count, and the base loads' count and worst figures.
  */
 function lineKey(driver: LogicNode | undefined, loads: LineLoad[], family: MapFamily, s: MarginSettings): string {
-  const head = `${family}|${loads.length}|`;
-  if (!driver) return `${head}-`;
+  if (!driver) return [family, loads.length, '-'].join('|');
   const rc = driver.pullUp?.kind === 'resistor' ? driver.pullUp.ohms : undefined;
   let bases = 0;
   let rb = Infinity;
@@ -184,7 +185,8 @@ function lineKey(driver: LogicNode | undefined, loads: LineLoad[], family: MapFa
       beta = Math.min(beta, l.betaMin ?? s.defaultBetaMin);
     }
   }
-  return `${head}${num(rc)}|${num(driver.pullUp?.railVolts)}|${bases}|${num(rb)}|${withLoad}|${num(loadPullUp)}|${num(beta)}`;
+  // joined (a flat string) rather than a template: it is a map key looked up once per line
+  return [family, loads.length, num(rc), num(driver.pullUp?.railVolts), bases, num(rb), withLoad, num(loadPullUp), num(beta)].join('|');
 }
 
 function copyMargin(m: MarginResult): MarginResult {

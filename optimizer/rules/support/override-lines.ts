@@ -80,7 +80,8 @@ export function findOverrides(ctx: RuleContext, cx: ExtractContext, min = 1, mos
       if (q.kind !== (bipolar ? 'npn' : 'nmos')) continue;
       // a switch whose control is a constant (a gate or base tied to a rail) is never an override
       if (br.on.op === 'const') continue;
-      const control = `${node.family}|${exprToString(br.on)}`;
+      // (joined: a flat string is the fast kind of map key)
+      const control = [node.family, exprToString(br.on)].join('|');
       // a second override of the same control on the same line is paralleled, not another line
       if (seenOnLine.includes(control)) continue;
       seenOnLine.push(control);
