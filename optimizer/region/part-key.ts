@@ -53,7 +53,7 @@ export interface PartKeyInput {
   /** Nets the region keeps even when no device touches them (compared nets, the edit's nets), by id. */
   keep: number[];
   /** Compared nets by id (each named by its own name). */
-  changed: number[];
+  changed: ArrayLike<number>;
   /** Driven nets taken as free values in the proof, by design net id. */
   cut: number[];
   edit: Edit;

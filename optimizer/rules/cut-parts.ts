@@ -7,16 +7,83 @@ import { cutOut, editNetNames, indexOf, MAX_REGION_NODES, nodeOfNet, ownersOf } 
 import { devicesOnTouchedNodes, inputsOf } from './touched-nodes';
 import type { Edit } from './types';
 
+/**
+ * The parts of one edit, kept in typed lists (a design-wide edit has hundreds of thousands):
+ * part k's items, compared nets and core nodes. Items are numbered over the edit's lists in
+ * order: removed devices, reconnections, added devices, merges.
+ */
+export class CutParts {
+  constructor(
+    readonly edit: Edit,
+    readonly count: number,
+    private readonly itemStart: Int32Array,
+    private readonly items: Int32Array,
+    private readonly changedStart: Int32Array,
+    private readonly changedList: Int32Array,
+    private readonly coreStart: Int32Array,
+    private readonly coreList: Int32Array,
+    /** Device index of each removed device and of each reconnected device, as the edit lists them. */
+    private readonly removedDevice: Int32Array,
+    private readonly movedDevice: Int32Array,
+  ) {}
+
+  /** Changed nets part k compares, by id (each named by its own name), ascending. */
+  changed(k: number): Int32Array {
+    return this.changedList.subarray(this.changedStart[k], this.changedStart[k + 1]);
+  }
+
+  /** Nodes cut out whole and composed in part k's proof: its changed nets and the unchanged nets it merges or moves loads onto. */
+  core(k: number): Int32Array {
+    return this.coreList.subarray(this.coreStart[k], this.coreStart[k + 1]);
+  }
+
+  /** Part k: its own edit, the device indices of its removed and reconnected devices, its nets and nodes. */
+  part(k: number): CutPart {
+    const e = this.edit;
+    const r = e.removeDevices.length;
+    const c = e.reconnect.length;
+    const a = e.addDevices.length;
+    const edit: Edit = { removeDevices: [], addDevices: [], reconnect: [], mergeNets: [] };
+    const removed: number[] = [];
+    const moved: number[] = [];
+    for (let j = this.itemStart[k]; j < this.itemStart[k + 1]; j++) {
+      const i = this.items[j];
+      if (i < r) {
+        edit.removeDevices.push(e.removeDevices[i]);
+        removed.push(this.removedDevice[i]);
+      } else if (i < r + c) {
+        edit.reconnect.push(e.reconnect[i - r]);
+        moved.push(this.movedDevice[i - r]);
+      } else if (i < r + c + a) edit.addDevices.push(e.addDevices[i - r - c]);
+      else edit.mergeNets.push(e.mergeNets[i - r - c - a]);
+    }
+    if (edit.addDevices.length && e.addModels?.length) edit.addModels = e.addModels;
+    return { edit, removed, moved, changed: this.changed(k), core: this.core(k) };
+  }
+}
+
+/** One part, as proved. */
 export interface CutPart {
   edit: Edit;
   /** Device indices of edit.removeDevices, in order. */
   removed: number[];
   /** Device indices of edit.reconnect's devices, in order. */
   moved: number[];
-  /** Changed nets the part compares, by id (each named by its own name). */
-  changed: number[];
-  /** Nodes cut out whole and composed in the proof: the part's changed nets and the unchanged nets it merges or moves loads onto. */
-  core: Set<number>;
+  /** Changed nets the part compares, by id (each named by its own name), ascending. */
+  changed: Int32Array;
+  /** Nodes cut out whole and composed in the proof (a node may be listed twice). */
+  core: Int32Array;
+}
+
+/** Counting sort of (part, value) pairs into compressed rows: start[k] … start[k + 1] in list. */
+function rows(count: number, part: Int32Array, value: Int32Array, n: number): { start: Int32Array; list: Int32Array } {
+  const start = new Int32Array(count + 1);
+  for (let j = 0; j < n; j++) start[part[j] + 1]++;
+  for (let k = 0; k < count; k++) start[k + 1] += start[k];
+  const fill = start.slice(0, count);
+  const list = new Int32Array(n);
+  for (let j = 0; j < n; j++) list[fill[part[j]]++] = value[j];
+  return { start, list };
 }
 
 /** What a part's region holds, before it is cut out (see cutRegion). */
@@ -74,7 +141,7 @@ function sourcesOf(nl: FlatNetlist): Sources {
  *   part that touches no net a proof could compare, a removed source, a driven net changed under
  *   a second name)
  */
-export function cutParts(nl: FlatNetlist, view: LogicView, edit: Edit, changed: { ids: number[]; others: string[] }): CutPart[] | undefined {
+export function cutParts(nl: FlatNetlist, view: LogicView, edit: Edit, changed: { ids: number[]; others: string[] }): CutParts | undefined {
   const { byName, onNetStart, onNetList } = indexOf(nl);
   const owners = ownersOf(view, nl.devices.length);
   const inputs = inputsOf(view);
@@ -214,57 +281,67 @@ export function cutParts(nl: FlatNetlist, view: LogicView, edit: Edit, changed: 
     for (const i of owners.more.get(d) ?? []) union(view.nodes[i].net, atom);
   }
 
-  // Group items and changed nets by root.
-  const parts = new Map<number, CutPart>();
-  const empty = (): CutPart => ({ edit: { removeDevices: [], addDevices: [], reconnect: [], mergeNets: [] }, removed: [], moved: [], changed: [], core: new Set() });
-  const partOf = (root: number): CutPart => {
-    let p = parts.get(root);
-    if (!p) parts.set(root, (p = empty()));
-    return p;
-  };
-  let k = 0;
-  edit.removeDevices.forEach((name, j) => {
-    const p = partOf(find(itemAtoms[k++]));
-    p.edit.removeDevices.push(name);
-    p.removed.push(removedIds[j]);
+  // Number the parts: one per root any item reaches, in the order met, then one per quiet net.
+  const partOfRoot = new Int32Array(ids).fill(-1);
+  let count = 0;
+  const itemPart = new Int32Array(itemAtoms.length);
+  itemAtoms.forEach((atom, j) => {
+    const root = find(atom);
+    if (partOfRoot[root] < 0) partOfRoot[root] = count++;
+    itemPart[j] = partOfRoot[root];
   });
-  edit.reconnect.forEach((r, j) => {
-    const p = partOf(find(itemAtoms[k++]));
-    p.edit.reconnect.push(r);
-    p.moved.push(reconnectIds[j]);
-  });
-  for (const d of edit.addDevices) partOf(find(itemAtoms[k++])).edit.addDevices.push(d);
-  for (const m of edit.mergeNets) partOf(find(itemAtoms[k++])).edit.mergeNets.push(m);
-  if (edit.addModels?.length) for (const p of parts.values()) if (p.edit.addDevices.length) p.edit.addModels = edit.addModels;
   for (const name of changed.others) {
     const id = nl.netByName.get(name);
     if (id !== undefined && nodeOf[id] >= 0) return undefined;
   }
-  const quietParts: CutPart[] = [];
+  const changedPart: number[] = [];
+  const changedNet: number[] = [];
+  const corePart: number[] = [];
+  const coreNode: number[] = [];
   for (const id of changed.ids) {
     const node = nodeOf[id];
     if (node < 0) continue; // undriven before: never compared
-    if (quiet(id)) {
-      const p = empty();
-      p.core.add(node);
-      p.changed.push(id);
-      quietParts.push(p);
-      continue;
+    let k: number;
+    if (quiet(id)) k = count++;
+    else {
+      k = parent[id] < 0 ? -1 : partOfRoot[find(id)];
+      if (k < 0) return undefined; // a changed net no item reaches: not split
     }
-    const p = parent[id] < 0 ? undefined : parts.get(find(id));
-    if (!p) return undefined; // a changed net no item reaches: not split
-    p.changed.push(id);
-    p.core.add(node);
+    changedPart.push(k);
+    changedNet.push(id);
+    corePart.push(k);
+    coreNode.push(node);
   }
   // Unchanged nets a part merges into or moves loads onto: their logic is composed in its proof.
-  for (const p of parts.values()) {
-    for (const name of [...p.edit.mergeNets.map((m) => m.keep), ...p.edit.reconnect.map((r) => r.net)]) {
-      const id = nl.netByName.get(name);
-      if (id !== undefined && id < netCount && nodeOf[id] >= 0 && quiet(id)) p.core.add(nodeOf[id]);
+  const r = edit.removeDevices.length;
+  const c = edit.reconnect.length;
+  const a = edit.addDevices.length;
+  const onto = (name: string, j: number) => {
+    const id = nl.netByName.get(name);
+    if (id !== undefined && nodeOf[id] >= 0 && quiet(id)) {
+      corePart.push(itemPart[j]);
+      coreNode.push(nodeOf[id]);
     }
-  }
-  for (const p of parts.values()) p.changed.sort((a, b) => a - b);
-  return [...parts.values(), ...quietParts];
+  };
+  edit.reconnect.forEach((x, j) => onto(x.net, r + j));
+  edit.mergeNets.forEach((m, j) => onto(m.keep, r + c + a + j));
+
+  const itemRows = rows(count, itemPart, Int32Array.from(itemAtoms, (_, j) => j), itemAtoms.length);
+  const changedRows = rows(count, Int32Array.from(changedPart), Int32Array.from(changedNet), changedNet.length);
+  for (let k = 0; k < count; k++) changedRows.list.subarray(changedRows.start[k], changedRows.start[k + 1]).sort();
+  const coreRows = rows(count, Int32Array.from(corePart), Int32Array.from(coreNode), coreNode.length);
+  return new CutParts(
+    edit,
+    count,
+    itemRows.start,
+    itemRows.list,
+    changedRows.start,
+    changedRows.list,
+    coreRows.start,
+    coreRows.list,
+    Int32Array.from(removedIds),
+    Int32Array.from(reconnectIds),
+  );
 }
 
 /**
@@ -308,7 +385,7 @@ export function partRegion(nl: FlatNetlist, view: LogicView, part: CutPart): Par
       readBy(i, -1);
     }
   }
-  if (core.size + ring.length > MAX_REGION_NODES) return undefined;
+  if (core.length + ring.length > MAX_REGION_NODES) return undefined;
   for (const j of ring) for (const d of view.nodes[j].devices) takeDevice(d);
   const sources = sourcesOf(nl);
   for (const s of sources.rails) takeDevice(s);
@@ -343,6 +420,6 @@ function marksOf(nl: FlatNetlist, view: LogicView): Marks {
 /** The part's region as a netlist of its own, its compared nets' names and its cut nets' names. */
 export function cutRegion(nl: FlatNetlist, part: CutPart, r: PartRegion): { region: FlatNetlist; changed: string[]; cut: string[] } {
   const name = (id: number) => nl.nets[id].name;
-  const changed = part.changed.map(name).sort();
+  const changed = Array.from(part.changed, name).sort();
   return { region: cutOut(nl, new Set(r.devices), [...changed, ...editNetNames(nl, part.edit)]), changed, cut: r.cut.map(name).sort() };
 }

@@ -367,7 +367,7 @@ const partProofs = new WeakMap<ProofCache, PartTable<PartProof>>();
  */
 function verifyByParts(before: { nl: FlatNetlist; view: LogicView }, p: Proposal, changed: Changed, check: RegionCheck): Verification | undefined {
   const parts = cutParts(before.nl, before.view, p.edit, changed);
-  if (!parts || parts.length === 0) return undefined;
+  if (!parts || parts.count === 0) return undefined;
   let proofs: PartTable<PartProof> | undefined;
   if (check.cache) {
     proofs = partProofs.get(check.cache);
@@ -381,7 +381,8 @@ function verifyByParts(before: { nl: FlatNetlist; view: LogicView }, p: Proposal
   const methods = new Set<string>();
   const usedIds = new Set<string>();
   let vectors = 0;
-  for (const part of parts) {
+  for (let k = 0; k < parts.count; k++) {
+    const part = parts.part(k);
     const region = partRegion(before.nl, before.view, part);
     if (!region) return undefined;
     const key = partKey(before.nl, {
@@ -423,7 +424,7 @@ function verifyByParts(before: { nl: FlatNetlist; view: LogicView }, p: Proposal
     assumptions,
     compared,
     simulatedVectors: vectors,
-    note: `proved in ${parts.length} part${parts.length === 1 ? '' : 's'}, each cut out at the nets the rewrite leaves unchanged`,
+    note: `proved in ${parts.count} part${parts.count === 1 ? '' : 's'}, each cut out at the nets the rewrite leaves unchanged`,
   };
 }
 
