@@ -158,9 +158,13 @@ export async function runRules(netlist: FlatNetlist, view: LogicView, options: R
 export function overlapGraph(findings: Finding[], netlist?: FlatNetlist): OverlapGraph {
   const proposals = findings.flatMap((f) => f.proposals);
   const count = proposals.length;
+  // At most one slot per name listed: sized once, so the tables never grow and copy.
+  let names = 0;
+  for (const p of proposals) names += p.edit.removeDevices.length + p.edit.reconnect.length + p.edit.addDevices.length + 2 * p.edit.mergeNets.length;
   /** First and last proposal to touch each slot (proposals come in order, so a slot's are increasing). */
-  const first: number[] = [];
-  const last: number[] = [];
+  const first = new Int32Array(names);
+  const last = new Int32Array(names);
+  let slots = 0;
   /** Every proposal touching a slot, for slots touched by three or more. */
   const more = new Map<number, number[]>();
   /** Least slot each pair of proposals shares, by j · count + i (j < i). */
@@ -182,8 +186,9 @@ export function overlapGraph(findings: Finding[], netlist?: FlatNetlist): Overla
     last[slot] = i;
   };
   const open = (i: number): number => {
-    first.push(i);
-    return last.push(i) - 1;
+    first[slots] = i;
+    last[slots] = i;
+    return slots++;
   };
   // Names of the design's devices and nets are numbered by the netlist's own indexes (slot + 1 in
   // a typed array, 0 while unmet); other names (added devices, unknown nets) go in maps.
