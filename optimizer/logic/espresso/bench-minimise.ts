@@ -1,7 +1,7 @@
 // Benchmark (prints a table; not a test): the minimise call a rule makes from truth tables —
 // complement, table checks, name-free cache key, one batched round trip to the process pool (the
 // child writes each PLA as one text), parsing, check against the truth table — against the bare
-// native Espresso calls in-process on ready PLA lines, on structured functions of 8–14 inputs.
+// native Espresso calls in-process on ready PLA text, on structured functions of 8–14 inputs.
 // Both sides start from the same truth tables (building them from the design is the same for any
 // minimiser, so it is outside both timings).
 // Run: npx tsx optimizer/logic/espresso/bench-minimise.ts [--runs N]   (npm run bench prints it too)
@@ -11,7 +11,7 @@ import { and, not, or, v } from '../expr';
 import { complementTable, fromExprs, type TruthTable } from '../truth-table';
 import { mapCover } from '../map-family';
 import { createEspressoMinimiser, type EspressoMinimiser } from './espresso-minimiser';
-import { buildPla } from './pla';
+import { buildPlaText } from './pla';
 
 const requireNative = createRequire(__filename);
 const native = requireNative('kuzzle-espresso-logic-minimizer') as { minimize(lines: string[]): string[] };
@@ -58,12 +58,18 @@ const timed = async (f: () => unknown | Promise<unknown>, childCpu: () => number
   return cpuMs() - c0 + (childCpu() - ch0);
 };
 
+/**
+ * Ready PLA text of a function and of its complement, each as one array element: the native call
+ * writes the elements to the file Espresso reads, so this gives Espresso the same file as a line
+ * per element, with the least work in the bridge (the cheapest bare call, and no line strings
+ * left in this process's heap to slow its collections).
+ */
 interface Pla {
   on: string[];
   off: string[];
 }
 
-/** The bare side: both native calls (function, complement) per function on ready PLA lines. */
+/** The bare side: both native calls (function, complement) per function on ready PLA text. */
 function bare(plas: readonly Pla[]): void {
   for (const p of plas) {
     native.minimize(p.on);
@@ -126,9 +132,26 @@ async function round(m: EspressoMinimiser, tables: readonly TruthTable[], plas: 
   return t;
 }
 
+/**
+ * Calls of our side made before anything is timed. The wrapped call runs a few dozen JavaScript
+ * functions in each process once per call, and the engine compiles them to optimised code only
+ * after some thousands of calls (measured: the alone overhead at 8 inputs falls from 50–120 % over
+ * the first thousand calls to its steady level after about two thousand). A scan makes one call
+ * per batch of blocks, so a process that scans only a small design pays that start-up once, like
+ * its own start; the table is the steady cost of each call after it.
+ */
+const WARM_CALLS = 2048;
+
+async function warmUp(m: EspressoMinimiser): Promise<void> {
+  const n = SIZES[0].n;
+  const tables = Array.from({ length: 64 }, (_, k) => structured(n, n, 99 + 1000 * k));
+  const plas = tables.map((t) => ({ on: [buildPlaText(t.outputs[0], n)], off: [buildPlaText(complementTable(t).outputs[0], n)] }));
+  for (let calls = 0; calls < WARM_CALLS; calls += tables.length + 1) await round(m, tables, plas, calls);
+}
+
 async function measure(m: EspressoMinimiser, n: number, batch: number, rounds: number): Promise<string[]> {
   const tables = Array.from({ length: batch }, (_, k) => structured(n, n, 7 + n + 1000 * k));
-  const plas = tables.map((t) => ({ on: buildPla(t.outputs[0], n), off: buildPla(complementTable(t).outputs[0], n) }));
+  const plas = tables.map((t) => ({ on: [buildPlaText(t.outputs[0], n)], off: [buildPlaText(complementTable(t).outputs[0], n)] }));
   const terms = native.minimize(plas[0].on).length;
   // One untimed round first: both sides' code is compiled and the child has run this size.
   await round(m, tables, plas, 1);
@@ -163,6 +186,7 @@ async function main() {
   const loads: string[] = [];
   try {
     await m.minimiseCover(structured(6, 2, 1)); // start the child outside the timings
+    await warmUp(m);
     for (let run = 1; run <= runs; run++) {
       const before = os.loadavg()[0].toFixed(1);
       for (const { n, batch, rounds } of SIZES) rows.push(await measure(m, n, batch, rounds));
@@ -172,17 +196,20 @@ async function main() {
   } finally {
     m.close();
   }
-  console.log('Processor time per function (function and complement minimised), this process and the child, the');
-  console.log('median of several rounds after one untimed warm-up round; each round times both sides on the same');
-  console.log('functions, interleaved in alternating order, and "range" is the least and greatest overhead of a');
-  console.log('round. bare: the two native Espresso calls in-process on ready PLA lines. ours: complement, table');
-  console.log('checks, name-free cache key, the round trip to the child process (framed binary messages on its');
-  console.log('stdin and stdout; the child writes the PLA text from the table words), parsing and the check of');
-  console.log('each cover against the truth table. batch: the distinct functions of a size in one minimiseMany');
-  console.log('call, as a scan sends its blocks. alone: each function in a call of its own, as a scan of a small');
-  console.log('design sends its one block; its overhead is mostly the fixed cost of one round trip (each process');
-  console.log('woken once), which grows with the machine\'s other load. Goal: overhead under 30 % at 8–14 inputs,');
-  console.log('batched and alone.');
+  const about = [
+    'Processor time per function (function and complement minimised), this process and the child: the median of',
+    `several rounds, after ${WARM_CALLS} untimed calls of our side (the engine's compile-on-use start-up, paid once`,
+    'per process) and one untimed round of each size. Each round times both sides on the same functions,',
+    'interleaved in alternating order; "range" is the least and greatest overhead of a round. bare: the two native',
+    'Espresso calls in-process on ready PLA text (one array element each). ours: complement, table checks, name-free',
+    'cache key, the round trip to the child process (binary frames on its stdin and stdout; the child writes the PLA',
+    'text from the table words), parsing and the check of each cover against the truth table. batch: the distinct',
+    'functions of a size in one minimiseMany call, as a scan sends its blocks. alone: each function in a call of',
+    'its own, as a scan of a small design sends its one block; its overhead is mostly the fixed cost of one round',
+    "trip (each process woken once), which grows with the machine's other load. Goal: overhead under 30 % at 8–14",
+    'inputs, batched and alone.',
+  ];
+  for (const line of about) console.log(line);
   for (const l of loads) console.log(l);
   const widths = header.map((_, c) => Math.max(...rows.map((r) => r[c].length)));
   for (const r of rows) console.log(r.map((x, c) => x.padStart(widths[c])).join('  '));
