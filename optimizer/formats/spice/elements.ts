@@ -80,17 +80,29 @@ interface Args {
   ok: boolean;
 }
 
-/** Splits the tokens after the element name into positional tokens and NAME=value pairs. */
+/**
+ * The one Args splitArgs fills, card after card: like the card and its tokens (lines.ts) it lives
+ * only while its card is read, and a large deck has millions of cards.
+ */
+const ARGS: Args = { positional: [], keyed: [], ok: true };
+
+/**
+ * Splits the tokens after the element name into positional tokens and NAME=value pairs. The
+ * result and its lists are reused by the next call: read them before the next card.
+ */
 function splitArgs(tokens: Token[], ctx: ElementContext): Args {
-  const positional: Token[] = [];
-  const keyed: Args['keyed'] = [];
+  const args = ARGS;
+  const { positional, keyed } = args;
+  positional.length = 0;
+  keyed.length = 0;
+  args.ok = false;
   for (let i = 1; i < tokens.length; i++) {
     const t = tokens[i];
     if (tokens[i + 1]?.text === '=') {
       const value = tokens[i + 2];
       if (!value || value.text === '=' || value.text === '(' || value.text === ')') {
         ctx.report('error', 'spice.param-syntax', `${t.text}= needs a value`, ctx.at(t));
-        return { positional, keyed, ok: false };
+        return args;
       }
       keyed.push({ key: t, value });
       i += 2;
@@ -98,15 +110,16 @@ function splitArgs(tokens: Token[], ctx: ElementContext): Args {
     }
     if (t.text === '=' || t.text === '(' || t.text === ')') {
       ctx.report('error', 'spice.syntax', `unexpected '${t.text}'`, ctx.at(t));
-      return { positional, keyed, ok: false };
+      return args;
     }
     if (keyed.length > 0) {
       ctx.report('error', 'spice.syntax', `unexpected '${t.text}' after NAME=value parameters`, ctx.at(t));
-      return { positional, keyed, ok: false };
+      return args;
     }
     positional.push(t);
   }
-  return { positional, keyed, ok: true };
+  args.ok = true;
+  return args;
 }
 
 /**
@@ -232,8 +245,8 @@ function semiconductor(card: Card, cell: Cell, ctx: ElementContext, name: string
     return;
   }
   const params = args.keyed.length > 0 || p.length > nodes + 1 ? keyedParams(args, ctx) : NO_PARAMS;
-  const tail = p.slice(nodes + 1);
-  for (const t of tail) {
+  for (let k = nodes + 1; k < p.length; k++) {
+    const t = p[k];
     const upper = t.text.toUpperCase();
     if (upper === 'OFF') params.OFF = 1;
     else if (letter !== 'M' && params.AREA === undefined && numericValue(t.text, ctx.params) !== undefined) params.AREA = numericValue(t.text, ctx.params)!;
