@@ -62,6 +62,8 @@ export interface PartKeyInput {
   moved: number[];
   assumptions: readonly { expr: Expr }[];
   extra: string;
+  /** The design's terminals in typed rows (rules/region terminalRows). */
+  terminals: { start: Int32Array; list: Int32Array };
   /** Device index by name in the design (rail sources). */
   deviceIndex: (name: string) => number | undefined;
 }
@@ -94,7 +96,10 @@ class KeyWriter {
   private readonly railNet: Int32Array;
   private readonly railVolts: Int32Array;
   private readonly railSource: Int32Array;
-  private readonly pathClass = new Map<readonly string[], number>();
+  private readonly pathClass = new Map<number, number>();
+  /** Each device's instance path, numbered (by the path list's identity: one list per instance), or -1 before first use. */
+  private readonly pathIds: Int32Array;
+  private readonly paths = new Map<readonly string[], number>();
   private readonly fresh = new Map<string, number>();
   private readonly outside = new Map<string, number>();
 
@@ -108,6 +113,7 @@ class KeyWriter {
     this.at = new Int32Array(n);
     this.deviceSeen = new Int32Array(m);
     this.deviceAt = new Int32Array(m);
+    this.pathIds = new Int32Array(m).fill(-1);
     this.texts = textsOf(nl);
     this.netKind = new Int32Array(n);
     for (let i = 0; i < n; i++) {
@@ -117,6 +123,16 @@ class KeyWriter {
     this.railNet = Int32Array.from(nl.rails, (r) => r.net);
     this.railVolts = Int32Array.from(nl.rails, (r) => intern(this.texts, String(r.volts)));
     this.railSource = Int32Array.from(nl.rails, (r) => (r.source === undefined ? -1 : (deviceIndex(r.source) ?? -1)));
+  }
+
+  private pathOf(i: number): number {
+    if (this.pathIds[i] < 0) {
+      const path = this.nl.devices[i].path;
+      let id = this.paths.get(path);
+      if (id === undefined) this.paths.set(path, (id = this.paths.size));
+      this.pathIds[i] = id;
+    }
+    return this.pathIds[i];
   }
 
   private put(x: number): void {
@@ -178,17 +194,19 @@ class KeyWriter {
     this.net(0);
     for (let k = 0; k < this.railNet.length; k++) this.net(this.railNet[k]);
     const devices = input.devices;
+    const { start, list } = input.terminals;
     for (let k = 0; k < devices.length; k++) {
       const i = devices[k];
       this.deviceSeen[i] = stamp;
       this.deviceAt[i] = k;
-      const d = nl.devices[i];
-      let pc = this.pathClass.get(d.path);
-      if (pc === undefined) this.pathClass.set(d.path, (pc = this.pathClass.size));
+      const path = this.pathOf(i);
+      let pc = this.pathClass.get(path);
+      if (pc === undefined) this.pathClass.set(path, (pc = this.pathClass.size));
       this.put(DEVICE);
       this.put(deviceText(nl, i));
       this.put(pc);
-      for (const t of d.terminals) {
+      for (let j = start[i]; j < start[i + 1]; j++) {
+        const t = list[j];
         this.put(this.net(t));
         // A net's kind (Verilog tri, wand …) beside its number.
         if (this.netKind[t] !== 0) {

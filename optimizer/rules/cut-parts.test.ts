@@ -16,7 +16,7 @@ import { constantInput } from './constant-input';
 import { cutParts, partRegion } from './cut-parts';
 import { defineRule } from './define-rule';
 import { mergeDuplicateLogic } from './merge-duplicate-logic';
-import { indexOf } from './region';
+import { indexOf, terminalRows } from './region';
 import { scan, verifyProposal } from './scan';
 import { sharedControlDriver } from './shared-control-driver';
 import { emptyEdit, type Proposal } from './types';
@@ -66,7 +66,7 @@ describe('proof part by part', () => {
     const keys = list.map((part) => {
       const region = partRegion(nl, view, part)!;
       const { byName } = indexOf(nl);
-      return partKey(nl, { ...region, changed: part.changed, edit: part.edit, removed: part.removed, moved: part.moved, assumptions: [], extra: '', deviceIndex: (n) => byName.get(n) }).key;
+      return partKey(nl, { ...region, changed: part.changed, edit: part.edit, removed: part.removed, moved: part.moved, assumptions: [], extra: '', terminals: terminalRows(nl), deviceIndex: (n) => byName.get(n) }).key;
     });
     // Ten slices at four loads a driver: drivers in slices 0 and 5, eight slices merged onto them,
     // and the two kept drivers compared on their own: 10 parts. A merged slice whose input comes

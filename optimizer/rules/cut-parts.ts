@@ -3,7 +3,7 @@
 // becomes one part per slice, and slices cut out alike share one proof through the proof cache.
 import type { LogicView } from '../extract/types';
 import type { FlatNetlist } from '../netlist/ir';
-import { cutOut, editNetNames, indexOf, MAX_REGION_NODES, nodeOfNet, ownersOf } from './region';
+import { cutOut, editNetNames, indexOf, MAX_REGION_NODES, nodeOfNet, ownersOf, terminalRows } from './region';
 import { devicesOnTouchedNodes, inputsOf } from './touched-nodes';
 import type { Edit } from './types';
 
@@ -363,8 +363,10 @@ export function partRegion(nl: FlatNetlist, view: LogicView, part: CutPart): Par
     }
   };
   for (const i of core) marks.node[i] = stamp;
+  const terms = terminalRows(nl);
   const readBy = (d: number, own: number) => {
-    for (const t of nl.devices[d].terminals) {
+    for (let k = terms.start[d]; k < terms.start[d + 1]; k++) {
+      const t = terms.list[k];
       if (t === own) continue;
       const j = nodeOf[t];
       if (j >= 0 && marks.node[j] !== stamp) {
@@ -390,7 +392,11 @@ export function partRegion(nl: FlatNetlist, view: LogicView, part: CutPart): Par
   const sources = sourcesOf(nl);
   for (const s of sources.rails) takeDevice(s);
   const n = devices.length;
-  for (let k = 0; k < n; k++) for (const t of nl.devices[devices[k]].terminals) if (sources.onNet[t] === 1) for (const s of sources.byNet.get(t)!) takeDevice(s);
+  for (let k = 0; k < n; k++) {
+    for (let j = terms.start[devices[k]]; j < terms.start[devices[k] + 1]; j++) {
+      if (sources.onNet[terms.list[j]] === 1) for (const s of sources.byNet.get(terms.list[j])!) takeDevice(s);
+    }
+  }
   const keep = [...part.changed];
   for (const name of editNetNames(nl, part.edit)) {
     const id = nl.netByName.get(name);

@@ -15,7 +15,7 @@ import { positions, proofKey, type ProofKey } from '../region/proof-key';
 import { applyProposals } from '../rewrite/apply';
 import { checkEquivalence, type EquivResult } from '../verify/equivalence';
 import { cutParts, cutRegion, partRegion } from './cut-parts';
-import { indexOf, MAX_REGION_NODES, ownersOf, regionOf } from './region';
+import { indexOf, MAX_REGION_NODES, ownersOf, regionOf, terminalRows } from './region';
 import { simulationCheck } from './sim-check';
 import { devicesOnTouchedNodes } from './touched-nodes';
 import { runRules, type OverlapGraph, type RuleErrorRecord, type RunOptions } from './run-rules';
@@ -375,6 +375,7 @@ function verifyByParts(before: { nl: FlatNetlist; view: LogicView }, p: Proposal
   }
   const { byName } = indexOf(before.nl);
   const deviceIndex = (name: string) => byName.get(name);
+  const terminals = terminalRows(before.nl);
   const extra = `simulate-up-to:${check.simulateUpTo}`;
   const ids = check.used.map((a) => a.id);
   const compared: string[] = [];
@@ -395,6 +396,7 @@ function verifyByParts(before: { nl: FlatNetlist; view: LogicView }, p: Proposal
       moved: part.moved,
       assumptions: check.used,
       extra,
+      terminals,
       deviceIndex,
     });
     let known = proofs?.get(key);
