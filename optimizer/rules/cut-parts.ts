@@ -4,7 +4,7 @@
 import type { LogicView } from '../extract/types';
 import type { FlatNetlist } from '../netlist/ir';
 import { cutOut, editNetNames, indexOf, MAX_REGION_NODES, nodeOfNet, ownersOf, terminalRows } from './region';
-import { devicesOnTouchedNodes, inputsOf } from './touched-nodes';
+import { devicesOnTouchedNodes, inputNets } from './touched-nodes';
 import type { Edit } from './types';
 
 /**
@@ -144,7 +144,7 @@ function sourcesOf(nl: FlatNetlist): Sources {
 export function cutParts(nl: FlatNetlist, view: LogicView, edit: Edit, changed: { ids: number[]; others: string[] }): CutParts | undefined {
   const { byName, onNetStart, onNetList } = indexOf(nl);
   const owners = ownersOf(view, nl.devices.length);
-  const inputs = inputsOf(view);
+  const inputs = inputNets(nl, view);
   const netCount = nl.nets.length;
   const deviceCount = nl.devices.length;
   // Typed marks by net and device id: a design-wide edit names hundreds of thousands of each.
@@ -152,7 +152,7 @@ export function cutParts(nl: FlatNetlist, view: LogicView, edit: Edit, changed: 
   railNet[0] = 1;
   for (const r of nl.rails) railNet[r.net] = 1;
   const nodeOf = nodeOfNet(view, netCount);
-  const isInput = (id: number) => nodeOf[id] < 0 && inputs.has(nl.nets[id].name);
+  const isInput = (id: number) => nodeOf[id] < 0 && inputs[id] === 1;
 
   // New nets an edit names (an added driver's output) get ids after the design's.
   const newNet = new Map<string, number>();

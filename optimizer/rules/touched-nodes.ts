@@ -8,8 +8,24 @@ import type { Edit } from './types';
 
 const inputCache = new WeakMap<LogicView, Set<string>>();
 
+const inputNetCache = new WeakMap<LogicView, Uint8Array>();
+
+/** 1 for each net that is a primary input or state bit of the view, by net id (built once per view and design). */
+export function inputNets(nl: FlatNetlist, view: LogicView): Uint8Array {
+  let a = inputNetCache.get(view);
+  if (!a || a.length !== nl.nets.length) {
+    a = new Uint8Array(nl.nets.length);
+    for (const name of inputsOf(view)) {
+      const id = nl.netByName.get(name);
+      if (id !== undefined && nl.nets[id].name === name) a[id] = 1;
+    }
+    inputNetCache.set(view, a);
+  }
+  return a;
+}
+
 /** Primary inputs and state bits of a view, by name (built once per view). */
-export function inputsOf(view: LogicView): Set<string> {
+function inputsOf(view: LogicView): Set<string> {
   let s = inputCache.get(view);
   if (!s) inputCache.set(view, (s = new Set([...view.inputs, ...view.stateBits])));
   return s;
@@ -35,7 +51,7 @@ const touchedCache = new WeakMap<Edit, { nl: FlatNetlist; view: LogicView; devic
 
 function touchedDevices(nl: FlatNetlist, view: LogicView, edit: Edit): number[] {
   const { byName, onNetStart, onNetList } = indexOf(nl);
-  const inputs = inputsOf(view);
+  const inputs = inputNets(nl, view);
   const rails = new Set(nl.rails.map((r) => r.net));
   const seenNet = new Set<number>();
   const seenDevice = new Set<number>();
@@ -43,7 +59,7 @@ function touchedDevices(nl: FlatNetlist, view: LogicView, edit: Edit): number[] 
   const touch = (id: number | undefined) => {
     if (id === undefined || seenNet.has(id)) return;
     seenNet.add(id);
-    if (id === 0 || rails.has(id) || view.nodeByNet.has(id) || inputs.has(nl.nets[id].name)) return;
+    if (id === 0 || rails.has(id) || view.nodeByNet.has(id) || inputs[id] === 1) return;
     for (let k = onNetStart[id]; k < onNetStart[id + 1]; k++) {
       const d = onNetList[k];
       if (!seenDevice.has(d)) {
