@@ -174,6 +174,8 @@ function relativeKey(f: Simplified): string {
   // (replaceAll of a plain string is split/join; most parts hold neither name and are kept as they are)
   const strip = (x: string) => {
     const y = x.includes(prefix) ? x.replaceAll(prefix, '\u0001.') : x;
+    // (an empty name splits between every character, which replaceAll('') does not match)
+    if (net === '') return y.split(net).join('\u0002');
     return y.includes(net) ? y.replaceAll(net, '\u0002') : y;
   };
   const r = f.report;

@@ -61,6 +61,11 @@ export function findOverrides(ctx: RuleContext, cx: ExtractContext, min = 1, mos
   view.nodes.forEach((node, ni) => {
     const bipolar = node.family === 'rtl' || node.family === 'dtl';
     if (!bipolar && !(mos && node.family === 'nmos')) return;
+    // A line with nothing but the override is a plain inverter of the control: another rule's.
+    // (counted first, without building the branch list: most gates of a design have one branch)
+    let branchCount = 0;
+    for (const g of node.groups) if (g.pullDown) branchCount += g.pullDown.type === 'parallel' ? g.pullDown.parts.length : 1;
+    if (branchCount < 2) return;
     let vcc = node.pullUp?.railVolts;
     let hung: ReturnType<typeof hungFrom>;
     const pulled = node.pullUps.some((u) => (u.kind === 'resistor' && u.ohms !== undefined) || (!bipolar && u.kind === 'depletion'));
@@ -70,8 +75,6 @@ export function findOverrides(ctx: RuleContext, cx: ExtractContext, min = 1, mos
     } else if (!((node.kind === 'static' || node.kind === 'wired') && pulled)) return;
     if (vcc === undefined) return;
     const branches = node.groups.flatMap((g) => (g.pullDown ? (g.pullDown.type === 'parallel' ? g.pullDown.parts : [g.pullDown]) : []));
-    // A line with nothing but the override is a plain inverter of the control: another rule's.
-    if (branches.length < 2) return;
     const seenOnLine: string[] = [];
     for (const br of branches) {
       if (br.type !== 'switch') continue;
