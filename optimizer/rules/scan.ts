@@ -87,15 +87,36 @@ interface Changed {
   others: string[];
 }
 
+/** Scratch marks by net and device, stamped per call so they need no clearing (one pair per design). */
+const markCache = new WeakMap<FlatNetlist, { stamp: number; net: Int32Array; device: Int32Array }>();
+
+function changeMarks(nl: FlatNetlist): { stamp: number; net: Int32Array; device: Int32Array } {
+  let m = markCache.get(nl);
+  if (!m) markCache.set(nl, (m = { stamp: 0, net: new Int32Array(nl.nets.length), device: new Int32Array(nl.devices.length) }));
+  return m;
+}
+
 function changedNets(nl: FlatNetlist, view: LogicView, p: Proposal): Changed {
   // Nets gathered by id and devices by index (numbers, not names): a design-wide edit names
   // hundreds of thousands of each, and a one-slice edit must not cost the design's size.
-  const netIds = new Set<number>();
-  const markNet = (id: number) => netIds.add(id);
+  const marks = changeMarks(nl);
+  const stamp = ++marks.stamp;
+  const netIds: number[] = [];
+  const markNet = (id: number) => {
+    if (marks.net[id] !== stamp) {
+      marks.net[id] = stamp;
+      netIds.push(id);
+    }
+  };
   const others = new Set<string>();
   const { byName: index, onNetStart, onNetList } = indexOf(nl);
-  const hit = new Set<number>();
-  const hitDevice = (i: number) => hit.add(i);
+  const hit: number[] = [];
+  const hitDevice = (i: number) => {
+    if (marks.device[i] !== stamp) {
+      marks.device[i] = stamp;
+      hit.push(i);
+    }
+  };
   const byName = (name: string) => {
     const id = nl.netByName.get(name);
     if (id !== undefined && nl.nets[id].name === name) markNet(id);
