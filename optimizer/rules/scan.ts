@@ -72,12 +72,6 @@ export interface ScanOptions extends RunOptions {
 const defaultVerifier: Verifier = (before, after, assumptions) =>
   checkEquivalence(before, after, { assumptions: assumptions.map((a) => ({ name: a.id, expr: a.expr })) });
 
-/**
- * Nets an edit changes: terminals of removed, reconnected and added devices, merged nets, and
- * every driven net whose logic group contains a removed or reconnected device (a base resistor
- * moved changes the collector node it feeds). A merge moves every device on the removed net onto
- * the kept one, so the groups holding those devices change too.
- */
 interface Changed {
   /** Names, sorted, each once (built when first read). */
   readonly names: string[];
@@ -96,6 +90,12 @@ function changeMarks(nl: FlatNetlist): { stamp: number; net: Int32Array; device:
   return m;
 }
 
+/**
+ * Nets an edit changes: terminals of removed, reconnected and added devices, merged nets, and
+ * every driven net whose logic group contains a removed or reconnected device (a base resistor
+ * moved changes the collector node it feeds). A merge moves every device on the removed net onto
+ * the kept one, so the groups holding those devices change too.
+ */
 function changedNets(nl: FlatNetlist, view: LogicView, p: Proposal): Changed {
   // Nets gathered by id and devices by index (numbers, not names): a design-wide edit names
   // hundreds of thousands of each, and a one-slice edit must not cost the design's size.
@@ -308,9 +308,9 @@ function reuse(hit: CachedProof, key: ProofKey, used: Assumption[], problem: () 
  * one that stays read but loses its driver is compared as a free variable, which refutes.
  * With a cache, a region whose canonical key was proved before in this scan reuses that verdict.
  * When the changed nets' fan-in is beyond the switch-level check's size (a design-wide edit, a
- * deep ripple chain), the edit is first proved part by part on
- * regions cut at the nets it leaves unchanged (see cut-parts), each part simulated on its own;
- * only if a part is not proved that way is the whole design used.
+ * deep ripple chain), the edit is first proved part by part on regions cut at the nets it leaves
+ * unchanged (see cut-parts), each part simulated on its own; only if a part is not proved that
+ * way is the whole region or design used.
  */
 export function verifyProposal(
   before: { nl: FlatNetlist; view: LogicView },
@@ -427,15 +427,15 @@ function verifyByParts(before: { nl: FlatNetlist; view: LogicView }, p: Proposal
       if (r.status === 'refuted' || (r.status === 'unproved' && r.note !== NOTHING_DRIVEN)) return undefined;
       const compares = new Set(r.compared);
       const comparedAt = new Set<number>();
-      part.changed.forEach((id, k) => compares.has(before.nl.nets[id].name) && comparedAt.add(key.places[k]));
+      part.changed.forEach((id, j) => compares.has(before.nl.nets[id].name) && comparedAt.add(key.places[j]));
       known = { verification: r, comparedAt, assumptionAt: r.assumptions.map((id) => ids.indexOf(id)) };
       proofs?.set(key, known);
     }
     const r = known.verification;
     if (r.status !== 'proved') continue; // nothing to compare in this part
-    for (let k = 0; k < part.changed.length; k++) if (known.comparedAt.has(key.places[k])) compared.push(before.nl.nets[part.changed[k]].name);
+    for (let j = 0; j < part.changed.length; j++) if (known.comparedAt.has(key.places[j])) compared.push(before.nl.nets[part.changed[j]].name);
     methods.add(r.method);
-    for (const k of known.assumptionAt) usedIds.add(ids[k]);
+    for (const j of known.assumptionAt) usedIds.add(ids[j]);
     vectors = Math.max(vectors, r.simulatedVectors);
   }
   const assumptions = ids.filter((id) => usedIds.has(id));
