@@ -70,6 +70,13 @@ function load(file: string, args: ParsedArgs, io: CliIo): ReadResult {
   return readDesign(bytes, { file, format: formatOption(args, 'format') });
 }
 
+/** The design read and flattened, its warnings printed; the parsed cells are left to the collector (a scan of a large flat deck would otherwise keep them all). */
+function loadFlat(file: string, args: ParsedArgs, io: CliIo): FlatNetlist {
+  const { design, diagnostics } = load(file, args, io);
+  printWarnings(diagnostics, io);
+  return flatten(design);
+}
+
 function printWarnings(diags: Diagnostic[], io: CliIo): void {
   for (const d of diags) if (d.severity === 'warning') io.stderr(formatDiagnostic(d) + '\n');
 }
@@ -107,9 +114,7 @@ async function runScan(args: ParsedArgs, io: CliIo, command: string): Promise<Sc
   }
   const family = args.options.family;
   if (family !== undefined && (typeof family !== 'string' || !(FAMILIES as readonly string[]).includes(family))) throw new UsageError(`--family must be one of ${FAMILIES.join(', ')}`);
-  const { design, diagnostics } = load(file, args, io);
-  printWarnings(diagnostics, io);
-  const flat = flatten(design);
+  const flat = loadFlat(file, args, io);
   const assumptions = assumptionsFrom(args, flat);
   const minimiser = createEspressoMinimiser({ size: 1 });
   try {

@@ -59,6 +59,9 @@ const STAGES: Stage[] = [
     run(ctx) {
       ctx.flat = flatten(ctx.design!);
       ctx.devices = ctx.flat.devices.length;
+      // The parsed cells are not needed once flattened (the product drops them too): a 1M-device
+      // flat deck's cells would otherwise stay in the heap every later collection walks.
+      ctx.design = undefined;
     },
   },
   {

@@ -12,6 +12,7 @@ import type { TruthTable } from '@/optimizer/logic/truth-table';
 import { MinimiserError, type MinimiserFailure } from '@/optimizer/logic/espresso/pool';
 import { overlapGraph, type RuleErrorRecord } from '@/optimizer/rules/run-rules';
 import { scan as scanRules, type ScannedFinding } from '@/optimizer/rules/scan';
+import type { Design } from '@/optimizer/netlist/ir';
 import type { Assumption } from '@/optimizer/rules/types';
 import type { DevicePath, EngineFailure, EngineJob, EngineResult, HostMessage, ThreadMessage, WireError, WireOutcome } from '@/server/jobs/engine-protocol';
 
@@ -98,8 +99,11 @@ export async function runEngineJob(
   };
 
   const assumptions: Assumption[] = job.assumptions.map((a) => ({ id: a.id, text: a.text, expr: parseExpr(a.text, `assumption ${a.id}`) }));
-  const parsed = await stage('parse', 5, () => readDesign(job.source, { file: job.fileName, format: job.format }).design);
-  const flat = await stage('flatten', 10, () => flatten(parsed));
+  let parsed: Design | undefined = await stage('parse', 5, () => readDesign(job.source, { file: job.fileName, format: job.format }).design);
+  const flat = await stage('flatten', 10, () => flatten(parsed!));
+  // The parsed cells are not needed past flattening; a large flat deck's would otherwise stay in
+  // the heap through extraction and every rule (each collection walks them).
+  parsed = undefined;
   const view = await stage('extract', 20, () => extractLogic(flat));
   const findings: ScannedFinding[] = [];
   const ruleErrors: RuleErrorRecord[] = [];
