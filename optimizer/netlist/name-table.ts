@@ -8,9 +8,17 @@ export class NameTable {
   /** Names by number, in first-seen order (the first string met for each name). */
   readonly names: string[] = [];
   /** Hash of each name, by number (kept so growing the table never hashes a name again). */
-  private hashes = new Int32Array(64);
+  private hashes: Int32Array;
   /** Slots: a name's number, or EMPTY. Size is a power of two, at most half full. */
-  private slots = new Int32Array(128).fill(EMPTY);
+  private slots: Int32Array;
+
+  /** @param expected names the table will likely hold (sizes it once instead of growing step by step) */
+  constructor(expected = 64) {
+    let slots = 128;
+    while (slots < expected * 2) slots *= 2;
+    this.hashes = new Int32Array(slots / 2);
+    this.slots = new Int32Array(slots).fill(EMPTY);
+  }
 
   get size(): number {
     return this.names.length;

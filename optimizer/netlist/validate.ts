@@ -62,7 +62,7 @@ export function validateDesign(design: Design, opts: ValidateOptions = {}): Diag
 }
 
 function checkNames(cell: Cell, out: Diagnostic[]): void {
-  const seen = new NameTable();
+  const seen = new NameTable(cell.devices.length + cell.instances.length);
   // Exact comparison: deck readers have already upper-cased names, and Verilog names are case-sensitive.
   // One table operation per name (a repeat leaves the size unchanged): large flat cells have
   // millions of names, and a typed-array table probes far faster than a Set of that size.

@@ -32,7 +32,7 @@ const indexCache = new WeakMap<FlatNetlist, NameIndex>();
 export function deviceIndex(nl: FlatNetlist): NameIndex {
   let m = indexCache.get(nl);
   if (!m) {
-    const table = new NameTable();
+    const table = new NameTable(nl.devices.length);
     const at = new Int32Array(nl.devices.length);
     for (let i = 0; i < nl.devices.length; i++) at[table.add(nl.devices[i].name)] = i;
     m = new DeviceNames(table, at);
