@@ -85,6 +85,21 @@ function emitterGrounded(cx: ExtractContext, net: number): boolean {
 const scratchInputs: number[] = [];
 const scratchResistors: BaseDrive['baseResistors'] = [];
 const scratchDevices: number[] = [];
+
+/** A drive before resolve() fills it: direct, always on, its lists the shared scratch ones. */
+function startDrive(transistor: number): BaseDrive {
+  return {
+    transistor,
+    kind: 'direct',
+    inputs: scratchInputs,
+    on: TRUE,
+    baseResistors: scratchResistors,
+    inputDiodes: NONE,
+    levelShiftDiodes: NONE,
+    devices: scratchDevices,
+  };
+}
+
 /** The terms of a base's OR, read into `on` before resolve returns. */
 const scratchTerms: Expr[] = [];
 
@@ -97,18 +112,7 @@ export class BaseResolver {
    * and once an extraction has kept a million of them the engine allocates that kind of object
    * straight in the long-lived heap, where only a full collection frees it.
    */
-  private readonly spare: BaseDrive = {
-    transistor: -1,
-    kind: 'direct',
-    inputs: scratchInputs,
-    on: TRUE,
-    baseResistors: scratchResistors,
-    inputDiodes: NONE,
-    levelShiftDiodes: NONE,
-    devices: scratchDevices,
-    diodePullUp: undefined,
-    bleed: undefined,
-  };
+  private readonly spare: BaseDrive = Object.assign(startDrive(-1), { diodePullUp: undefined, bleed: undefined });
   constructor(private readonly cx: ExtractContext) {
     this.cache = new Array(cx.nl.devices.length);
   }
@@ -116,16 +120,7 @@ export class BaseResolver {
   drive(transistor: number): BaseDrive {
     let hit = this.cache[transistor];
     if (!hit) {
-      hit = this.resolve(transistor, {
-        transistor,
-        kind: 'direct',
-        inputs: scratchInputs,
-        on: TRUE,
-        baseResistors: scratchResistors,
-        inputDiodes: NONE,
-        levelShiftDiodes: NONE,
-        devices: scratchDevices,
-      });
+      hit = this.resolve(transistor, startDrive(transistor));
       hit.inputs = fit(hit.inputs);
       hit.baseResistors = fit(hit.baseResistors);
       hit.devices = fit(hit.devices);

@@ -39,6 +39,20 @@ interface NetTables {
 }
 
 /** The model's tables as built, in netlist ids (nets) and build order (edges). */
+/** The per-edge tables (all but the programs' code), `n` long, from `alloc`; no edge has a program yet. */
+export function edgeArrays(alloc: TypedAlloc, n: number): Omit<EdgeTables, 'code'> {
+  return {
+    edgeDevice: alloc.i32(n),
+    edgeA: alloc.i32(n),
+    edgeB: alloc.i32(n),
+    edgeCap: alloc.u8(n),
+    edgeControl: alloc.u8(n),
+    edgeGate: alloc.i32(n),
+    edgeOneWay: alloc.u8(n),
+    programAt: alloc.i32(n).fill(-1),
+  };
+}
+
 export interface BuiltTables extends EdgeTables, NetTables {
   nNets: number;
   /** Nets and edges of each ranked group, in the order the build met them. */
@@ -87,14 +101,7 @@ export function layOut(t: BuiltTables, kept: TypedAlloc = OWN_BUFFERS, scratch: 
   const pos = (n: number) => (n >= 0 ? netPos[n] : n);
 
   const edgeCount = groupEdges.list.length;
-  const edgeDevice = kept.i32(edgeCount);
-  const edgeA = kept.i32(edgeCount);
-  const edgeB = kept.i32(edgeCount);
-  const edgeCap = kept.u8(edgeCount);
-  const edgeControl = kept.u8(edgeCount);
-  const edgeGate = kept.i32(edgeCount);
-  const edgeOneWay = kept.u8(edgeCount);
-  const programAt = kept.i32(edgeCount).fill(-1);
+  const { edgeDevice, edgeA, edgeB, edgeCap, edgeControl, edgeGate, edgeOneWay, programAt } = edgeArrays(kept, edgeCount);
   // filled here, then kept at its exact length (edges between two sources drop their programs)
   const code = scratch.i32(t.code.length);
   let codeLen = 0;

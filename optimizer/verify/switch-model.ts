@@ -8,7 +8,7 @@ import { makeContext, isRail } from '../extract/context';
 import { BaseResolver } from '../extract/bipolar';
 import { loadTransistor } from '../extract/mos';
 import { grow, Pairs, permute, type Csr } from './csr';
-import { layOut, type LaidOutTables } from './switch-layout';
+import { edgeArrays, layOut, type LaidOutTables } from './switch-layout';
 import { TypedArena, type TypedAlloc } from '../netlist/typed-arena';
 
 export type { Csr } from './csr';
@@ -252,14 +252,7 @@ export function buildSwitchModel(nl: FlatNetlist, inputNames: string[]): SwitchM
   // collections of the (large) heap holding the netlist.
   let edgeTotal = 0;
   for (let i = 0; i < nDev; i++) if (hasEdge(i)) edgeTotal++;
-  const edgeDevice = scratch.i32(edgeTotal);
-  const edgeA = scratch.i32(edgeTotal);
-  const edgeB = scratch.i32(edgeTotal);
-  const edgeCap = scratch.u8(edgeTotal);
-  const edgeControl = scratch.u8(edgeTotal);
-  const edgeGate = scratch.i32(edgeTotal);
-  const edgeOneWay = scratch.u8(edgeTotal);
-  const programAt = scratch.i32(edgeTotal).fill(-1);
+  const { edgeDevice, edgeA, edgeB, edgeCap, edgeControl, edgeGate, edgeOneWay, programAt } = edgeArrays(scratch, edgeTotal);
   let nEdges = 0;
   let nextProgram = 0;
   const edge = (device: number, a: number, b: number, cap: number, control: number, gate: number, oneWay: boolean): void => {
