@@ -3,7 +3,7 @@
 // becomes one part per slice, and slices cut out alike share one proof through the proof cache.
 import type { LogicView } from '../extract/types';
 import type { FlatNetlist } from '../netlist/ir';
-import { cutOut, editNetNames, indexOf, MAX_REGION_NODES, nodeOfNet, ownersOf, terminalRows } from './region';
+import { cutOut, editNetNames, indexOf, MAX_REGION_NODES, nodeOfNet, ownersOf, scratchMarks, terminalRows } from './region';
 import { devicesOnTouchedNodes, inputNets } from './touched-nodes';
 import type { Edit } from './types';
 
@@ -350,7 +350,7 @@ export function cutParts(nl: FlatNetlist, view: LogicView, edit: Edit, changed: 
  * @returns undefined when the region would exceed MAX_REGION_NODES logic nodes
  */
 export function partRegion(nl: FlatNetlist, view: LogicView, part: CutPart): PartRegion | undefined {
-  const marks = marksOf(nl, view);
+  const marks = scratchMarks(nl, view);
   const nodeOf = nodeOfNet(view, nl.nets.length);
   const stamp = ++marks.stamp;
   const core = part.core;
@@ -403,24 +403,6 @@ export function partRegion(nl: FlatNetlist, view: LogicView, part: CutPart): Par
     if (id !== undefined) keep.push(id);
   }
   return { devices: devices.sort((a, b) => a - b), cut: ring.map((j) => view.nodes[j].net), keep };
-}
-
-/** Scratch marks by device and node, stamped per region so they need no clearing (one set per design). */
-interface Marks {
-  stamp: number;
-  device: Int32Array;
-  node: Int32Array;
-}
-
-const markCache = new WeakMap<LogicView, Marks>();
-
-function marksOf(nl: FlatNetlist, view: LogicView): Marks {
-  let m = markCache.get(view);
-  if (!m || m.device.length !== nl.devices.length) {
-    m = { stamp: 0, device: new Int32Array(nl.devices.length), node: new Int32Array(view.nodes.length) };
-    markCache.set(view, m);
-  }
-  return m;
 }
 
 /** The part's region as a netlist of its own, its compared nets' names and its cut nets' names. */

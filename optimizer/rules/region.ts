@@ -87,6 +87,29 @@ export function terminalRows(nl: FlatNetlist): TerminalRows {
   return rows;
 }
 
+/**
+ * Scratch marks by net, device and node, for walks that must see each once. Stamped per walk
+ * (`++marks.stamp`, then a mark equal to the stamp means seen), so they are never cleared; one
+ * set per design and view. A walk must end before the next one starts.
+ */
+export interface ScratchMarks {
+  stamp: number;
+  net: Int32Array;
+  device: Int32Array;
+  node: Int32Array;
+}
+
+const marksCache = new WeakMap<LogicView, ScratchMarks>();
+
+export function scratchMarks(nl: FlatNetlist, view: LogicView): ScratchMarks {
+  let m = marksCache.get(view);
+  if (!m || m.net.length !== nl.nets.length || m.device.length !== nl.devices.length) {
+    m = { stamp: 0, net: new Int32Array(nl.nets.length), device: new Int32Array(nl.devices.length), node: new Int32Array(view.nodes.length) };
+    marksCache.set(view, m);
+  }
+  return m;
+}
+
 const nodeOfNetCache = new WeakMap<LogicView, Int32Array>();
 
 /** Net id → index of the node driving it, or -1 (view.nodeByNet as a typed list, built once per view). */

@@ -15,7 +15,7 @@ import { positions, proofKey, type ProofKey } from '../region/proof-key';
 import { applyProposals } from '../rewrite/apply';
 import { checkEquivalence, type EquivResult } from '../verify/equivalence';
 import { cutParts, cutRegion, partRegion } from './cut-parts';
-import { indexOf, MAX_REGION_NODES, ownersOf, regionOf, terminalRows } from './region';
+import { indexOf, MAX_REGION_NODES, ownersOf, regionOf, scratchMarks, terminalRows } from './region';
 import { simulationCheck } from './sim-check';
 import { devicesOnTouchedNodes } from './touched-nodes';
 import { runRules, type OverlapGraph, type RuleErrorRecord, type RunOptions } from './run-rules';
@@ -81,15 +81,6 @@ interface Changed {
   others: string[];
 }
 
-/** Scratch marks by net and device, stamped per call so they need no clearing (one pair per design). */
-const markCache = new WeakMap<FlatNetlist, { stamp: number; net: Int32Array; device: Int32Array }>();
-
-function changeMarks(nl: FlatNetlist): { stamp: number; net: Int32Array; device: Int32Array } {
-  let m = markCache.get(nl);
-  if (!m) markCache.set(nl, (m = { stamp: 0, net: new Int32Array(nl.nets.length), device: new Int32Array(nl.devices.length) }));
-  return m;
-}
-
 /**
  * Nets an edit changes: terminals of removed, reconnected and added devices, merged nets, and
  * every driven net whose logic group contains a removed or reconnected device (a base resistor
@@ -99,7 +90,7 @@ function changeMarks(nl: FlatNetlist): { stamp: number; net: Int32Array; device:
 function changedNets(nl: FlatNetlist, view: LogicView, p: Proposal): Changed {
   // Nets gathered by id and devices by index (numbers, not names): a design-wide edit names
   // hundreds of thousands of each, and a one-slice edit must not cost the design's size.
-  const marks = changeMarks(nl);
+  const marks = scratchMarks(nl, view);
   const stamp = ++marks.stamp;
   const netIds: number[] = [];
   const markNet = (id: number) => {

@@ -101,7 +101,8 @@ export function layOut(t: BuiltTables, kept: TypedAlloc = OWN_BUFFERS, scratch: 
   const pos = (n: number) => (n >= 0 ? netPos[n] : n);
 
   const edgeCount = groupEdges.list.length;
-  const { edgeDevice, edgeA, edgeB, edgeCap, edgeControl, edgeGate, edgeOneWay, programAt } = edgeArrays(kept, edgeCount);
+  const edges = edgeArrays(kept, edgeCount);
+  const { edgeDevice, edgeA, edgeB, edgeCap, edgeControl, edgeGate, edgeOneWay, programAt } = edges;
   // filled here, then kept at its exact length (edges between two sources drop their programs)
   const code = scratch.i32(t.code.length);
   let codeLen = 0;
@@ -144,14 +145,7 @@ export function layOut(t: BuiltTables, kept: TypedAlloc = OWN_BUFFERS, scratch: 
     netPos,
     netAt,
     edgeCount,
-    edgeDevice,
-    edgeA,
-    edgeB,
-    edgeCap,
-    edgeControl,
-    edgeGate,
-    edgeOneWay,
-    programAt,
+    ...edges,
     code: keptCode,
     groupOf: groupOfNew,
     groupNetOff: groupNets.off,

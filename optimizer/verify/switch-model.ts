@@ -252,7 +252,8 @@ export function buildSwitchModel(nl: FlatNetlist, inputNames: string[]): SwitchM
   // collections of the (large) heap holding the netlist.
   let edgeTotal = 0;
   for (let i = 0; i < nDev; i++) if (hasEdge(i)) edgeTotal++;
-  const { edgeDevice, edgeA, edgeB, edgeCap, edgeControl, edgeGate, edgeOneWay, programAt } = edgeArrays(scratch, edgeTotal);
+  const edges = edgeArrays(scratch, edgeTotal);
+  const { edgeDevice, edgeA, edgeB, edgeCap, edgeControl, edgeGate, edgeOneWay, programAt } = edges;
   let nEdges = 0;
   let nextProgram = 0;
   const edge = (device: number, a: number, b: number, cap: number, control: number, gate: number, oneWay: boolean): void => {
@@ -387,14 +388,7 @@ export function buildSwitchModel(nl: FlatNetlist, inputNames: string[]): SwitchM
   const laid = layOut(
     {
       nNets,
-      edgeDevice,
-      edgeA,
-      edgeB,
-      edgeCap,
-      edgeControl,
-      edgeGate,
-      edgeOneWay,
-      programAt,
+      ...edges,
       code: code.subarray(0, codeLen),
       groupOf,
       // only the offsets are kept (the group ranges); the lists are read once, by layOut
