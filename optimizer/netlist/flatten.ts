@@ -6,6 +6,7 @@ import { InputError } from '../errors';
 import { GROUND, type Cell, type Design, type Device, type FlatDevice, type FlatNet, type FlatNetlist, type Rail } from './ir';
 import { hierarchyStats } from './hierarchy';
 import { NameTable } from './name-table';
+import { readerNumbering, type CellNumbering, type IdSequence } from './read-numbering';
 import { withDefaults, type Limits } from './limits';
 import { solveRails, type RailSource } from './rails';
 
@@ -208,6 +209,20 @@ function pack(lists: string[][], idx: (n: string) => number): { ids: Int32Array;
 }
 
 function compileCell(cell: Cell, globals: Map<string, number>): CompiledCell {
+  const given = readerNumbering(cell);
+  const local = (given && fromReader(cell, given)) ?? numberLocally(cell);
+  const nets = local.nets;
+  const globalOf = new Int32Array(nets.length);
+  for (let i = 0; i < nets.length; i++) globalOf[i] = globals.get(nets[i]) ?? -1;
+  const kinds = cell.netKinds === undefined ? new Array<FlatNet['kind']>(nets.length).fill(undefined) : nets.map((n) => own(cell.netKinds, n));
+  return { ...local, globalOf, kinds };
+}
+
+/** A cell's local nets and where each terminal and connection lands among them. */
+type LocalNets = Pick<CompiledCell, 'nets' | 'portCount' | 'devTermIds' | 'devTermStart' | 'instConnIds' | 'instConnStart'>;
+
+/** Numbers the local nets by name: ports, then device terminals, then instance connections, first seen first. */
+function numberLocally(cell: Cell): LocalNets {
   // a typed-array table: a large flat cell looks up every terminal's net here
   const index = new NameTable();
   const idx = (n: string): number => index.add(n);
@@ -225,11 +240,70 @@ function compileCell(cell: Cell, globals: Map<string, number>): CompiledCell {
     cell.instances.map((i) => i.connections),
     idx,
   );
-  const nets = index.names;
-  const globalOf = new Int32Array(nets.length);
-  for (let i = 0; i < nets.length; i++) globalOf[i] = globals.get(nets[i]) ?? -1;
-  const kinds = cell.netKinds === undefined ? new Array<FlatNet['kind']>(nets.length).fill(undefined) : nets.map((n) => own(cell.netKinds, n));
-  return { nets, portCount, kinds, globalOf, devTermIds: dev.ids, devTermStart: dev.start, instConnIds: inst.ids, instConnStart: inst.start };
+  return { nets: index.names, portCount, devTermIds: dev.ids, devTermStart: dev.start, instConnIds: inst.ids, instConnStart: inst.start };
+}
+
+/**
+ * The same numbering as numberLocally, taken from the reader's: its numbers are renumbered in the
+ * order numberLocally would meet them, with no name hashed. Undefined when the numbering no longer
+ * describes the cell (edited since it was read: other ports or terminals), which is checked
+ * terminal by terminal — a comparison of the very string the reader handed out, cheap. The
+ * numbering depends only on the sequence of terminal names, so a sequence that still matches
+ * gives the right answer whatever else changed.
+ */
+function fromReader(cell: Cell, given: CellNumbering): LocalNets | undefined {
+  const { names } = given;
+  const { ports } = cell;
+  if (names.length < ports.length) return undefined;
+  // reader's number → local number, -1 until met
+  const local = new Int32Array(names.length).fill(-1);
+  const nets: string[] = [];
+  // The reader numbered the ports first, each once: port i is its net i.
+  for (let i = 0; i < ports.length; i++) {
+    if (names[i] !== ports[i]) return undefined;
+    local[i] = nets.length;
+    nets.push(names[i]);
+  }
+  const renumber = (lists: readonly (readonly string[])[], seq: IdSequence): { ids: Int32Array; start: Int32Array } | undefined => {
+    const start = new Int32Array(lists.length + 1);
+    for (let k = 0; k < lists.length; k++) start[k + 1] = start[k] + lists[k].length;
+    if (start[lists.length] !== seq.length) return undefined;
+    const ids = new Int32Array(seq.length);
+    const { chunks } = seq;
+    let c = 0;
+    let chunk = chunks[0];
+    let at = 0;
+    let out = 0;
+    for (let k = 0; k < lists.length; k++) {
+      const ts = lists[k];
+      for (let j = 0; j < ts.length; j++) {
+        if (at === chunk.length) {
+          chunk = chunks[++c];
+          at = 0;
+        }
+        const id = chunk[at++];
+        if (ts[j] !== names[id]) return undefined;
+        let n = local[id];
+        if (n < 0) {
+          n = local[id] = nets.length;
+          nets.push(names[id]);
+        }
+        ids[out++] = n;
+      }
+    }
+    return { ids, start };
+  };
+  const dev = renumber(
+    cell.devices.map((d) => d.terminals),
+    given.devTerms,
+  );
+  if (dev === undefined) return undefined;
+  const inst = renumber(
+    cell.instances.map((i) => i.connections),
+    given.instConns,
+  );
+  if (inst === undefined) return undefined;
+  return { nets, portCount: ports.length, devTermIds: dev.ids, devTermStart: dev.start, instConnIds: inst.ids, instConnStart: inst.start };
 }
 
 function rails(devices: FlatDevice[], nets: FlatNet[]): Rail[] {

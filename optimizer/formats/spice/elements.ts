@@ -4,6 +4,7 @@ import type { Diagnostic } from '../../errors';
 import type { Cell, Device, DeviceKind, Model, ParamValue, SourceLoc } from '../../netlist/ir';
 import type { Card, Token } from './lines';
 import { NetUse } from '../../netlist/net-use';
+import { NumberingRecorder } from '../../netlist/read-numbering';
 import { netName, numericValue, upper, valueOrText } from './values';
 
 export interface ElementContext {
@@ -17,9 +18,15 @@ export interface ElementContext {
    * young), with how many terminals touch each: validation reads these counts (NetUse).
    */
   uses: Map<Cell, NetUse>;
-  /** The cell the last card was read into and its NetUse. */
+  /**
+   * The net numbers of each cell's terminals, element by element: flatten takes them instead of
+   * numbering every terminal again (read-numbering.ts).
+   */
+  numbering: Map<Cell, NumberingRecorder>;
+  /** The cell the last card was read into, its NetUse and its recorder. */
   cell?: Cell;
   use?: NetUse;
+  recorder?: NumberingRecorder;
   /** Net indices the card being read has named so far; counted once its element is kept. */
   pending: number[];
   /** The last model token looked up and its model: consecutive cards mostly name the same one. */
@@ -44,10 +51,15 @@ function net(t: Token, ctx: ElementContext): string {
   return ctx.use!.names[i];
 }
 
-/** Counts the nets the current card named: called just before its element joins the cell. */
-function keep(ctx: ElementContext): void {
+/**
+ * Counts the nets the current card named and records their numbers: called just before its
+ * element joins the cell's devices (or, with `instance`, its instances).
+ */
+function keep(ctx: ElementContext, instance = false): void {
   const counts = ctx.use!.counts;
   for (const i of ctx.pending) counts[i]++;
+  if (instance) ctx.recorder!.instance(ctx.pending);
+  else ctx.recorder!.device(ctx.pending);
   ctx.pending.length = 0;
 }
 
@@ -147,8 +159,14 @@ export function readElement(card: Card, cell: Cell, ctx: ElementContext): void {
       use = new NetUse(cell.ports);
       ctx.uses.set(cell, use);
     }
+    let recorder = ctx.numbering.get(cell);
+    if (recorder === undefined) {
+      recorder = new NumberingRecorder();
+      ctx.numbering.set(cell, recorder);
+    }
     ctx.cell = cell;
     ctx.use = use;
+    ctx.recorder = recorder;
   }
   ctx.pending.length = 0;
   const first = card.tokens[0];
@@ -344,6 +362,6 @@ function instance(card: Card, cell: Cell, ctx: ElementContext, name: string, loc
   }
   const sub = p[p.length - 1].text.toUpperCase();
   const connections = p.slice(0, -1).map((t) => net(t, ctx));
-  keep(ctx);
+  keep(ctx, true);
   cell.instances.push({ name, cell: sub, connections, params: {}, loc });
 }

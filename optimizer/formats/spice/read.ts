@@ -98,7 +98,7 @@ function read(text: string, file: string, report: Report, at: (t: { line: number
   let current = top;
   let ended2 = false;
   let endLine = 0;
-  const ctx: ElementContext = { models, params, report, at, uses: new Map(), pending: [] };
+  const ctx: ElementContext = { models, params, report, at, uses: new Map(), numbering: new Map(), pending: [] };
   forEachCard(
     text,
     {
@@ -169,6 +169,8 @@ function read(text: string, file: string, report: Report, at: (t: { line: number
   if (current !== top) {
     report('error', 'spice.unterminated-subckt', `.subckt ${current.name} has no .ends`, current.loc);
   }
+  // Each cell's net numbering stays beside it for flatten (only the table's names are kept).
+  for (const [cell, recorder] of ctx.numbering) recorder.keep(cell, ctx.uses.get(cell)!.names);
   return { design: { title, format: 'spice', top: SPICE_TOP, cells, models, globals, params, extraCards }, netUse: ctx.uses };
 }
 
