@@ -72,6 +72,96 @@ export class NameTable {
   }
 }
 
+/**
+ * Finds the names repeated in a list (a cell's devices), with no table of names: a hash table of
+ * millions of names costs a cache miss per name wherever it is probed, and more again each time
+ * it grows. Instead each name's hash is appended as the list is built — a reader does it while the
+ * name is fresh in memory — and the hashes are sorted once (three counting passes that read and
+ * write memory in order); only names whose hashes meet are compared.
+ */
+export class Repeats {
+  private hashes: Int32Array;
+  private size = 0;
+
+  /** @param expected names likely to be added (sizes the list of hashes once) */
+  constructor(expected = 64) {
+    this.hashes = new Int32Array(Math.max(expected, 16));
+  }
+
+  /** Adds the next entry's name. */
+  add(name: string): void {
+    if (this.size === this.hashes.length) {
+      const grown = new Int32Array(this.hashes.length * 2);
+      grown.set(this.hashes);
+      this.hashes = grown;
+    }
+    this.hashes[this.size++] = hashOf(name);
+  }
+
+  /**
+   * The entries (numbered in the order added) whose name an earlier entry has, in ascending
+   * order: with "R1 R1 R1", the second and the third. `nameAt(i)` is entry i's name.
+   */
+  find(nameAt: (i: number) => string): number[] {
+    const n = this.size;
+    let keys = this.hashes.slice(0, n);
+    let at = new Int32Array(n);
+    for (let i = 0; i < n; i++) at[i] = i;
+    // Least significant digit first, each pass stable: entries of one hash stay in the order added.
+    let keys2 = new Int32Array(n);
+    let at2 = new Int32Array(n);
+    const count = new Int32Array(2048);
+    for (let shift = 0; shift < 31; shift += 11) {
+      count.fill(0);
+      for (let i = 0; i < n; i++) count[(keys[i] >>> shift) & 2047]++;
+      for (let d = 0, sum = 0; d < 2048; d++) {
+        const c = count[d];
+        count[d] = sum;
+        sum += c;
+      }
+      for (let i = 0; i < n; i++) {
+        const to = count[(keys[i] >>> shift) & 2047]++;
+        keys2[to] = keys[i];
+        at2[to] = at[i];
+      }
+      [keys, keys2] = [keys2, keys];
+      [at, at2] = [at2, at];
+    }
+    const out: number[] = [];
+    for (let a = 0; a < n; ) {
+      let b = a + 1;
+      while (b < n && keys[b] === keys[a]) b++;
+      if (b - a > 1) repeatsAmong(at, a, b, nameAt, out);
+      a = b;
+    }
+    // Runs of different hashes interleave in the list: back into list order.
+    return out.length > 1 ? out.sort((x, y) => x - y) : out;
+  }
+}
+
+/** Entries at[a ..< b] share a hash and come in list order: those whose name came before go to out. */
+function repeatsAmong(at: Int32Array, a: number, b: number, nameAt: (i: number) => string, out: number[]): void {
+  if (b - a <= 8) {
+    for (let j = a + 1; j < b; j++) {
+      const name = nameAt(at[j]);
+      for (let k = a; k < j; k++) {
+        if (nameAt(at[k]) === name) {
+          out.push(at[j]);
+          break;
+        }
+      }
+    }
+    return;
+  }
+  // Many entries on one hash (a name written many times over): a set keeps this linear.
+  const seen = new Set<string>();
+  for (let j = a; j < b; j++) {
+    const name = nameAt(at[j]);
+    if (seen.has(name)) out.push(at[j]);
+    else seen.add(name);
+  }
+}
+
 /** FNV-1a over the UTF-16 code units, with a final mix so short names spread over the low bits. */
 function hashOf(name: string): number {
   let h = 0x811c9dc5 | 0;

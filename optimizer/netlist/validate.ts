@@ -6,7 +6,7 @@ import type { Diagnostic } from '../errors';
 import { GROUND, type Cell, type Design } from './ir';
 import { solveRails, type RailSource } from './rails';
 import { NetUse } from './net-use';
-import { NameTable } from './name-table';
+import { Repeats } from './name-table';
 
 export interface ValidateOptions {
   /** What the format calls a cell: "subcircuit" (SPICE) or "module" (Verilog). */
@@ -18,6 +18,13 @@ export interface ValidateOptions {
    * the cells' final ports, devices and instances); cells without one are counted here.
    */
   netUse?: ReadonlyMap<Cell, NetUse>;
+  /**
+   * The repeated device and instance names per cell that the reader found while building the
+   * cells, as this check reports them (devices' repeats, then instances'; one table for both, so
+   * a reader whose device and instance names can coincide must find those too); cells without an
+   * entry are checked here.
+   */
+  repeatedNames?: ReadonlyMap<Cell, readonly Diagnostic[]>;
 }
 
 const NEEDS_MODEL = new Set(['npn', 'pnp', 'nmos', 'pmos', 'diode']);
@@ -32,7 +39,7 @@ export function validateDesign(design: Design, opts: ValidateOptions = {}): Diag
     out.push({ severity: 'error', code: 'netlist.no-top', message: `top ${noun} ${design.top} is not defined` });
   }
   for (const cell of Object.values(design.cells)) {
-    checkNames(cell, out);
+    checkNames(cell, out, opts.repeatedNames?.get(cell));
     for (const inst of cell.instances) {
       const child = own(design.cells, inst.cell);
       if (!child) {
@@ -61,20 +68,22 @@ export function validateDesign(design: Design, opts: ValidateOptions = {}): Diag
   return out;
 }
 
-function checkNames(cell: Cell, out: Diagnostic[]): void {
-  const seen = new NameTable(cell.devices.length + cell.instances.length);
-  // Exact comparison: deck readers have already upper-cased names, and Verilog names are case-sensitive.
-  // One table operation per name (a repeat leaves the size unchanged): large flat cells have
-  // millions of names, and a typed-array table probes far faster than a Set of that size.
-  const check = (x: { name: string; loc?: Diagnostic['loc'] }) => {
-    const before = seen.size;
-    seen.add(x.name);
-    if (seen.size === before) {
+/** @param repeats the cell's repeated names as its reader found them, when it did */
+function checkNames(cell: Cell, out: Diagnostic[], repeats?: readonly Diagnostic[]): void {
+  if (repeats !== undefined) for (const d of repeats) out.push(d);
+  else {
+    // Exact comparison: deck readers have already upper-cased names, and Verilog names are case-sensitive.
+    // Devices and instances share one name space; large flat cells have millions of names.
+    const { devices, instances } = cell;
+    const seen = new Repeats(devices.length + instances.length);
+    for (const d of devices) seen.add(d.name);
+    for (const i of instances) seen.add(i.name);
+    const entry = (k: number) => (k < devices.length ? devices[k] : instances[k - devices.length]);
+    for (const k of seen.find((k) => entry(k).name)) {
+      const x = entry(k);
       out.push({ severity: 'error', code: 'netlist.duplicate-name', message: `duplicate name ${x.name} in ${cell.name}`, loc: x.loc });
     }
-  };
-  for (const d of cell.devices) check(d);
-  for (const i of cell.instances) check(i);
+  }
   const ports = new Set<string>();
   for (const p of cell.ports) {
     if (ports.has(p)) out.push({ severity: 'error', code: 'netlist.duplicate-port', message: `port ${p} is listed twice in ${cell.name}`, loc: cell.loc });

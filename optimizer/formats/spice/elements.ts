@@ -5,28 +5,36 @@ import type { Cell, Device, DeviceKind, Model, ParamValue, SourceLoc } from '../
 import type { Card, Token } from './lines';
 import { NetUse } from '../../netlist/net-use';
 import { NumberingRecorder } from '../../netlist/read-numbering';
+import { Repeats } from '../../netlist/name-table';
 import { netName, numericValue, upper, valueOrText } from './values';
+
+/** What the reader gathers about one cell while reading its elements, for validation and flatten. */
+export interface CellReading {
+  /**
+   * The cell's nets, each name kept once (a large deck names the same nets on millions of cards:
+   * one shared string per net keeps the design small and lets the rest die young), with how many
+   * terminals touch each: validation reads these counts.
+   */
+  use: NetUse;
+  /** The net numbers of the cell's terminals, element by element, for flatten (read-numbering.ts). */
+  numbering: NumberingRecorder;
+  /**
+   * The names of the cell's devices and of its instances, each added as its element is kept
+   * (while the name is fresh in memory), for finding repeats once the deck is read.
+   */
+  deviceNames: Repeats;
+  instanceNames: Repeats;
+}
 
 export interface ElementContext {
   models: Record<string, Model>;
   params: Record<string, number>;
   report: (severity: Diagnostic['severity'], code: string, message: string, loc?: SourceLoc) => void;
   at: (t: { line: number; col: number }) => SourceLoc;
-  /**
-   * Nets of each cell met so far, each name kept once (a large deck names the same nets on
-   * millions of cards: one shared string per net keeps the design small and lets the rest die
-   * young), with how many terminals touch each: validation reads these counts (NetUse).
-   */
-  uses: Map<Cell, NetUse>;
-  /**
-   * The net numbers of each cell's terminals, element by element: flatten takes them instead of
-   * numbering every terminal again (read-numbering.ts).
-   */
-  numbering: Map<Cell, NumberingRecorder>;
-  /** The cell the last card was read into, its NetUse and its recorder. */
+  /** What has been gathered about each cell so far, and the cell the last card was read into. */
+  cells: Map<Cell, CellReading>;
   cell?: Cell;
-  use?: NetUse;
-  recorder?: NumberingRecorder;
+  reading?: CellReading;
   /** Net indices the card being read has named so far; counted once its element is kept. */
   pending: number[];
   /** The last model token looked up and its model: consecutive cards mostly name the same one. */
@@ -46,20 +54,24 @@ function modelOf(t: Token | undefined, ctx: ElementContext): Model | undefined {
 /** The net a node token names (netName's rules), as the one shared string for that net in its cell. */
 function net(t: Token, ctx: ElementContext): string {
   const n = netName(t.text);
-  const i = ctx.use!.add(n);
+  const use = ctx.reading!.use;
+  const i = use.add(n);
   ctx.pending.push(i);
-  return ctx.use!.names[i];
+  return use.names[i];
 }
 
 /**
- * Counts the nets the current card named and records their numbers: called just before its
- * element joins the cell's devices (or, with `instance`, its instances).
+ * Counts the nets the current card named, records their numbers and the element's name: called
+ * just before the element joins the cell's devices (or, with `instance`, its instances).
  */
-function keep(ctx: ElementContext, instance = false): void {
-  const counts = ctx.use!.counts;
+function keep(ctx: ElementContext, name: string, instance = false): void {
+  const r = ctx.reading!;
+  const counts = r.use.counts;
   for (const i of ctx.pending) counts[i]++;
-  if (instance) ctx.recorder!.instance(ctx.pending);
-  else ctx.recorder!.device(ctx.pending);
+  if (instance) r.instanceNames.add(name);
+  else r.deviceNames.add(name);
+  if (instance) r.numbering.instance(ctx.pending);
+  else r.numbering.device(ctx.pending);
   ctx.pending.length = 0;
 }
 
@@ -154,19 +166,13 @@ function value(t: Token, ctx: ElementContext, what: string): number | undefined 
 
 export function readElement(card: Card, cell: Cell, ctx: ElementContext): void {
   if (ctx.cell !== cell) {
-    let use = ctx.uses.get(cell);
-    if (use === undefined) {
-      use = new NetUse(cell.ports);
-      ctx.uses.set(cell, use);
-    }
-    let recorder = ctx.numbering.get(cell);
-    if (recorder === undefined) {
-      recorder = new NumberingRecorder();
-      ctx.numbering.set(cell, recorder);
+    let reading = ctx.cells.get(cell);
+    if (reading === undefined) {
+      reading = { use: new NetUse(cell.ports), numbering: new NumberingRecorder(), deviceNames: new Repeats(), instanceNames: new Repeats() };
+      ctx.cells.set(cell, reading);
     }
     ctx.cell = cell;
-    ctx.use = use;
-    ctx.recorder = recorder;
+    ctx.reading = reading;
   }
   ctx.pending.length = 0;
   const first = card.tokens[0];
@@ -224,7 +230,7 @@ function passive(card: Card, cell: Cell, ctx: ElementContext, name: string, kind
     return;
   }
   const terminals = [net(p[0], ctx), net(p[1], ctx)];
-  keep(ctx);
+  keep(ctx, name);
   cell.devices.push({ name, kind, terminals, value: v, params, loc });
 }
 
@@ -277,7 +283,7 @@ function semiconductor(card: Card, cell: Cell, ctx: ElementContext, name: string
   // literals, not new Array(n): packed lists, one allocation site the engine can keep long-lived
   const terminals = nodes === 3 ? [net(p[0], ctx), net(p[1], ctx), net(p[2], ctx)] : nodes === 4 ? [net(p[0], ctx), net(p[1], ctx), net(p[2], ctx), net(p[3], ctx)] : [net(p[0], ctx), net(p[1], ctx)];
   const device: Device = { name, kind, terminals, model: model.name, params, loc };
-  keep(ctx);
+  keep(ctx, name);
   cell.devices.push(device);
 }
 
@@ -344,7 +350,7 @@ function source(card: Card, cell: Cell, ctx: ElementContext, name: string, kind:
   if (dc !== undefined) device.value = dc;
   if (waveform !== undefined) device.waveform = waveform;
   if (dc === undefined && waveform === undefined && params.AC === undefined) device.value = 0;
-  keep(ctx);
+  keep(ctx, name);
   cell.devices.push(device);
 }
 
@@ -362,6 +368,6 @@ function instance(card: Card, cell: Cell, ctx: ElementContext, name: string, loc
   }
   const sub = p[p.length - 1].text.toUpperCase();
   const connections = p.slice(0, -1).map((t) => net(t, ctx));
-  keep(ctx, true);
+  keep(ctx, name, true);
   cell.instances.push({ name, cell: sub, connections, params: {}, loc });
 }

@@ -185,6 +185,45 @@ describe('terminal counts gathered while reading', () => {
     expect(warnings).toEqual(fresh);
   });
 
+  it('finds repeated device and instance names as it reads, as validation reports them', () => {
+    const text = [
+      't',
+      '.subckt A x',
+      'R1 x 0 1',
+      'X1 x B',
+      'R1 x 0 2',
+      'X1 x B',
+      'R1 x 0 3',
+      '.ends',
+      '.subckt B y',
+      'R1 y 0 1',
+      '.ends',
+      'R1 a 0 1',
+      'X1 a A',
+      'V1 a 0 bogus',
+      'V1 a 0 5',
+      'r1 a 0 1',
+      'X1 a A',
+    ].join('\n');
+    const e = (() => {
+      try {
+        readSpice(text, 'd.cir');
+      } catch (err) {
+        return err as InputError;
+      }
+    })();
+    expect(e).toBeInstanceOf(InputError);
+    // the refused V1 joins no cell, so the V1 after it is no repeat; a third R1 repeats the first
+    expect(e!.diagnostics.filter((d) => d.severity === 'error').map(formatDiagnostic)).toEqual([
+      'd.cir:5:1: duplicate name R1 in A',
+      'd.cir:6:1: duplicate name X1 in A',
+      'd.cir:7:1: duplicate name R1 in A',
+      "d.cir:14:8: V1: expected DC value, AC, or a waveform (PULSE PWL SIN EXP SFFM AM TRNOISE TRRANDOM), found 'bogus'",
+      'd.cir:16:1: duplicate name R1 in (top)',
+      'd.cir:17:1: duplicate name X1 in (top)',
+    ]);
+  });
+
   it('does not count the nets of a card that was refused', () => {
     // V1's nets are named before its bad value is found; b must still be a single-terminal net
     const e = (() => {

@@ -5,6 +5,7 @@ import { InputError, type Diagnostic } from '../../errors';
 import { GROUND, type Cell, type Design, type Model, type SourceLoc } from '../../netlist/ir';
 import { validateDesign } from '../../netlist/validate';
 import type { NetUse } from '../../netlist/net-use';
+import type { Repeats } from '../../netlist/name-table';
 import { forEachCard, type Card, type Token, type TokenizeProblem } from './lines';
 import { netName, numericValue, valueOrText } from './values';
 import { readElement, type ElementContext } from './elements';
@@ -42,9 +43,9 @@ export function readSpice(text: string, file: string): ReadResult {
   };
   const at = (t: { line: number; col: number }): SourceLoc => ({ file, line: t.line, col: t.col });
   try {
-    const { design, netUse } = read(text, file, report, at);
+    const { design, netUse, repeatedNames } = read(text, file, report, at);
     // Structural checks run even after card errors so one upload reports every problem at once.
-    for (const d of validateDesign(design, { cellNoun: 'subcircuit', netUse })) report(d.severity, d.code, d.message, d.loc);
+    for (const d of validateDesign(design, { cellNoun: 'subcircuit', netUse, repeatedNames })) report(d.severity, d.code, d.message, d.loc);
     if (errors > 0) throw new InputError(sortDiagnostics(diags));
     return { design, diagnostics: sortDiagnostics(diags) };
   } catch (e) {
@@ -59,7 +60,14 @@ function sortDiagnostics(d: Diagnostic[]): Diagnostic[] {
 
 type Report = (severity: Diagnostic['severity'], code: string, message: string, loc?: SourceLoc) => void;
 
-function read(text: string, file: string, report: Report, at: (t: { line: number; col: number }) => SourceLoc): { design: Design; netUse: Map<Cell, NetUse> } {
+interface Read {
+  design: Design;
+  /** What validation would otherwise gather by walking every cell again (ValidateOptions). */
+  netUse: Map<Cell, NetUse>;
+  repeatedNames: Map<Cell, Diagnostic[]>;
+}
+
+function read(text: string, file: string, report: Report, at: (t: { line: number; col: number }) => SourceLoc): Read {
   const firstBreak = text.indexOf('\n');
   const title = (firstBreak < 0 ? text : text.slice(0, firstBreak)).replace(/\r$/, '').trim();
   if (text.trim() === '') report('error', 'spice.empty', 'the deck is empty (its first line is the title)', { file, line: 1, col: 1 });
@@ -98,7 +106,7 @@ function read(text: string, file: string, report: Report, at: (t: { line: number
   let current = top;
   let ended2 = false;
   let endLine = 0;
-  const ctx: ElementContext = { models, params, report, at, uses: new Map(), numbering: new Map(), pending: [] };
+  const ctx: ElementContext = { models, params, report, at, cells: new Map(), pending: [] };
   forEachCard(
     text,
     {
@@ -169,9 +177,24 @@ function read(text: string, file: string, report: Report, at: (t: { line: number
   if (current !== top) {
     report('error', 'spice.unterminated-subckt', `.subckt ${current.name} has no .ends`, current.loc);
   }
-  // Each cell's net numbering stays beside it for flatten (only the table's names are kept).
-  for (const [cell, recorder] of ctx.numbering) recorder.keep(cell, ctx.uses.get(cell)!.names);
-  return { design: { title, format: 'spice', top: SPICE_TOP, cells, models, globals, params, extraCards }, netUse: ctx.uses };
+  const netUse = new Map<Cell, NetUse>();
+  const repeatedNames = new Map<Cell, Diagnostic[]>();
+  for (const [cell, r] of ctx.cells) {
+    netUse.set(cell, r.use);
+    repeatedNames.set(cell, [...repeatsOf(cell, cell.devices, r.deviceNames), ...repeatsOf(cell, cell.instances, r.instanceNames)]);
+    // The net numbering stays beside the cell for flatten (of the net table, only its names).
+    r.numbering.keep(cell, r.use.names);
+  }
+  return { design: { title, format: 'spice', top: SPICE_TOP, cells, models, globals, params, extraCards }, netUse, repeatedNames };
+}
+
+/**
+ * The repeated names among a cell's devices (or instances), as validation words them. Device and
+ * instance names are checked apart, which finds what one check over both would: an instance's
+ * name starts with X and a device's never does.
+ */
+function repeatsOf(cell: Cell, list: readonly { name: string; loc?: SourceLoc }[], names: Repeats): Diagnostic[] {
+  return names.find((i) => list[i].name).map((i) => ({ severity: 'error', code: 'netlist.duplicate-name', message: `duplicate name ${list[i].name} in ${cell.name}`, loc: list[i].loc }));
 }
 
 function readSubcktHeader(card: Card, cells: Record<string, Cell>, report: Report, at: (t: Token) => SourceLoc): Cell | null {
