@@ -2,22 +2,22 @@
 // arrays: the readers and flatten number hundreds of thousands of net names, where a Map's probes
 // and per-entry objects cost several times more than hashing the few characters of a name.
 
-const EMPTY = -1;
-
 export class NameTable {
   /** Names by number, in first-seen order (the first string met for each name). */
   readonly names: string[] = [];
-  /** Hash of each name, by number (kept so growing the table never hashes a name again). */
-  private hashes: Int32Array;
-  /** Slots: a name's number, or EMPTY. Size is a power of two, at most half full. */
+  /**
+   * Slots in pairs: a name's hash, then its number + 1 (0: empty). The hash beside the number lets
+   * a probe settle on one read of the table, where a separate list of hashes cost a second read
+   * elsewhere in memory; growing rehashes from the slots alone. A power of two of pairs, at most
+   * half of them used.
+   */
   private slots: Int32Array;
 
   /** @param expected names the table will likely hold (sizes it once instead of growing step by step) */
   constructor(expected = 64) {
-    let slots = 128;
-    while (slots < expected * 2) slots *= 2;
-    this.hashes = new Int32Array(slots / 2);
-    this.slots = new Int32Array(slots).fill(EMPTY);
+    let pairs = 128;
+    while (pairs < expected * 2) pairs *= 2;
+    this.slots = new Int32Array(pairs * 2);
   }
 
   get size(): number {
@@ -27,11 +27,12 @@ export class NameTable {
   /** The name's number, or -1 when it has not been added. */
   get(name: string): number {
     const h = hashOf(name);
-    const mask = this.slots.length - 1;
+    const slots = this.slots;
+    const mask = (slots.length >> 1) - 1;
     for (let s = h & mask; ; s = (s + 1) & mask) {
-      const id = this.slots[s];
-      if (id === EMPTY) return -1;
-      if (this.hashes[id] === h && this.names[id] === name) return id;
+      const id = slots[2 * s + 1] - 1;
+      if (id < 0) return -1;
+      if (slots[2 * s] === h && this.names[id] === name) return id;
     }
   }
 
@@ -39,34 +40,31 @@ export class NameTable {
   add(name: string): number {
     const h = hashOf(name);
     const slots = this.slots;
-    const mask = slots.length - 1;
+    const mask = (slots.length >> 1) - 1;
     let s = h & mask;
     for (; ; s = (s + 1) & mask) {
-      const id = slots[s];
-      if (id === EMPTY) break;
-      if (this.hashes[id] === h && this.names[id] === name) return id;
+      const id = slots[2 * s + 1] - 1;
+      if (id < 0) break;
+      if (slots[2 * s] === h && this.names[id] === name) return id;
     }
     const id = this.names.length;
     this.names.push(name);
-    if (id === this.hashes.length) {
-      const grown = new Int32Array(id * 2);
-      grown.set(this.hashes);
-      this.hashes = grown;
-    }
-    this.hashes[id] = h;
-    slots[s] = id;
-    if ((id + 1) * 2 > slots.length) this.grow();
+    slots[2 * s] = h;
+    slots[2 * s + 1] = id + 1;
+    if ((id + 1) * 2 > mask + 1) this.grow();
     return id;
   }
 
   private grow(): void {
-    const slots = new Int32Array(this.slots.length * 2).fill(EMPTY);
-    const mask = slots.length - 1;
-    const n = this.names.length;
-    for (let id = 0; id < n; id++) {
-      let s = this.hashes[id] & mask;
-      while (slots[s] !== EMPTY) s = (s + 1) & mask;
-      slots[s] = id;
+    const old = this.slots;
+    const slots = new Int32Array(old.length * 2);
+    const mask = (slots.length >> 1) - 1;
+    for (let o = 0; o < old.length; o += 2) {
+      if (old[o + 1] === 0) continue;
+      let s = old[o] & mask;
+      while (slots[2 * s + 1] !== 0) s = (s + 1) & mask;
+      slots[2 * s] = old[o];
+      slots[2 * s + 1] = old[o + 1];
     }
     this.slots = slots;
   }
