@@ -1,5 +1,6 @@
 // Proves the Espresso bridge gives covers that equal the function on its care set, reaches the
 // worked examples' minimal counts, never beats the exact minimiser, and survives a misbehaving child.
+import { existsSync, readdirSync, readlinkSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import path from 'node:path';
 import { afterAll, describe, expect, it } from 'vitest';
@@ -142,6 +143,31 @@ describe('isolation of the native minimiser', () => {
     } finally {
       m.close();
     }
+  });
+
+  it('hands Espresso its PLA through a file nothing else can see, and leaves none behind when killed', async () => {
+    const leftovers = () => (existsSync('/dev/shm') ? readdirSync('/dev/shm').filter((f) => f.startsWith('trimwire-espresso-')) : []);
+    const before = leftovers();
+    const m = createEspressoMinimiser({ size: 1 });
+    try {
+      const r = await m.minimiseCover(fromMinterms(['a', 'b', 'c'], [{ name: 'F', on: [3, 5, 6, 7] }]));
+      expect(coverToText(r.cover.outputs[0].cover, ['a', 'b', 'c']).split(' + ').sort()).toEqual(['ab', 'ac', 'bc']);
+      // The child holds its file open but unlinked it at once, so even while it runs no name is left.
+      const [pid] = m.pool.childPids;
+      const held = readdirSync(`/proc/${pid}/fd`).map((fd) => {
+        try {
+          return readlinkSync(`/proc/${pid}/fd/${fd}`);
+        } catch {
+          return '';
+        }
+      });
+      // Where there is no /dev/shm the child falls back to the package's own call (and holds none).
+      expect(held.filter((link) => /^\/dev\/shm\/trimwire-espresso-.*\(deleted\)$/.test(link))).toHaveLength(existsSync('/dev/shm') ? 1 : 0);
+      expect(leftovers()).toEqual(before);
+    } finally {
+      m.close(); // SIGKILL: the child gets no chance to tidy up
+    }
+    expect(leftovers()).toEqual(before);
   });
 
   it('does not believe a wrong cover: exact fallback for small functions, an error beyond', async () => {

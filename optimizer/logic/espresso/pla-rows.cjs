@@ -81,14 +81,12 @@ function writeRows(buf, at, words, n, mark) {
 }
 
 /**
- * Type-fd PLA text (lines joined by "\n", ".e" last) of a table payload { n, on, dc } (words as
- * little-endian bytes or base64 text, or a Uint32Array). Throws on anything but a well-formed
- * table with at least one on-set minterm and no minterm both on and don't-care, so the native
- * code only sees text written here.
- * One string, not a line per row: the native bridge copies and writes each array element
- * separately, and the file it reads back is the same either way.
+ * Type-fd PLA (lines joined by "\n", ".e" last) of a table payload { n, on, dc } (words as
+ * little-endian bytes or base64 text, or a Uint32Array), as Latin-1 bytes. Throws on anything but
+ * a well-formed table with at least one on-set minterm and no minterm both on and don't-care, so
+ * the native code only sees text written here.
  */
-function tableText(p) {
+function tableBytes(p) {
   if (!p || typeof p !== 'object') throw new Error('a table payload must be an object');
   const n = p.n;
   if (!Number.isInteger(n) || n < 1 || n > MAX_INPUTS) throw new Error(`.i ${n} is outside 1..${MAX_INPUTS}`);
@@ -107,7 +105,16 @@ function tableText(p) {
   at = writeRows(buf, at, dc, n, 45); // '-'
   buf[at++] = 46; // ".e"
   buf[at++] = 101;
-  return buf.latin1Slice(0, at);
+  return buf.subarray(0, at);
+}
+
+/**
+ * The same PLA as one string. One string, not a line per row: the native bridge copies and
+ * writes each array element separately, and the file it reads back is the same either way.
+ */
+function tableText(p) {
+  const bytes = tableBytes(p);
+  return bytes.latin1Slice(0, bytes.length);
 }
 
 /** The same PLA as lines. */
@@ -115,4 +122,4 @@ function tableLines(p) {
   return tableText(p).split('\n');
 }
 
-module.exports = { tableText, tableLines, MAX_INPUTS };
+module.exports = { tableBytes, tableText, tableLines, MAX_INPUTS };

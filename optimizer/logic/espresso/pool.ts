@@ -154,6 +154,11 @@ export class EspressoPool {
     return this.slots.size;
   }
 
+  /** Process ids of the live children (tests look at what they hold open). */
+  get childPids(): number[] {
+    return [...this.slots].map((s) => s.proc.pid).filter((pid): pid is number => pid !== undefined);
+  }
+
   /** Contiguous shares of a batch, one per child the pool may run, balanced by their rough work. */
   private split(batch: PlaItem[]): number[][] {
     const parts = Math.min(this.size, batch.length);
