@@ -17,6 +17,7 @@ import {
 import { nodePullUp, withNodePullUp } from './node-pull-ups';
 import { eachDiodeTap, isBleed } from './diode-taps';
 import { fit } from './fit';
+import { empty } from '../netlist/empty';
 
 // Shared empty lists for the common (non-DTL) base drive: most transistors have none of these.
 const NONE: number[] = Object.freeze([]) as unknown as number[];
@@ -156,15 +157,15 @@ export class BaseResolver {
     const cx = this.cx;
     const base = cx.nl.devices[transistor].terminals[B];
     // The lists are gathered in shared scratch arrays; drive() keeps exact-size copies.
-    scratchInputs.length = 0;
-    scratchResistors.length = 0;
-    scratchDevices.length = 0;
+    empty(scratchInputs);
+    empty(scratchResistors);
+    empty(scratchDevices);
     if (isRail(cx, base)) {
       drive.on = { op: 'const', value: isHighRail(cx, base) ? 1 : 0 };
       return drive;
     }
     const terms = scratchTerms;
-    terms.length = 0;
+    empty(terms);
     let direct = false;
     let diodeAnd = false;
     // a plain loop over the terminal index: a closure here would be allocated per transistor
@@ -482,7 +483,7 @@ const scratchDrives: BaseDrive[] = [];
 const samePath = (p: string[], q: string[]): boolean => p === q || (p.length === q.length && p.every((x, i) => x === q[i]));
 
 function collectorNode(cx: ExtractContext, bases: BaseResolver, net: number, dedup: DeviceSet): LogicNode | undefined {
-  scratchUsed.length = 0;
+  empty(scratchUsed);
   const pd = pullDownNetwork(cx, bases, net, 0, scratchUsed);
   if (!pd) return undefined;
   const pullUps = resistorPullUps(cx, net);
@@ -512,7 +513,7 @@ function collectorNode(cx: ExtractContext, bases: BaseResolver, net: number, ded
     const brs = entry.brs;
     const network: SwitchNetwork = brs.length === 1 ? brs[0] : brs === branches ? pd : { type: 'parallel', parts: brs };
     const switches = switchesOf(network);
-    scratchDrives.length = 0;
+    empty(scratchDrives);
     for (const sw of switches) scratchDrives.push(bases.drive(sw));
     const baseDrives = fit(scratchDrives);
     // a load belongs to the group of its own instance (paths compared as their dotted names)
@@ -520,7 +521,7 @@ function collectorNode(cx: ExtractContext, bases: BaseResolver, net: number, ded
     let dtl = false;
     // gathered in a scratch list, kept as an exact-size copy
     const groupDevices = scratchGroup;
-    groupDevices.length = 0;
+    empty(groupDevices);
     for (const d of switches) groupDevices.push(d);
     for (const b of baseDrives) {
       if (b.kind === 'diode-and') dtl = true;
@@ -558,7 +559,7 @@ function collectorNode(cx: ExtractContext, bases: BaseResolver, net: number, ded
     });
   }
   const devices = scratchNode;
-  devices.length = 0;
+  empty(devices);
   dedup.begin();
   for (const g of groups) for (const d of g.devices) dedup.add(devices, d);
   for (const u of pullUps) dedup.add(devices, u.device);

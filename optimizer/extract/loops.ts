@@ -16,7 +16,9 @@ export function successors(nodes: LogicNode[], nodeOf: (name: string) => number,
   const succ: number[][] = new Array(nodes.length);
   for (let i = 0; i < nodes.length; i++) {
     const list: number[] = [];
-    for (const nm of nodes[i].inputs) {
+    const inputs = nodes[i].inputs;
+    for (let k = 0; k < inputs.length; k++) {
+      const nm = inputs[k];
       const x = nodeOf(nm);
       if (x >= 0) list.push(x);
       else notNodes?.(nm);
@@ -35,31 +37,46 @@ export function markLoops(nodes: LogicNode[], succ: number[][]): Diagnostic[] {
   const stack: number[] = [];
   const diags: Diagnostic[] = [];
   let counter = 0;
-  const work: [number, number][] = [];
+  // The walk's frames as two parallel lists (vertex, next successor) and a one-node component
+  // without a list of its own: a million nodes, nearly all alone in their component, would
+  // otherwise leave a pair and a list each behind as garbage.
+  const workV: number[] = [];
+  const workI: number[] = [];
   for (let root = 0; root < n; root++) {
     if (index[root] >= 0) continue;
-    work.push([root, 0]);
-    while (work.length) {
-      const top = work[work.length - 1];
-      const [vtx, i] = top;
+    workV.push(root);
+    workI.push(0);
+    while (workV.length) {
+      const t = workV.length - 1;
+      const vtx = workV[t];
+      const i = workI[t];
       if (i === 0) {
         index[vtx] = low[vtx] = counter++;
         stack.push(vtx);
         onStack[vtx] = 1;
       }
       if (i < succ[vtx].length) {
-        top[1]++;
+        workI[t] = i + 1;
         const w = succ[vtx][i];
-        if (index[w] < 0) work.push([w, 0]);
-        else if (onStack[w]) low[vtx] = Math.min(low[vtx], index[w]);
+        if (index[w] < 0) {
+          workV.push(w);
+          workI.push(0);
+        } else if (onStack[w]) low[vtx] = Math.min(low[vtx], index[w]);
         continue;
       }
-      work.pop();
-      if (work.length) {
-        const parent = work[work.length - 1][0];
+      workV.pop();
+      workI.pop();
+      if (workV.length) {
+        const parent = workV[workV.length - 1];
         low[parent] = Math.min(low[parent], low[vtx]);
       }
       if (low[vtx] === index[vtx]) {
+        if (stack[stack.length - 1] === vtx) {
+          stack.pop();
+          onStack[vtx] = 0;
+          classifyAlone(nodes, vtx, succ, diags);
+          continue;
+        }
         const comp: number[] = [];
         let w: number;
         do {
@@ -74,15 +91,16 @@ export function markLoops(nodes: LogicNode[], succ: number[][]): Diagnostic[] {
   return diags;
 }
 
-function classify(nodes: LogicNode[], comp: number[], succ: number[][], diags: Diagnostic[]): void {
-  if (comp.length === 1) {
-    const only = comp[0];
-    if (succ[only].includes(only) && nodes[only].kind !== 'latch') {
-      nodes[only].kind = 'latch';
-      diags.push({ severity: 'warning', code: 'extract.loop', message: `net ${nodes[only].name} feeds back to itself; treated as a stored state bit` });
-    }
-    return;
+/** A component of one node: a latch only when the node feeds itself. */
+function classifyAlone(nodes: LogicNode[], only: number, succ: number[][], diags: Diagnostic[]): void {
+  if (succ[only].includes(only) && nodes[only].kind !== 'latch') {
+    nodes[only].kind = 'latch';
+    diags.push({ severity: 'warning', code: 'extract.loop', message: `net ${nodes[only].name} feeds back to itself; treated as a stored state bit` });
   }
+}
+
+function classify(nodes: LogicNode[], comp: number[], succ: number[][], diags: Diagnostic[]): void {
+  if (comp.length === 1) return classifyAlone(nodes, comp[0], succ, diags);
   if (comp.length === 2 && comp.every((i) => isInverting(nodes[i]))) {
     const [a, b] = comp;
     nodes[a].kind = 'latch';

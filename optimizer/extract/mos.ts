@@ -84,7 +84,10 @@ export function extractMos(cx: ExtractContext, driven: Set<number>, isControlRea
   if (mosDevs.length === 0) return [];
   const portSet = new Set(nl.ports);
   const hasStimulus = new Uint8Array(nNets);
-  for (const d of nl.devices) if ((d.kind === 'vsource' || d.kind === 'isource') && !isRail(cx, d.terminals[0])) hasStimulus[d.terminals[0]] = 1;
+  for (let k = 0; k < nl.devices.length; k++) {
+    const d = nl.devices[k];
+    if ((d.kind === 'vsource' || d.kind === 'isource') && !isRail(cx, d.terminals[0])) hasStimulus[d.terminals[0]] = 1;
+  }
   const resistorLoad = (net: number): PullUp[] => {
     const out: PullUp[] = [];
     eachTerminal(cx, net, (di, t) => {

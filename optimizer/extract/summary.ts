@@ -8,6 +8,7 @@ import { NameTable } from '../netlist/name-table';
 import { markLoops, successors } from './loops';
 import { fit } from './fit';
 import type { DesignFamily, Family, LogicNode, LogicView } from './types';
+import { empty } from '../netlist/empty';
 
 export interface NodeSummary {
   view: Pick<LogicView, 'nodeByNet' | 'inputs' | 'stateBits' | 'rails' | 'family' | 'familyCounts'>;
@@ -30,7 +31,7 @@ export function summariseNodes(nl: FlatNetlist, nodes: LogicNode[]): NodeSummary
     s.clear();
     support(n.fn, s);
     if (n.enable) support(n.enable, s);
-    list.length = 0;
+    empty(list);
     for (const x of s) list.push(x);
     n.inputs = fit(list);
     nodeOfName[names.add(n.name)] = i;
@@ -46,12 +47,13 @@ export function summariseNodes(nl: FlatNetlist, nodes: LogicNode[]): NodeSummary
   for (const r of nl.rails) inputs.delete(nl.nets[r.net].name);
 
   const familyCounts: Partial<Record<Family, number>> = {};
-  for (const n of nodes) familyCounts[n.family] = (familyCounts[n.family] ?? 0) + 1;
+  // indexed loops: a for-of loop run once over a million nodes makes an iterator result per node
+  for (let i = 0; i < nodes.length; i++) familyCounts[nodes[i].family] = (familyCounts[nodes[i].family] ?? 0) + 1;
   const fams = Object.keys(familyCounts) as Family[];
   const family: DesignFamily = fams.length === 0 ? 'none' : fams.length === 1 ? fams[0] : 'mixed';
   const rails = new Map<number, number>();
   for (const r of nl.rails) rails.set(r.net, r.volts);
   const stateBits: string[] = [];
-  for (const n of nodes) if (n.kind === 'latch') stateBits.push(n.name);
+  for (let i = 0; i < nodes.length; i++) if (nodes[i].kind === 'latch') stateBits.push(nodes[i].name);
   return { view: { nodeByNet, inputs: [...inputs].sort(), stateBits, rails, family, familyCounts }, loops };
 }

@@ -9,6 +9,7 @@ import { NameTable } from './name-table';
 import { readerNumbering, type CellNumbering, type IdSequence } from './read-numbering';
 import { withDefaults, type Limits } from './limits';
 import { solveRails, type RailSource } from './rails';
+import { empty } from './empty';
 
 /**
  * Voltage given to a Verilog supply1 net: gate-level designs carry no voltages, and rail analyses
@@ -107,7 +108,7 @@ export function flatten(design: Design, limits: Partial<Limits> = {}): FlatNetli
       const cc = compiledOf(child);
       const from = c.instConnStart[k];
       const portLen = c.instConnStart[k + 1] - from;
-      portScratch.length = 0;
+      empty(portScratch);
       for (let i = 0; i < portLen; i++) portScratch.push(ids[c.instConnIds[from + i]]);
       const prefix = f.prefix + inst.name + '.';
       frames.push({ cell: child, c: cc, prefix, path: [...f.path, inst.name], ids: bind(cc, prefix, portScratch, portLen) });
@@ -308,7 +309,9 @@ function fromReader(cell: Cell, given: CellNumbering): LocalNets | undefined {
 
 function rails(devices: FlatDevice[], nets: FlatNet[]): Rail[] {
   const sources: RailSource<number>[] = [];
-  for (const d of devices) {
+  // indexed: a for-of loop run once over millions makes an iterator result per device
+  for (let k = 0; k < devices.length; k++) {
+    const d = devices[k];
     if (d.kind === 'vsource' && d.value !== undefined && d.waveform === undefined) {
       sources.push({ name: d.name, plus: d.terminals[0], minus: d.terminals[1], volts: d.value, loc: d.loc });
     }

@@ -53,7 +53,10 @@ export function validateDesign(design: Design, opts: ValidateOptions = {}): Diag
         });
       }
     }
-    for (const d of cell.devices) {
+    // indexed loops over the devices: a for-of loop makes an iterator result per device until the
+    // engine optimises the function, and these run once over millions
+    for (let k = 0; k < cell.devices.length; k++) {
+      const d = cell.devices[k];
       if (d.model !== undefined && !modelNames.has(d.model.toUpperCase())) {
         out.push({ severity: 'error', code: 'netlist.unknown-model', message: `unknown model ${d.model} (used by ${d.name})`, loc: d.loc });
       } else if (d.model === undefined && opts.requireModels && NEEDS_MODEL.has(d.kind)) {
@@ -158,7 +161,8 @@ function recursion(design: Design, cellNames: Set<string>, noun: string): Diagno
 
 function topRails(top: Cell): Diagnostic[] {
   const sources: RailSource<string>[] = [];
-  for (const d of top.devices) {
+  for (let k = 0; k < top.devices.length; k++) {
+    const d = top.devices[k];
     if (d.kind === 'vsource' && d.value !== undefined && d.waveform === undefined) {
       sources.push({ name: d.name, plus: d.terminals[0], minus: d.terminals[1], volts: d.value, loc: d.loc });
     }

@@ -7,6 +7,7 @@ import { NetUse } from '../../netlist/net-use';
 import { NumberingRecorder } from '../../netlist/read-numbering';
 import { Repeats } from '../../netlist/name-table';
 import { netName, numericValue, upper, valueOrText } from './values';
+import { empty } from '../../netlist/empty';
 
 /** What the reader gathers about one cell while reading its elements, for validation and flatten. */
 export interface CellReading {
@@ -72,7 +73,7 @@ function keep(ctx: ElementContext, name: string, instance = false): void {
   else r.deviceNames.add(name);
   if (instance) r.numbering.instance(ctx.pending);
   else r.numbering.device(ctx.pending);
-  ctx.pending.length = 0;
+  empty(ctx.pending);
 }
 
 const WAVEFORMS = new Set(['PULSE', 'PWL', 'SIN', 'EXP', 'SFFM', 'AM', 'TRNOISE', 'TRRANDOM']);
@@ -117,8 +118,8 @@ const ARGS: Args = { positional: [], keyed: [], ok: true };
 function splitArgs(tokens: Token[], ctx: ElementContext): Args {
   const args = ARGS;
   const { positional, keyed } = args;
-  positional.length = 0;
-  keyed.length = 0;
+  empty(positional);
+  empty(keyed);
   args.ok = false;
   for (let i = 1; i < tokens.length; i++) {
     const t = tokens[i];
@@ -174,7 +175,7 @@ export function readElement(card: Card, cell: Cell, ctx: ElementContext): void {
     ctx.cell = cell;
     ctx.reading = reading;
   }
-  ctx.pending.length = 0;
+  empty(ctx.pending);
   const first = card.tokens[0];
   const name = upper(first.text);
   const letter = name[0];

@@ -1,6 +1,7 @@
 // Turns deck text into logical cards: comments removed, `+` continuations joined, tokens located
 // (line and column from 1). Separators are blanks and commas; `(` `)` `=` are tokens of their own;
 // `{…}` and `'…'` stay whole so parameter references keep their braces.
+import { empty } from '../../netlist/empty';
 
 export interface Token {
   text: string;
@@ -215,8 +216,8 @@ export function forEachCard(
       lineNo += after.lines;
       continue;
     }
-    card.tokens.length = 0;
-    card.spans.length = 0;
+    empty(card.tokens);
+    empty(card.spans);
     card.spans.push(lineStart, end);
     card.line = lineNo;
     card.col = at - lineStart + 1;

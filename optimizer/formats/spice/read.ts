@@ -9,6 +9,7 @@ import type { Repeats } from '../../netlist/name-table';
 import { forEachCard, type Card, type Token, type TokenizeProblem } from './lines';
 import { netName, numericValue, valueOrText } from './values';
 import { readElement, type ElementContext } from './elements';
+import { empty } from '../../netlist/empty';
 
 /** Name of the cell that holds a deck's top-level cards (parentheses cannot appear in deck names). */
 export const SPICE_TOP = '(top)';
@@ -74,7 +75,7 @@ function read(text: string, file: string, report: Report, at: (t: { line: number
   const problems: TokenizeProblem[] = [];
   const flushProblems = () => {
     for (const p of problems) report('error', 'spice.syntax', p.message, { file, line: p.line, col: p.col });
-    problems.length = 0;
+    empty(problems);
   };
 
   // Pass 1: models and parameters, which elements may use before the card that defines them.
