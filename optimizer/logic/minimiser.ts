@@ -30,6 +30,14 @@ export interface Minimiser {
    * them in one round trip). A failure fails its own function only.
    */
   minimiseMany?(fns: readonly TruthTable[], options?: MinimiseOptions): Promise<MinimiseOutcome[]>;
+  /**
+   * A minimiser of its own for one scan, whose answers depend only on the calls made through it;
+   * close it when the scan ends. A heuristic minimiser's cover can depend on what the same
+   * process minimised before (Espresso's does), so a scan served by a long-lived minimiser could
+   * report other savings for the same design depending on what ran before it. Absent when every
+   * answer depends on its function alone.
+   */
+  session?(): Minimiser & { close(): void };
 }
 
 /** Minimises every function, batched where the minimiser can batch, one by one where it cannot. */

@@ -80,6 +80,28 @@ describe('engine thread pool', () => {
     expect(new Set(r.devices.map((d) => d.name))).toEqual(touched);
   });
 
+  it('serves each scan from a minimiser session of its own, closed when the scan ends', async () => {
+    const sessions: (Minimiser & { calls: number; closed: boolean })[] = [];
+    const base: Minimiser = {
+      name: 'exact-sessions',
+      minimiseCover: () => Promise.reject(new Error('the base minimiser was called; each scan should use its own session')),
+      session: () => {
+        const s = Object.assign(counting(), { closed: false, close: () => void (s.closed = true) });
+        sessions.push(s);
+        return s;
+      },
+    };
+    const p = pool(base);
+    const first = result(await p.run(job({ rules: ['two-level-minimise'] }), () => undefined).outcome);
+    const second = result(await p.run(job({ rules: ['two-level-minimise'] }), () => undefined).outcome);
+    expect(first.ruleErrors).toEqual([]);
+    expect(second.findings).toEqual(first.findings);
+    expect(sessions).toHaveLength(2);
+    expect(sessions.map((s) => s.closed)).toEqual([true, true]);
+    expect(sessions[0].calls).toBeGreaterThan(0);
+    expect(sessions[1].calls).toBe(sessions[0].calls);
+  });
+
   it("passes the main thread's minimiser failures back as the same rule errors", async () => {
     const inProcess = await runEngineJob(job({ rules: ['two-level-minimise'] }), () => undefined, failing);
     const r = result(await pool(failing).run(job({ rules: ['two-level-minimise'] }), () => undefined).outcome);

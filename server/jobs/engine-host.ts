@@ -1,6 +1,7 @@
 // The main-thread side of the scans' engine threads: a small pool of worker threads, each with a
 // memory limit, that run one scan at a time. It passes each thread's stage reports on, answers its
-// minimise calls from the worker's Espresso pool, and turns every way a job can end — result,
+// minimise calls from a session of the worker's Espresso minimiser (one per scan, see
+// Minimiser.session), and turns every way a job can end — result,
 // engine error, crash, out of memory, stopped — into one outcome. A thread's failure never reaches
 // the worker process beyond that outcome; a stopped or dead thread is replaced by a fresh one.
 import path from 'node:path';
@@ -37,7 +38,12 @@ export type EngineRun = {
   stop: () => void;
 };
 
-type Job = { onStage: (name: string, progress: number, timings: Record<string, number>) => void; finish: (o: EngineOutcome, keepThread: boolean) => void };
+type Job = {
+  onStage: (name: string, progress: number, timings: Record<string, number>) => void;
+  finish: (o: EngineOutcome, keepThread: boolean) => void;
+  /** What serves this job's minimise calls: a session of the pool's minimiser where it has them. */
+  minimiser?: Minimiser;
+};
 
 class EngineThread {
   readonly worker: Worker;
@@ -60,12 +66,12 @@ class EngineThread {
           job?.onStage(m.name, m.progress, m.timings);
           break;
         case 'minimise':
-          if (!opts.minimiser) {
-            reply({ type: 'minimise-failed', id: m.id, error: { name: 'Error', message: 'no minimiser in this worker' } });
+          if (!job?.minimiser) {
+            reply({ type: 'minimise-failed', id: m.id, error: { name: 'Error', message: job ? 'no minimiser in this worker' : 'the scan has ended' } });
             break;
           }
           // Batched when the pool can batch, one by one otherwise; each function fails on its own.
-          minimiseAll(opts.minimiser, m.fns, m.options).then(
+          minimiseAll(job.minimiser, m.fns, m.options).then(
             (outcomes) => reply({ type: 'minimised', id: m.id, outcomes: outcomes.map((o) => (o.ok ? o : { ok: false, error: wireError(o.error) })) }),
             (err: unknown) => reply({ type: 'minimise-failed', id: m.id, error: wireError(err) }),
           );
@@ -131,7 +137,11 @@ export class EnginePool {
     let settle: (o: EngineOutcome) => void = () => undefined;
     const outcome = new Promise<EngineOutcome>((resolve) => (settle = resolve));
     let settled = false;
+    // Each scan gets a minimiser of its own (a fresh Espresso child, started on its first call), so
+    // its covers depend on its own calls only, not on the scans this worker served before.
+    const session = this.opts.minimiser?.session?.();
     const current: Job = {
+      minimiser: session ?? this.opts.minimiser,
       onStage: (name, progress, timings) => {
         if (!settled) onStage(name, progress, timings);
       },
@@ -139,6 +149,7 @@ export class EnginePool {
         if (settled) return;
         settled = true;
         thread.job = undefined;
+        session?.close();
         this.busy.delete(run);
         if (keepThread && !thread.dead) this.release(thread);
         else thread.end();

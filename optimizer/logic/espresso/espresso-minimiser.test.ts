@@ -7,7 +7,7 @@ import { afterAll, describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { coverLiterals, coverMismatch, coverToText } from '../cubes';
 import { exactMinimiser } from '../minimiser';
-import { fromMinterms } from '../truth-table';
+import { fromMinterms, type TruthTable } from '../truth-table';
 import { WORKED_EXAMPLES, parityTable } from '../worked-examples';
 import { createEspressoMinimiser } from './espresso-minimiser';
 import { buildPla, buildPlaText, plaProblem, plaTextProblem, tablePayload, type TablePayload } from './pla';
@@ -192,6 +192,42 @@ describe('isolation of the native minimiser', () => {
       expect(m.pool.spawned).toBeLessThanOrEqual(2);
     } finally {
       m.close();
+    }
+  });
+});
+
+describe('sessions', () => {
+  /** Two 8-input functions (seeded, each minterm on with probability 0.45). */
+  function seededTables(): TruthTable[] {
+    const names = ['a', 'b', 'c', 'd', 'e', 'f', 'g', 'h'];
+    let s = 7;
+    const rnd = () => ((s = (Math.imul(s, 1664525) + 1013904223) >>> 0) >>> 8) / 16777216;
+    return [0, 1].map(() => fromMinterms(names, [{ name: 'F', on: Array.from({ length: 256 }, (_, m) => m).filter(() => rnd() < 0.45) }]));
+  }
+  const text = (r: { cover: { inputs: string[]; outputs: { cover: Parameters<typeof coverToText>[0] }[] } }) => coverToText(r.cover.outputs[0].cover, r.cover.inputs);
+
+  it('answer from their own calls only, whatever the minimiser they came from has done', async () => {
+    const [first, second] = seededTables();
+    const base = createEspressoMinimiser({ size: 1 });
+    const inSession = async (fn: TruthTable) => {
+      const s = base.session();
+      try {
+        return text(await s.minimiseCover(fn));
+      } finally {
+        s.close();
+      }
+    };
+    try {
+      const alone = await inSession(second);
+      // Espresso's cover of a function depends on what its process minimised before: the same
+      // child, having minimised another function first, gives this one another cover.
+      await base.minimiseCover(first);
+      const afterAnother = text(await base.minimiseCover(second));
+      expect(afterAnother).not.toBe(alone);
+      expect(await inSession(second)).toBe(alone);
+      expect(base.pool.liveChildren).toBe(1);
+    } finally {
+      base.close();
     }
   });
 });

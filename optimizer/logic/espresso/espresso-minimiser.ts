@@ -17,6 +17,8 @@ export const EXACT_FALLBACK_INPUTS = 10;
 
 export interface EspressoMinimiser extends Minimiser {
   readonly pool: EspressoPool;
+  /** A minimiser with a pool and memory of its own, its children started afresh (see Minimiser.session). */
+  session(): EspressoMinimiser;
   minimiseMany(fns: readonly TruthTable[], options?: MinimiseOptions): Promise<MinimiseOutcome[]>;
   close(): void;
   /** Forgets remembered covers (benchmarks time fresh calls). */
@@ -66,7 +68,8 @@ interface Wanted {
 }
 
 export function createEspressoMinimiser(options: PoolOptions & { pool?: EspressoPool } = {}): EspressoMinimiser {
-  const pool = options.pool ?? new EspressoPool(options);
+  const { pool: given, ...poolOptions } = options;
+  const pool = given ?? new EspressoPool(poolOptions);
   const cache = new Map<string, Remembered>();
 
   /** A cover is believed only if it equals the output on the care set; else exact or an error. */
@@ -185,6 +188,7 @@ export function createEspressoMinimiser(options: PoolOptions & { pool?: Espresso
     pool,
     close: () => pool.close(),
     clearCache: () => cache.clear(),
+    session: () => createEspressoMinimiser(poolOptions),
     minimiseMany,
     async minimiseCover(fn: TruthTable, opts: MinimiseOptions = {}): Promise<MinimiseResult> {
       const [outcome] = await minimiseMany([fn], opts);
