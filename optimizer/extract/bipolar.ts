@@ -2,6 +2,7 @@
 // that can pull it down (series = AND, parallel = OR), each transistor's base resolved through its
 // base network (resistor = that net, several resistors = OR, DTL diode inputs with a pull-up = AND).
 import { and, not, or, TRUE, type Expr } from '../logic/expr';
+import type { FlatDevice } from '../netlist/ir';
 import type { BaseDrive, DriverGroup, Family, LogicNode, PullUp, SwitchNetwork } from './types';
 import {
   commonPath,
@@ -306,10 +307,17 @@ export class BaseResolver {
   }
 }
 
+/**
+ * The branches pullDownNetwork gathers, one scratch list per depth (a call only ever recurses one
+ * level deeper): only an exact-size copy is kept, so a list per call would be garbage at once.
+ */
+const scratchBranches: SwitchNetwork[][] = [];
+
 /** Pull-down network from a net to ground through NPN collector–emitter paths. */
 function pullDownNetwork(cx: ExtractContext, bases: BaseResolver, net: number, depth: number, used: number[]): SwitchNetwork | undefined {
   if (depth > 16) return undefined;
-  const branches: SwitchNetwork[] = [];
+  const branches = (scratchBranches[depth] ??= []);
+  empty(branches);
   const { offsets, termDev, termIdx } = cx;
   const start = offsets[net];
   const end = offsets[net + 1];
@@ -482,6 +490,15 @@ const scratchDrives: BaseDrive[] = [];
 
 const samePath = (p: string[], q: string[]): boolean => p === q || (p.length === q.length && p.every((x, i) => x === q[i]));
 
+/** Whether every branch's first switch was made in the instance at `path`. */
+function allFrom(devs: readonly FlatDevice[], branches: readonly SwitchNetwork[], path: string[]): boolean {
+  for (let i = 0; i < branches.length; i++) if (!samePath(devs[firstSwitch(branches[i])].path, path)) return false;
+  return true;
+}
+
+/** The switches of the group being built (collectorNode reads them, keeps none of the list). */
+const scratchSwitches: number[] = [];
+
 function collectorNode(cx: ExtractContext, bases: BaseResolver, net: number, dedup: DeviceSet): LogicNode | undefined {
   empty(scratchUsed);
   const pd = pullDownNetwork(cx, bases, net, 0, scratchUsed);
@@ -493,7 +510,7 @@ function collectorNode(cx: ExtractContext, bases: BaseResolver, net: number, ded
   const firstPath = devs[firstSwitch(branches[0])].path;
   // Common case: every branch made in one instance, one group; no path keys are built.
   let byPath: { key: string | undefined; path: string[]; brs: SwitchNetwork[] }[];
-  if (branches.every((br) => samePath(devs[firstSwitch(br)].path, firstPath))) byPath = [{ key: undefined, path: firstPath, brs: branches }];
+  if (allFrom(devs, branches, firstPath)) byPath = [{ key: undefined, path: firstPath, brs: branches }];
   else {
     const index = new Map<string, number>();
     byPath = [];
@@ -512,7 +529,9 @@ function collectorNode(cx: ExtractContext, bases: BaseResolver, net: number, ded
   for (const entry of byPath) {
     const brs = entry.brs;
     const network: SwitchNetwork = brs.length === 1 ? brs[0] : brs === branches ? pd : { type: 'parallel', parts: brs };
-    const switches = switchesOf(network);
+    const switches = scratchSwitches;
+    empty(switches);
+    switchesOf(network, switches);
     empty(scratchDrives);
     for (const sw of switches) scratchDrives.push(bases.drive(sw));
     const baseDrives = fit(scratchDrives);
