@@ -33,9 +33,10 @@ export interface Minimiser {
   /**
    * A minimiser of its own for one scan, whose answers depend only on the calls made through it;
    * close it when the scan ends. A heuristic minimiser's cover can depend on what the same
-   * process minimised before (Espresso's does), so a scan served by a long-lived minimiser could
-   * report other savings for the same design depending on what ran before it. Absent when every
-   * answer depends on its function alone.
+   * process minimised before (Espresso's reduce step alternates its cube order on every call,
+   * through a static flag in reduce.c), so a scan served by a long-lived minimiser could report
+   * other savings for the same design depending on what ran before it. Absent when every answer
+   * depends on its function alone.
    */
   session?(): Minimiser & { close(): void };
 }

@@ -219,8 +219,9 @@ describe('sessions', () => {
     };
     try {
       const alone = await inSession(second);
-      // Espresso's cover of a function depends on what its process minimised before: the same
-      // child, having minimised another function first, gives this one another cover.
+      // Espresso's cover of a function depends on what its process minimised before (reduce.c
+      // alternates its cube order on every call): the same child, having minimised another
+      // function first, gives this one another cover.
       await base.minimiseCover(first);
       const afterAnother = text(await base.minimiseCover(second));
       expect(afterAnother).not.toBe(alone);
