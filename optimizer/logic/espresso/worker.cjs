@@ -48,6 +48,7 @@ function memoryFile() {
 
 const fromPath = loadPathEntry();
 const file = fromPath && memoryFile();
+const LINE_BREAK = Buffer.from('\n');
 
 /**
  * Espresso on one PLA (bytes). The package's minimize() has the bridge write the text to a new
@@ -63,8 +64,6 @@ function minimise(bytes) {
   fs.ftruncateSync(file.fd, size);
   return fromPath(file.via);
 }
-
-const LINE_BREAK = Buffer.from('\n');
 
 // Each item is PLA text (lines joined by "\n") or a table payload { n, on, dc } whose rows are
 // written here (pla-rows.cjs, which checks the table first).
