@@ -9,14 +9,19 @@ import { validateDesign } from '@/optimizer/netlist/validate';
 
 const fixtures = path.resolve(__dirname, '../../../tests/fixtures/netlists');
 
-function errorsOf(text: string): string[] {
+/** The InputError reading `text` raises (any other outcome fails the test). */
+function refusal(text: string, file = 'd.cir'): InputError {
   try {
-    readSpice(text, 'd.cir');
+    readSpice(text, file);
   } catch (e) {
-    if (e instanceof InputError) return e.diagnostics.filter((d) => d.severity === 'error').map(formatDiagnostic);
+    if (e instanceof InputError) return e;
     throw e;
   }
   throw new Error('expected an InputError');
+}
+
+function errorsOf(text: string): string[] {
+  return refusal(text).diagnostics.filter((d) => d.severity === 'error').map(formatDiagnostic);
 }
 
 describe('parseSpiceNumber', () => {
@@ -154,15 +159,8 @@ describe('readSpice', () => {
 
   it('stops after a bounded number of errors on garbage input', () => {
     const text = 't\n' + 'L1 a b\n'.repeat(5000);
-    const e = (() => {
-      try {
-        readSpice(text, 'g.cir');
-      } catch (err) {
-        return err as InputError;
-      }
-    })();
-    expect(e).toBeInstanceOf(InputError);
-    expect(e!.diagnostics.length).toBeLessThanOrEqual(201);
+    const e = refusal(text, 'g.cir');
+    expect(e.diagnostics.length).toBeLessThanOrEqual(201);
   });
 });
 
@@ -205,16 +203,9 @@ describe('terminal counts gathered while reading', () => {
       'r1 a 0 1',
       'X1 a A',
     ].join('\n');
-    const e = (() => {
-      try {
-        readSpice(text, 'd.cir');
-      } catch (err) {
-        return err as InputError;
-      }
-    })();
-    expect(e).toBeInstanceOf(InputError);
+    const e = refusal(text, 'd.cir');
     // the refused V1 joins no cell, so the V1 after it is no repeat; a third R1 repeats the first
-    expect(e!.diagnostics.filter((d) => d.severity === 'error').map(formatDiagnostic)).toEqual([
+    expect(e.diagnostics.filter((d) => d.severity === 'error').map(formatDiagnostic)).toEqual([
       'd.cir:5:1: duplicate name R1 in A',
       'd.cir:6:1: duplicate name X1 in A',
       'd.cir:7:1: duplicate name R1 in A',
@@ -226,14 +217,7 @@ describe('terminal counts gathered while reading', () => {
 
   it('does not count the nets of a card that was refused', () => {
     // V1's nets are named before its bad value is found; b must still be a single-terminal net
-    const e = (() => {
-      try {
-        readSpice('t\nR1 a b 1k\nV1 b 0 bogus\nR2 a 0 1k\n', 'd.cir');
-      } catch (err) {
-        return err as InputError;
-      }
-    })();
-    expect(e).toBeInstanceOf(InputError);
-    expect(e!.diagnostics.map(formatDiagnostic)).toContain('d.cir:2:1: warning: net B in (top) touches only one terminal');
+    const e = refusal('t\nR1 a b 1k\nV1 b 0 bogus\nR2 a 0 1k\n', 'd.cir');
+    expect(e.diagnostics.map(formatDiagnostic)).toContain('d.cir:2:1: warning: net B in (top) touches only one terminal');
   });
 });
