@@ -199,10 +199,16 @@ function terminalList(ids: readonly number[], local: Int32Array, from: number, n
   }
 }
 
-/** Local net indices of some name lists, packed into one array with start offsets. */
-function pack(lists: string[][], idx: (n: string) => number): { ids: Int32Array; start: Int32Array } {
+/** Where each list starts when the lists are packed one after another (one more entry: the total). */
+function offsetsOf(lists: readonly (readonly string[])[]): Int32Array {
   const start = new Int32Array(lists.length + 1);
   for (let k = 0; k < lists.length; k++) start[k + 1] = start[k] + lists[k].length;
+  return start;
+}
+
+/** Local net indices of some name lists, packed into one array with start offsets. */
+function pack(lists: string[][], idx: (n: string) => number): { ids: Int32Array; start: Int32Array } {
+  const start = offsetsOf(lists);
   const ids = new Int32Array(start[lists.length]);
   let at = 0;
   for (const l of lists) for (let i = 0; i < l.length; i++) ids[at++] = idx(l[i]);
@@ -266,8 +272,7 @@ function fromReader(cell: Cell, given: CellNumbering): LocalNets | undefined {
     nets.push(names[i]);
   }
   const renumber = (lists: readonly (readonly string[])[], seq: IdSequence): { ids: Int32Array; start: Int32Array } | undefined => {
-    const start = new Int32Array(lists.length + 1);
-    for (let k = 0; k < lists.length; k++) start[k + 1] = start[k] + lists[k].length;
+    const start = offsetsOf(lists);
     if (start[lists.length] !== seq.length) return undefined;
     const ids = new Int32Array(seq.length);
     const { chunks } = seq;

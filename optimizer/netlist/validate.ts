@@ -19,12 +19,13 @@ export interface ValidateOptions {
    */
   netUse?: ReadonlyMap<Cell, NetUse>;
   /**
-   * The repeated device and instance names per cell that the reader found while building the
-   * cells, as this check reports them (devices' repeats, then instances'; one table for both, so
-   * a reader whose device and instance names can coincide must find those too); cells without an
-   * entry are checked here.
+   * The hashes of each cell's device names and of its instance names, added by the reader as it
+   * built the lists (so no list of millions is walked again to hash them). The two are checked
+   * apart, so a reader gives them only where a device's name and an instance's can never coincide
+   * (in a deck an instance's starts with X and a device's never does); cells without an entry get
+   * one check over both lists.
    */
-  repeatedNames?: ReadonlyMap<Cell, readonly Diagnostic[]>;
+  nameHashes?: ReadonlyMap<Cell, { devices: Repeats; instances: Repeats }>;
 }
 
 const NEEDS_MODEL = new Set(['npn', 'pnp', 'nmos', 'pmos', 'diode']);
@@ -39,7 +40,7 @@ export function validateDesign(design: Design, opts: ValidateOptions = {}): Diag
     out.push({ severity: 'error', code: 'netlist.no-top', message: `top ${noun} ${design.top} is not defined` });
   }
   for (const cell of Object.values(design.cells)) {
-    checkNames(cell, out, opts.repeatedNames?.get(cell));
+    checkNames(cell, out, opts.nameHashes?.get(cell));
     for (const inst of cell.instances) {
       const child = own(design.cells, inst.cell);
       if (!child) {
@@ -71,21 +72,22 @@ export function validateDesign(design: Design, opts: ValidateOptions = {}): Diag
   return out;
 }
 
-/** @param repeats the cell's repeated names as its reader found them, when it did */
-function checkNames(cell: Cell, out: Diagnostic[], repeats?: readonly Diagnostic[]): void {
-  if (repeats !== undefined) for (const d of repeats) out.push(d);
-  else {
-    // Exact comparison: deck readers have already upper-cased names, and Verilog names are case-sensitive.
-    // Devices and instances share one name space; large flat cells have millions of names.
-    const { devices, instances } = cell;
+/** @param hashes the hashes of the cell's device and instance names, where its reader gathered them */
+function checkNames(cell: Cell, out: Diagnostic[], hashes?: { devices: Repeats; instances: Repeats }): void {
+  // Exact comparison: deck readers have already upper-cased names, and Verilog names are case-sensitive.
+  // Devices and instances share one name space; large flat cells have millions of names.
+  const { devices, instances } = cell;
+  const repeated = (x: { name: string; loc?: Diagnostic['loc'] }) =>
+    out.push({ severity: 'error', code: 'netlist.duplicate-name', message: `duplicate name ${x.name} in ${cell.name}`, loc: x.loc });
+  if (hashes !== undefined) {
+    for (const k of hashes.devices.find((k) => devices[k].name)) repeated(devices[k]);
+    for (const k of hashes.instances.find((k) => instances[k].name)) repeated(instances[k]);
+  } else {
     const seen = new Repeats(devices.length + instances.length);
     for (const d of devices) seen.add(d.name);
     for (const i of instances) seen.add(i.name);
     const entry = (k: number) => (k < devices.length ? devices[k] : instances[k - devices.length]);
-    for (const k of seen.find((k) => entry(k).name)) {
-      const x = entry(k);
-      out.push({ severity: 'error', code: 'netlist.duplicate-name', message: `duplicate name ${x.name} in ${cell.name}`, loc: x.loc });
-    }
+    for (const k of seen.find((k) => entry(k).name)) repeated(entry(k));
   }
   const ports = new Set<string>();
   for (const p of cell.ports) {

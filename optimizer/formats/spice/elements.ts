@@ -69,10 +69,13 @@ function keep(ctx: ElementContext, name: string, instance = false): void {
   const r = ctx.reading!;
   const counts = r.use.counts;
   for (const i of ctx.pending) counts[i]++;
-  if (instance) r.instanceNames.add(name);
-  else r.deviceNames.add(name);
-  if (instance) r.numbering.instance(ctx.pending);
-  else r.numbering.device(ctx.pending);
+  if (instance) {
+    r.instanceNames.add(name);
+    r.numbering.instance(ctx.pending);
+  } else {
+    r.deviceNames.add(name);
+    r.numbering.device(ctx.pending);
+  }
   empty(ctx.pending);
 }
 

@@ -3,9 +3,9 @@
 // cannot use but a simulator needs (.tran, .control … .endc) are kept verbatim for writing back.
 import { InputError, type Diagnostic } from '../../errors';
 import { GROUND, type Cell, type Design, type Model, type SourceLoc } from '../../netlist/ir';
-import { validateDesign } from '../../netlist/validate';
-import type { NetUse } from '../../netlist/net-use';
+import { validateDesign, type ValidateOptions } from '../../netlist/validate';
 import type { Repeats } from '../../netlist/name-table';
+import type { NetUse } from '../../netlist/net-use';
 import { forEachCard, type Card, type Token, type TokenizeProblem } from './lines';
 import { netName, numericValue, valueOrText } from './values';
 import { readElement, type ElementContext } from './elements';
@@ -44,9 +44,9 @@ export function readSpice(text: string, file: string): ReadResult {
   };
   const at = (t: { line: number; col: number }): SourceLoc => ({ file, line: t.line, col: t.col });
   try {
-    const { design, netUse, repeatedNames } = read(text, file, report, at);
+    const { design, netUse, nameHashes } = read(text, file, report, at);
     // Structural checks run even after card errors so one upload reports every problem at once.
-    for (const d of validateDesign(design, { cellNoun: 'subcircuit', netUse, repeatedNames })) report(d.severity, d.code, d.message, d.loc);
+    for (const d of validateDesign(design, { cellNoun: 'subcircuit', netUse, nameHashes })) report(d.severity, d.code, d.message, d.loc);
     if (errors > 0) throw new InputError(sortDiagnostics(diags));
     return { design, diagnostics: sortDiagnostics(diags) };
   } catch (e) {
@@ -64,8 +64,8 @@ type Report = (severity: Diagnostic['severity'], code: string, message: string, 
 interface Read {
   design: Design;
   /** What validation would otherwise gather by walking every cell again (ValidateOptions). */
-  netUse: Map<Cell, NetUse>;
-  repeatedNames: Map<Cell, Diagnostic[]>;
+  netUse: NonNullable<ValidateOptions['netUse']>;
+  nameHashes: NonNullable<ValidateOptions['nameHashes']>;
 }
 
 function read(text: string, file: string, report: Report, at: (t: { line: number; col: number }) => SourceLoc): Read {
@@ -179,23 +179,15 @@ function read(text: string, file: string, report: Report, at: (t: { line: number
     report('error', 'spice.unterminated-subckt', `.subckt ${current.name} has no .ends`, current.loc);
   }
   const netUse = new Map<Cell, NetUse>();
-  const repeatedNames = new Map<Cell, Diagnostic[]>();
+  const nameHashes = new Map<Cell, { devices: Repeats; instances: Repeats }>();
   for (const [cell, r] of ctx.cells) {
     netUse.set(cell, r.use);
-    repeatedNames.set(cell, [...repeatsOf(cell, cell.devices, r.deviceNames), ...repeatsOf(cell, cell.instances, r.instanceNames)]);
+    // Devices and instances apart: an instance's name starts with X and a device's never does.
+    nameHashes.set(cell, { devices: r.deviceNames, instances: r.instanceNames });
     // The net numbering stays beside the cell for flatten (of the net table, only its names).
     r.numbering.keep(cell, r.use.names);
   }
-  return { design: { title, format: 'spice', top: SPICE_TOP, cells, models, globals, params, extraCards }, netUse, repeatedNames };
-}
-
-/**
- * The repeated names among a cell's devices (or instances), as validation words them. Device and
- * instance names are checked apart, which finds what one check over both would: an instance's
- * name starts with X and a device's never does.
- */
-function repeatsOf(cell: Cell, list: readonly { name: string; loc?: SourceLoc }[], names: Repeats): Diagnostic[] {
-  return names.find((i) => list[i].name).map((i) => ({ severity: 'error', code: 'netlist.duplicate-name', message: `duplicate name ${list[i].name} in ${cell.name}`, loc: list[i].loc }));
+  return { design: { title, format: 'spice', top: SPICE_TOP, cells, models, globals, params, extraCards }, netUse, nameHashes };
 }
 
 function readSubcktHeader(card: Card, cells: Record<string, Cell>, report: Report, at: (t: Token) => SourceLoc): Cell | null {
