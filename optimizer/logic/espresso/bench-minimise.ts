@@ -5,6 +5,7 @@
 // Both sides start from the same truth tables (building them from the design is the same for any
 // minimiser, so it is outside both timings).
 // Run: npx tsx optimizer/logic/espresso/bench-minimise.ts [--runs N]   (npm run bench prints it too)
+import { spawn } from 'node:child_process';
 import { createRequire } from 'node:module';
 import os from 'node:os';
 import { and, not, or, v } from '../expr';
@@ -102,7 +103,51 @@ interface Round {
   ours: number;
   aloneBare: number;
   alone: number;
+  /** The bare round trips (see Echo), summed like `alone`. */
+  trip: number;
 }
+
+/**
+ * The machine's share of the alone figure: a child that only echoes, asked over the same kind of
+ * pipe from the same event loop, between the same native calls. It runs no minimiser and checks
+ * nothing, so its processor time (both processes) is what any isolated call pays here to wake
+ * the child and be woken by its answer.
+ */
+class Echo {
+  private readonly proc = spawn(
+    process.execPath,
+    [
+      '-e',
+      `const fs = require('fs'); const b = Buffer.alloc(64);
+       for (;;) { if (fs.readSync(0, b, 0, 64, null) === 0) process.exit(0);
+         const u = process.cpuUsage(); b.writeDoubleLE(u.user + u.system, 0); fs.writeSync(1, b, 0, 8); }`,
+    ],
+    { stdio: ['pipe', 'pipe', 'inherit'] },
+  );
+  private waiting: (() => void) | undefined;
+  /** The child's processor time (µs) at its last answer. */
+  childCpu = 0;
+
+  constructor() {
+    this.proc.stdout.on('data', (d: Buffer) => {
+      this.childCpu = d.readDoubleLE(d.length - 8);
+      this.waiting?.();
+    });
+  }
+
+  trip(): Promise<void> {
+    return new Promise((resolve) => {
+      this.waiting = resolve;
+      this.proc.stdin.write(REQUEST);
+    });
+  }
+
+  close(): void {
+    this.proc.kill();
+  }
+}
+
+const REQUEST = Buffer.alloc(32, 1);
 
 const median = (xs: number[]) => {
   const s = [...xs].sort((a, b) => a - b);
@@ -114,9 +159,9 @@ const median = (xs: number[]) => {
  * every function alone on both sides (its own minimiseMany against its own pair of native calls),
  * processor time summed over the batch. Our side counts this process and the child.
  */
-async function round(m: EspressoMinimiser, tables: readonly TruthTable[], plas: readonly Pla[], r: number): Promise<Round> {
+async function round(m: EspressoMinimiser, echo: Echo, tables: readonly TruthTable[], plas: readonly Pla[], r: number): Promise<Round> {
   const childCpu = () => m.pool.childCpuMicros / 1000;
-  const t: Round = { bare: 0, ours: 0, aloneBare: 0, alone: 0 };
+  const t: Round = { bare: 0, ours: 0, aloneBare: 0, alone: 0, trip: 0 };
   const batchBare = async () => (t.bare = await timed(() => bare(plas)));
   const batchOurs = async () => (t.ours = await timed(async () => check(await ours(m, tables)), childCpu));
   for (const step of r % 2 ? [batchOurs, batchBare] : [batchBare, batchOurs]) await step();
@@ -127,7 +172,9 @@ async function round(m: EspressoMinimiser, tables: readonly TruthTable[], plas: 
       t.alone += await timed(async () => (answer = await ours(m, tables.slice(k, k + 1))), childCpu);
       check(answer);
     };
-    for (const step of (r + k) % 2 ? [o, b] : [b, o]) await step();
+    const e = async () => (t.trip += await timed(() => echo.trip(), () => echo.childCpu / 1000));
+    // Ours and the echo each follow a native call in every other step order.
+    for (const step of (r + k) % 2 ? [o, b, e] : [e, b, o]) await step();
   }
   return t;
 }
@@ -142,25 +189,26 @@ async function round(m: EspressoMinimiser, tables: readonly TruthTable[], plas: 
  */
 const WARM_CALLS = 2048;
 
-async function warmUp(m: EspressoMinimiser): Promise<void> {
+async function warmUp(m: EspressoMinimiser, echo: Echo): Promise<void> {
   const n = SIZES[0].n;
   const tables = Array.from({ length: 64 }, (_, k) => structured(n, n, 99 + 1000 * k));
   const plas = tables.map((t) => ({ on: [buildPlaText(t.outputs[0], n)], off: [buildPlaText(complementTable(t).outputs[0], n)] }));
-  for (let calls = 0; calls < WARM_CALLS; calls += tables.length + 1) await round(m, tables, plas, calls);
+  for (let calls = 0; calls < WARM_CALLS; calls += tables.length + 1) await round(m, echo, tables, plas, calls);
 }
 
-async function measure(m: EspressoMinimiser, n: number, batch: number, rounds: number): Promise<string[]> {
+async function measure(m: EspressoMinimiser, echo: Echo, n: number, batch: number, rounds: number): Promise<string[]> {
   const tables = Array.from({ length: batch }, (_, k) => structured(n, n, 7 + n + 1000 * k));
   const plas = tables.map((t) => ({ on: [buildPlaText(t.outputs[0], n)], off: [buildPlaText(complementTable(t).outputs[0], n)] }));
   const terms = native.minimize(plas[0].on).length;
   // One untimed round first: both sides' code is compiled and the child has run this size.
-  await round(m, tables, plas, 1);
+  await round(m, echo, tables, plas, 1);
   const all: Round[] = [];
-  for (let r = 0; r < rounds; r++) all.push(await round(m, tables, plas, r));
+  for (let r = 0; r < rounds; r++) all.push(await round(m, echo, tables, plas, r));
   const pct = (x: number) => `${x.toFixed(0)}`;
   const spread = (xs: number[]) => `${pct(Math.min(...xs))}..${pct(Math.max(...xs))}`;
   const batched = all.map((x) => (x.ours / x.bare - 1) * 100);
   const alone = all.map((x) => (x.alone / x.aloneBare - 1) * 100);
+  const trip = all.map((x) => (x.trip / x.aloneBare) * 100);
   return [
     String(n),
     String(batch),
@@ -174,6 +222,8 @@ async function measure(m: EspressoMinimiser, n: number, batch: number, rounds: n
     (median(all.map((x) => x.alone)) / batch).toFixed(2),
     pct(median(alone)),
     spread(alone),
+    ((median(all.map((x) => x.trip)) / batch) * 1000).toFixed(0),
+    pct(median(trip)),
   ];
 }
 
@@ -181,20 +231,22 @@ async function main() {
   const at = process.argv.indexOf('--runs');
   const runs = at > 0 ? Math.max(1, Number(process.argv[at + 1]) || 1) : 1;
   const m = createEspressoMinimiser({ size: 1 });
-  const header = ['inputs', 'batch', 'terms', 'rounds', 'bare ms/fn', 'ours ms/fn', 'overhead %', 'range %', 'alone bare ms/fn', 'alone ours ms/fn', 'alone %', 'alone range %'];
+  const echo = new Echo();
+  const header = ['inputs', 'batch', 'terms', 'rounds', 'bare ms/fn', 'ours ms/fn', 'overhead %', 'range %', 'alone bare ms/fn', 'alone ours ms/fn', 'alone %', 'alone range %', 'echo µs', 'echo %'];
   const rows: string[][] = [header];
   const loads: string[] = [];
   try {
     await m.minimiseCover(structured(6, 2, 1)); // start the child outside the timings
-    await warmUp(m);
+    await warmUp(m, echo);
     for (let run = 1; run <= runs; run++) {
       const before = os.loadavg()[0].toFixed(1);
-      for (const { n, batch, rounds } of SIZES) rows.push(await measure(m, n, batch, rounds));
+      for (const { n, batch, rounds } of SIZES) rows.push(await measure(m, echo, n, batch, rounds));
       loads.push(`run ${run}: load average ${before} before, ${os.loadavg()[0].toFixed(1)} after`);
       if (run < runs) rows.push(header.map(() => ''));
     }
   } finally {
     m.close();
+    echo.close();
   }
   const about = [
     'Processor time per function (function and complement minimised), this process and the child: the median of',
@@ -208,8 +260,10 @@ async function main() {
     'truth table. Espresso reads the same PLA text and does the same work on both sides. batch: the distinct',
     'functions of a size in one minimiseMany call, as a scan sends its blocks. alone: each function in a call of',
     'its own, as a scan of a small design sends its one block; its overhead is mostly the fixed cost of one round',
-    "trip (each process woken once), which grows with the machine's other load. Goal: overhead under 30 % at 8–14",
-    'inputs, batched and alone.',
+    "trip (each process woken once), which grows with the machine's other load. echo: that fixed cost alone, on",
+    'this machine: a round trip from the same event loop to a child that only echoes, timed between the same native',
+    'calls (both processes), per function and as a share of the alone bare time; alone % less echo % is what our',
+    'own code adds. Goal: overhead under 30 % at 8–14 inputs, batched and alone.',
   ];
   for (const line of about) console.log(line);
   for (const l of loads) console.log(l);
