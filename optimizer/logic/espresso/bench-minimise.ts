@@ -103,42 +103,50 @@ interface Round {
   ours: number;
   aloneBare: number;
   alone: number;
-  /** The bare round trips (see Echo), summed like `alone`. */
+  /** The stand-in's round trips less its busy time (see StandIn), summed like `alone`. */
   trip: number;
 }
 
 /**
- * The machine's share of the alone figure: a child that only echoes, asked over the same kind of
- * pipe from the same event loop, between the same native calls. It runs no minimiser and checks
- * nothing, so its processor time (both processes) is what any isolated call pays here to wake
- * the child and be woken by its answer.
+ * The machine's share of the alone figure: a stand-in child, asked over the same kind of pipe
+ * from the same event loop, that does nothing but stay busy for as long as the bare call of the
+ * same function took, then answers. Both processes then sleep and wake as they do around a real
+ * call (on this machine a wake costs more the longer the sleep), but nothing is minimised,
+ * framed or checked: its processor time less the busy time is what any isolated call pays here.
  */
-class Echo {
+class StandIn {
   private readonly proc = spawn(
     process.execPath,
     [
       '-e',
-      `const fs = require('fs'); const b = Buffer.alloc(64);
-       for (;;) { if (fs.readSync(0, b, 0, 64, null) === 0) process.exit(0);
+      `const fs = require('fs'); const b = Buffer.alloc(8);
+       for (;;) { if (fs.readSync(0, b, 0, 8, null) === 0) process.exit(0);
+         const until = process.hrtime.bigint() + BigInt(Math.round(b.readDoubleLE(0) * 1000));
+         while (process.hrtime.bigint() < until);
          const u = process.cpuUsage(); b.writeDoubleLE(u.user + u.system, 0); fs.writeSync(1, b, 0, 8); }`,
     ],
     { stdio: ['pipe', 'pipe', 'inherit'] },
   );
   private waiting: (() => void) | undefined;
-  /** The child's processor time (µs) at its last answer. */
+  /** The child's processor time (ms) at its last answer, less the busy time it was asked for. */
   childCpu = 0;
+  private busy = 0;
 
   constructor() {
     this.proc.stdout.on('data', (d: Buffer) => {
-      this.childCpu = d.readDoubleLE(d.length - 8);
+      this.childCpu = d.readDoubleLE(d.length - 8) / 1000 - this.busy;
       this.waiting?.();
     });
   }
 
-  trip(): Promise<void> {
+  /** One round trip, the child busy for `ms`. */
+  trip(ms: number): Promise<void> {
     return new Promise((resolve) => {
       this.waiting = resolve;
-      this.proc.stdin.write(REQUEST);
+      this.busy += ms;
+      const req = Buffer.alloc(8);
+      req.writeDoubleLE(ms * 1000, 0);
+      this.proc.stdin.write(req);
     });
   }
 
@@ -146,8 +154,6 @@ class Echo {
     this.proc.kill();
   }
 }
-
-const REQUEST = Buffer.alloc(32, 1);
 
 const median = (xs: number[]) => {
   const s = [...xs].sort((a, b) => a - b);
@@ -159,22 +165,23 @@ const median = (xs: number[]) => {
  * every function alone on both sides (its own minimiseMany against its own pair of native calls),
  * processor time summed over the batch. Our side counts this process and the child.
  */
-async function round(m: EspressoMinimiser, echo: Echo, tables: readonly TruthTable[], plas: readonly Pla[], r: number): Promise<Round> {
+async function round(m: EspressoMinimiser, echo: StandIn, tables: readonly TruthTable[], plas: readonly Pla[], r: number): Promise<Round> {
   const childCpu = () => m.pool.childCpuMicros / 1000;
   const t: Round = { bare: 0, ours: 0, aloneBare: 0, alone: 0, trip: 0 };
   const batchBare = async () => (t.bare = await timed(() => bare(plas)));
   const batchOurs = async () => (t.ours = await timed(async () => check(await ours(m, tables)), childCpu));
   for (const step of r % 2 ? [batchOurs, batchBare] : [batchBare, batchOurs]) await step();
   for (let k = 0; k < tables.length; k++) {
-    const b = async () => (t.aloneBare += await timed(() => bare(plas.slice(k, k + 1))));
+    let bareMs = 0;
+    const b = async () => (t.aloneBare += bareMs = await timed(() => bare(plas.slice(k, k + 1))));
     const o = async () => {
       let answer: Awaited<ReturnType<typeof ours>> = [];
       t.alone += await timed(async () => (answer = await ours(m, tables.slice(k, k + 1))), childCpu);
       check(answer);
     };
-    const e = async () => (t.trip += await timed(() => echo.trip(), () => echo.childCpu / 1000));
-    // Ours and the echo each follow a native call in every other step order.
-    for (const step of (r + k) % 2 ? [o, b, e] : [e, b, o]) await step();
+    const e = async () => (t.trip += await timed(() => echo.trip(bareMs), () => echo.childCpu));
+    // The stand-in follows the bare call (it is busy that long); ours follows it every other time.
+    for (const step of (r + k) % 2 ? [o, b, e] : [b, e, o]) await step();
   }
   return t;
 }
@@ -189,14 +196,14 @@ async function round(m: EspressoMinimiser, echo: Echo, tables: readonly TruthTab
  */
 const WARM_CALLS = 2048;
 
-async function warmUp(m: EspressoMinimiser, echo: Echo): Promise<void> {
+async function warmUp(m: EspressoMinimiser, echo: StandIn): Promise<void> {
   const n = SIZES[0].n;
   const tables = Array.from({ length: 64 }, (_, k) => structured(n, n, 99 + 1000 * k));
   const plas = tables.map((t) => ({ on: [buildPlaText(t.outputs[0], n)], off: [buildPlaText(complementTable(t).outputs[0], n)] }));
   for (let calls = 0; calls < WARM_CALLS; calls += tables.length + 1) await round(m, echo, tables, plas, calls);
 }
 
-async function measure(m: EspressoMinimiser, echo: Echo, n: number, batch: number, rounds: number): Promise<string[]> {
+async function measure(m: EspressoMinimiser, echo: StandIn, n: number, batch: number, rounds: number): Promise<string[]> {
   const tables = Array.from({ length: batch }, (_, k) => structured(n, n, 7 + n + 1000 * k));
   const plas = tables.map((t) => ({ on: [buildPlaText(t.outputs[0], n)], off: [buildPlaText(complementTable(t).outputs[0], n)] }));
   const terms = native.minimize(plas[0].on).length;
@@ -231,8 +238,8 @@ async function main() {
   const at = process.argv.indexOf('--runs');
   const runs = at > 0 ? Math.max(1, Number(process.argv[at + 1]) || 1) : 1;
   const m = createEspressoMinimiser({ size: 1 });
-  const echo = new Echo();
-  const header = ['inputs', 'batch', 'terms', 'rounds', 'bare ms/fn', 'ours ms/fn', 'overhead %', 'range %', 'alone bare ms/fn', 'alone ours ms/fn', 'alone %', 'alone range %', 'echo µs', 'echo %'];
+  const echo = new StandIn();
+  const header = ['inputs', 'batch', 'terms', 'rounds', 'bare ms/fn', 'ours ms/fn', 'overhead %', 'range %', 'alone bare ms/fn', 'alone ours ms/fn', 'alone %', 'alone range %', 'wake µs', 'wake %'];
   const rows: string[][] = [header];
   const loads: string[] = [];
   try {
@@ -260,10 +267,11 @@ async function main() {
     'truth table. Espresso reads the same PLA text and does the same work on both sides. batch: the distinct',
     'functions of a size in one minimiseMany call, as a scan sends its blocks. alone: each function in a call of',
     'its own, as a scan of a small design sends its one block; its overhead is mostly the fixed cost of one round',
-    "trip (each process woken once), which grows with the machine's other load. echo: that fixed cost alone, on",
-    'this machine: a round trip from the same event loop to a child that only echoes, timed between the same native',
-    'calls (both processes), per function and as a share of the alone bare time; alone % less echo % is what our',
-    'own code adds. Goal: overhead under 30 % at 8–14 inputs, batched and alone.',
+    "trip (each process sleeps and is woken once), which grows with the machine's other load. wake: that fixed",
+    'cost alone, on this machine: a round trip from the same event loop to a stand-in child that only stays busy as',
+    'long as the bare call took, less that busy time (both processes), per function and as a share of the alone',
+    'bare time; alone % less wake % is what our own code adds. Goal: overhead under 30 % at 8–14 inputs, batched',
+    'and alone.',
   ];
   for (const line of about) console.log(line);
   for (const l of loads) console.log(l);
