@@ -255,12 +255,22 @@ function scanSection(dir: string): void {
   printTable(header, rows);
 }
 
-/** The two-level minimiser's table (its own script, so it can also be run alone). */
+/**
+ * The two-level minimiser's table (its own script, so it can also be run alone), twice: with the
+ * two processes where the scheduler puts them, and both held on one processor. On a virtual
+ * machine whose processors run at different speeds for seconds at a time, the first compares the
+ * child's processor with this one as much as the two calls; the second compares the calls alone.
+ */
 function minimiseSection(): void {
-  const run = spawnSync(process.execPath, [...process.execArgv, path.resolve(__dirname, '../optimizer/logic/espresso/bench-minimise.ts')], { encoding: 'utf8' });
+  const script = [...process.execArgv, path.resolve(__dirname, '../optimizer/logic/espresso/bench-minimise.ts')];
   console.log('');
   console.log('two-level-minimise against the bare Espresso call (function and complement; goal: processor-time overhead under 30 % at 8–14 inputs, batched and alone)');
-  process.stdout.write(run.status === 0 ? run.stdout : `failed (status ${run.status})\n${run.stderr}\n`);
+  const placed = spawnSync(process.execPath, script, { encoding: 'utf8' });
+  process.stdout.write(placed.status === 0 ? placed.stdout : `failed (status ${placed.status})\n${placed.stderr}\n`);
+  const pinned = spawnSync('taskset', ['--cpu-list', '0', process.execPath, ...script, '--brief'], { encoding: 'utf8' });
+  console.log('');
+  if (pinned.error) console.log(`both processes on processor 0: not measured (taskset: ${pinned.error.message})`);
+  else process.stdout.write(pinned.status === 0 ? `both processes on processor 0 (taskset):\n${pinned.stdout}` : `failed (status ${pinned.status})\n${pinned.stderr}\n`);
 }
 
 function parent(): void {

@@ -4,7 +4,8 @@
 // native Espresso calls in-process on ready PLA text, on structured functions of 8–14 inputs.
 // Both sides start from the same truth tables (building them from the design is the same for any
 // minimiser, so it is outside both timings).
-// Run: npx tsx optimizer/logic/espresso/bench-minimise.ts [--runs N]   (npm run bench prints it too)
+// Run: npx tsx optimizer/logic/espresso/bench-minimise.ts [--runs N] [--brief]   (npm run bench prints
+// it twice: as placed, and under taskset on one processor; --brief leaves out the explanation)
 import { spawn } from 'node:child_process';
 import { createRequire } from 'node:module';
 import os from 'node:os';
@@ -273,7 +274,7 @@ async function main() {
     'bare time; alone % less wake % is what our own code adds. Goal: overhead under 30 % at 8–14 inputs, batched',
     'and alone.',
   ];
-  for (const line of about) console.log(line);
+  if (!process.argv.includes('--brief')) for (const line of about) console.log(line);
   for (const l of loads) console.log(l);
   const widths = header.map((_, c) => Math.max(...rows.map((r) => r[c].length)));
   for (const r of rows) console.log(r.map((x, c) => x.padStart(widths[c])).join('  '));
