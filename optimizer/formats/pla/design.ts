@@ -14,35 +14,50 @@ const CONST0 = 'CONST0';
 export function plaToDesign(pla: Pla, title = 'PLA'): Design {
   const devices: Device[] = [];
   const gate = (name: string, op: GateOp, terminals: string[]) => devices.push({ name, kind: 'gate', op, terminals, params: {} });
-  const inverted = new Set<number>();
+  // Inner nets never take a port's name (an input called a_N or CUBE0 would otherwise be shorted
+  // to the net of that name): a taken name gets a number.
+  const taken = new Set([...pla.inputs, ...pla.outputs]);
+  const fresh = (base: string) => {
+    let name = base;
+    for (let k = 2; taken.has(name); k++) name = `${base}_${k}`;
+    taken.add(name);
+    return name;
+  };
+  const inverse = new Map<number, string>();
+  const invert = (i: number) => {
+    let net = inverse.get(i);
+    if (net === undefined) inverse.set(i, (net = fresh(`${pla.inputs[i]}_N`)));
+    return net;
+  };
   const netKinds = dict<NonNullable<Cell['netKinds']>[string]>();
+  const constant = (kind: 'supply0' | 'supply1') => {
+    const found = Object.keys(netKinds).find((n) => netKinds[n] === kind);
+    if (found) return found;
+    const net = fresh(kind === 'supply1' ? CONST1 : CONST0);
+    netKinds[net] = kind;
+    return net;
+  };
   const cubeNets: string[] = [];
   pla.cubes.forEach((c, k) => {
     const lits: string[] = [];
     for (let i = 0; i < c.in.length; i++) {
       if (c.in[i] === '1') lits.push(pla.inputs[i]);
-      else if (c.in[i] === '0') {
-        inverted.add(i);
-        lits.push(`${pla.inputs[i]}_N`);
-      }
+      else if (c.in[i] === '0') lits.push(invert(i));
     }
-    if (lits.length === 0) {
-      netKinds[CONST1] = 'supply1';
-      cubeNets.push(CONST1);
-    } else if (lits.length === 1) cubeNets.push(lits[0]);
+    if (lits.length === 0) cubeNets.push(constant('supply1'));
+    else if (lits.length === 1) cubeNets.push(lits[0]);
     else {
-      gate(`AND${k}`, 'and', [`CUBE${k}`, ...lits]);
-      cubeNets.push(`CUBE${k}`);
+      const net = fresh(`CUBE${k}`);
+      gate(`AND${k}`, 'and', [net, ...lits]);
+      cubeNets.push(net);
     }
   });
-  for (const i of [...inverted].sort((a, b) => a - b)) gate(`INV_${pla.inputs[i]}`, 'not', [`${pla.inputs[i]}_N`, pla.inputs[i]]);
+  for (const i of [...inverse.keys()].sort((a, b) => a - b)) gate(`INV_${pla.inputs[i]}`, 'not', [inverse.get(i)!, pla.inputs[i]]);
   pla.outputs.forEach((o, j) => {
     // fr/fdr list the off-set too; the on-set (1s) defines the function either way.
     const terms = pla.cubes.flatMap((c, k) => (c.out[j] === '1' ? [cubeNets[k]] : []));
-    if (terms.length === 0) {
-      netKinds[CONST0] = 'supply0';
-      gate(`OR_${o}`, 'buf', [o, CONST0]);
-    } else if (terms.length === 1) gate(`OR_${o}`, 'buf', [o, terms[0]]);
+    if (terms.length === 0) gate(`OR_${o}`, 'buf', [o, constant('supply0')]);
+    else if (terms.length === 1) gate(`OR_${o}`, 'buf', [o, terms[0]]);
     else gate(`OR_${o}`, 'or', [o, ...terms]);
   });
   const directions = dict<'input' | 'output'>();

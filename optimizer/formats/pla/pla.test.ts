@@ -39,6 +39,13 @@ describe('readPla / writePla', () => {
     ['.i 2\n.o 1\n.type q\n', 'f.pla:3:1: .type must be f, fd, fr or fdr'],
     ['.i 2\n.o 1\n.phase 1\n', 'f.pla:3:1: unsupported PLA keyword .phase'],
     ['.i two\n.o 1\n', 'f.pla:1:1: .i needs one whole number (0–1024)'],
+    ['.i 2\n.o 1\n  .ilb a\n', 'f.pla:3:3: .ilb names 1 inputs but .i is 2'],
+    // Two ports of one name would be one net: located at the repeat the file wrote.
+    ['.i 2\n.o 1\n.ilb a  a\n.ob y\n11 1\n', 'f.pla:3:9: a names two ports'],
+    ['.i 2\n.o 1\n.ilb a b\n.ob b\n11 1\n', 'f.pla:4:5: b names two ports'],
+    // An output named like an unnamed input (found by the readers' fuzz test).
+    ['.i 2\n.o 1\n.ob x1\n11 1\n', 'f.pla:3:5: x1 names two ports (without .ilb the inputs are named x0, x1, …)'],
+    ['.i 1\n.o 1\n.ilb f0\n1 1\n', 'f.pla:3:6: f0 names two ports (without .ob the outputs are named f0, f1, …)'],
   ])('%j → %s', (text, message) => {
     expect(errorsOf(text)).toContain(message);
   });
@@ -67,6 +74,21 @@ describe('PLA ↔ gate-level design', () => {
       cells: { c: { name: 'c', ports: ['a', 'y'], directions: { a: 'input' as const, y: 'output' as const }, devices, instances: [] } },
     };
     expect(designToPla(design).cubes).toEqual([{ in: '1', out: '1' }]);
+  });
+
+  it('keeps inner nets apart from ports that bear their names', () => {
+    // Inputs named like the inverted-input, cube and constant nets the bridge makes.
+    const text = '.i 3\n.o 2\n.ilb a a_N CUBE0\n.ob CONST1 CONST0\n0-1 10\n-0- 10\n1-- 00\n.e\n';
+    const pla = readPla(text, 'n.pla');
+    const table = designToPla(plaToDesign(pla));
+    // Truth table by hand: CONST1 = a'·CUBE0 + a_N'; CONST0 is always 0.
+    const expected = [];
+    for (let m = 0; m < 8; m++) {
+      const [a, aN, c] = [(m >> 2) & 1, (m >> 1) & 1, m & 1];
+      if ((!a && c) || !aN) expected.push(m.toString(2).padStart(3, '0'));
+    }
+    expect(table.cubes.map((c) => c.in)).toEqual(expected);
+    expect(table.cubes.every((c) => c.out === '10')).toBe(true);
   });
 
   it('handles constant outputs', () => {

@@ -24,8 +24,11 @@ export function readPla(text: string, file: string): Pla {
   };
   let ni: number | undefined;
   let no: number | undefined;
-  let ilb: string[] | undefined;
-  let ob: string[] | undefined;
+  let ilb: Names | undefined;
+  let ob: Names | undefined;
+  /** Where .i and .o are: the ports they name when .ilb or .ob is missing are placed there. */
+  let iAt: Place = { line: 1, col: 1 };
+  let oAt: Place = { line: 1, col: 1 };
   let declaredP: { n: number; line: number } | undefined;
   let type: PlaType = 'fd';
   const cubes: Pla['cubes'] = [];
@@ -46,18 +49,21 @@ export function readPla(text: string, file: string): Pla {
         }
         return n;
       };
+      const here = { line: lineNo, col: at + 1 };
       switch (kw) {
         case '.i':
           ni = count();
+          iAt = here;
           break;
         case '.o':
           no = count();
+          oAt = here;
           break;
         case '.ilb':
-          ilb = args;
+          ilb = names(raw, here);
           break;
         case '.ob':
-          ob = args;
+          ob = names(raw, here);
           break;
         case '.p': {
           const n = Number(args[0]);
@@ -101,18 +107,57 @@ export function readPla(text: string, file: string): Pla {
   }
   if (ni === undefined) error('missing .i (number of inputs)', 1, 1);
   if (no === undefined) error('missing .o (number of outputs)', 1, 1);
-  if (ilb && ni !== undefined && ilb.length !== ni) error(`.ilb names ${ilb.length} inputs but .i is ${ni}`, 1, 1);
-  if (ob && no !== undefined && ob.length !== no) error(`.ob names ${ob.length} outputs but .o is ${no}`, 1, 1);
+  if (ilb && ni !== undefined && ilb.names.length !== ni) error(`.ilb names ${ilb.names.length} inputs but .i is ${ni}`, ilb.at.line, ilb.at.col);
+  if (ob && no !== undefined && ob.names.length !== no) error(`.ob names ${ob.names.length} outputs but .o is ${no}`, ob.at.line, ob.at.col);
   if (declaredP && diags.length === 0 && declaredP.n !== cubes.length) {
     error(`.p says ${declaredP.n} cubes but there are ${cubes.length}`, declaredP.line, 1);
   }
   if (diags.length > 0) throw new InputError(diags);
-  return {
-    inputs: ilb ?? Array.from({ length: ni! }, (_, k) => `x${k}`),
-    outputs: ob ?? Array.from({ length: no! }, (_, k) => `f${k}`),
-    cubes,
-    type,
-  };
+  const inputs = ilb ?? defaults('x', ni!, iAt);
+  const outputs = ob ?? defaults('f', no!, oAt);
+  // Every input and output is a port of the design: two of one name would be one net.
+  const seen = new Map<string, Place>();
+  const unnamed = [!ilb && 'without .ilb the inputs are named x0, x1, …', !ob && 'without .ob the outputs are named f0, f1, …'].filter(Boolean);
+  const why = unnamed.length ? ` (${unnamed.join('; ')})` : '';
+  for (const [side, written] of [[inputs, ilb], [outputs, ob]] as const) {
+    side.names.forEach((n, k) => {
+      const first = seen.get(n);
+      if (!first) return void seen.set(n, side.places[k]);
+      // At the repeat where the file wrote it, else at the name it repeats.
+      const place = written ? side.places[k] : first;
+      error(`${n} names two ports${why}`, place.line, place.col);
+    });
+  }
+  if (diags.length > 0) throw new InputError(diags);
+  return { inputs: inputs.names, outputs: outputs.names, cubes, type };
+}
+
+interface Place {
+  line: number;
+  col: number;
+}
+
+/** The names on an .ilb or .ob line, each with its column, and where the keyword is. */
+interface Names {
+  names: string[];
+  places: Place[];
+  at: Place;
+}
+
+function names(raw: string, at: Place): Names {
+  const out: Names = { names: [], places: [], at };
+  const token = /\S+/g;
+  token.exec(raw); // the keyword
+  for (let m = token.exec(raw); m; m = token.exec(raw)) {
+    out.names.push(m[0]);
+    out.places.push({ line: at.line, col: m.index + 1 });
+  }
+  return out;
+}
+
+/** The names the reader gives unnamed ports (x0, x1, … or f0, f1, …), placed at their count's line. */
+function defaults(prefix: string, count: number, at: Place): Names {
+  return { names: Array.from({ length: count }, (_, k) => `${prefix}${k}`), places: Array.from({ length: count }, () => at), at };
 }
 
 export function writePla(pla: Pla): string {
