@@ -265,12 +265,13 @@ function minimiseSection(): void {
   const script = [...process.execArgv, path.resolve(__dirname, '../optimizer/logic/espresso/bench-minimise.ts')];
   console.log('');
   console.log('two-level-minimise against the bare Espresso call (function and complement; goal: processor-time overhead under 30 % at 8–14 inputs, batched and alone)');
-  const placed = spawnSync(process.execPath, script, { encoding: 'utf8' });
-  process.stdout.write(placed.status === 0 ? placed.stdout : `failed (status ${placed.status})\n${placed.stderr}\n`);
-  const pinned = spawnSync('taskset', ['--cpu-list', '0', process.execPath, ...script, '--brief'], { encoding: 'utf8' });
+  const show = (run: ReturnType<typeof spawnSync>, title = '') =>
+    process.stdout.write(run.status === 0 ? `${title}${String(run.stdout)}` : `failed (status ${run.status})\n${String(run.stderr)}\n`);
+  show(spawnSync(process.execPath, script, { encoding: 'utf8' }));
   console.log('');
+  const pinned = spawnSync('taskset', ['--cpu-list', '0', process.execPath, ...script, '--brief'], { encoding: 'utf8' });
   if (pinned.error) console.log(`both processes on processor 0: not measured (taskset: ${pinned.error.message})`);
-  else process.stdout.write(pinned.status === 0 ? `both processes on processor 0 (taskset):\n${pinned.stdout}` : `failed (status ${pinned.status})\n${pinned.stderr}\n`);
+  else show(pinned, 'both processes on processor 0 (taskset):\n');
 }
 
 function parent(): void {

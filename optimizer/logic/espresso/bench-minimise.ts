@@ -166,7 +166,7 @@ const median = (xs: number[]) => {
  * every function alone on both sides (its own minimiseMany against its own pair of native calls),
  * processor time summed over the batch. Our side counts this process and the child.
  */
-async function round(m: EspressoMinimiser, echo: StandIn, tables: readonly TruthTable[], plas: readonly Pla[], r: number): Promise<Round> {
+async function round(m: EspressoMinimiser, standIn: StandIn, tables: readonly TruthTable[], plas: readonly Pla[], r: number): Promise<Round> {
   const childCpu = () => m.pool.childCpuMicros / 1000;
   const t: Round = { bare: 0, ours: 0, aloneBare: 0, alone: 0, trip: 0 };
   const batchBare = async () => (t.bare = await timed(() => bare(plas)));
@@ -180,9 +180,9 @@ async function round(m: EspressoMinimiser, echo: StandIn, tables: readonly Truth
       t.alone += await timed(async () => (answer = await ours(m, tables.slice(k, k + 1))), childCpu);
       check(answer);
     };
-    const e = async () => (t.trip += await timed(() => echo.trip(bareMs), () => echo.childCpu));
+    const w = async () => (t.trip += await timed(() => standIn.trip(bareMs), () => standIn.childCpu));
     // The stand-in follows the bare call (it is busy that long); ours follows it every other time.
-    for (const step of (r + k) % 2 ? [o, b, e] : [b, e, o]) await step();
+    for (const step of (r + k) % 2 ? [o, b, w] : [b, w, o]) await step();
   }
   return t;
 }
@@ -197,21 +197,21 @@ async function round(m: EspressoMinimiser, echo: StandIn, tables: readonly Truth
  */
 const WARM_CALLS = 2048;
 
-async function warmUp(m: EspressoMinimiser, echo: StandIn): Promise<void> {
+async function warmUp(m: EspressoMinimiser, standIn: StandIn): Promise<void> {
   const n = SIZES[0].n;
   const tables = Array.from({ length: 64 }, (_, k) => structured(n, n, 99 + 1000 * k));
   const plas = tables.map((t) => ({ on: [buildPlaText(t.outputs[0], n)], off: [buildPlaText(complementTable(t).outputs[0], n)] }));
-  for (let calls = 0; calls < WARM_CALLS; calls += tables.length + 1) await round(m, echo, tables, plas, calls);
+  for (let calls = 0; calls < WARM_CALLS; calls += tables.length + 1) await round(m, standIn, tables, plas, calls);
 }
 
-async function measure(m: EspressoMinimiser, echo: StandIn, n: number, batch: number, rounds: number): Promise<string[]> {
+async function measure(m: EspressoMinimiser, standIn: StandIn, n: number, batch: number, rounds: number): Promise<string[]> {
   const tables = Array.from({ length: batch }, (_, k) => structured(n, n, 7 + n + 1000 * k));
   const plas = tables.map((t) => ({ on: [buildPlaText(t.outputs[0], n)], off: [buildPlaText(complementTable(t).outputs[0], n)] }));
   const terms = native.minimize(plas[0].on).length;
   // One untimed round first: both sides' code is compiled and the child has run this size.
-  await round(m, echo, tables, plas, 1);
+  await round(m, standIn, tables, plas, 1);
   const all: Round[] = [];
-  for (let r = 0; r < rounds; r++) all.push(await round(m, echo, tables, plas, r));
+  for (let r = 0; r < rounds; r++) all.push(await round(m, standIn, tables, plas, r));
   const pct = (x: number) => `${x.toFixed(0)}`;
   const spread = (xs: number[]) => `${pct(Math.min(...xs))}..${pct(Math.max(...xs))}`;
   const batched = all.map((x) => (x.ours / x.bare - 1) * 100);
@@ -239,22 +239,22 @@ async function main() {
   const at = process.argv.indexOf('--runs');
   const runs = at > 0 ? Math.max(1, Number(process.argv[at + 1]) || 1) : 1;
   const m = createEspressoMinimiser({ size: 1 });
-  const echo = new StandIn();
+  const standIn = new StandIn();
   const header = ['inputs', 'batch', 'terms', 'rounds', 'bare ms/fn', 'ours ms/fn', 'overhead %', 'range %', 'alone bare ms/fn', 'alone ours ms/fn', 'alone %', 'alone range %', 'wake µs', 'wake %'];
   const rows: string[][] = [header];
   const loads: string[] = [];
   try {
     await m.minimiseCover(structured(6, 2, 1)); // start the child outside the timings
-    await warmUp(m, echo);
+    await warmUp(m, standIn);
     for (let run = 1; run <= runs; run++) {
       const before = os.loadavg()[0].toFixed(1);
-      for (const { n, batch, rounds } of SIZES) rows.push(await measure(m, echo, n, batch, rounds));
+      for (const { n, batch, rounds } of SIZES) rows.push(await measure(m, standIn, n, batch, rounds));
       loads.push(`run ${run}: load average ${before} before, ${os.loadavg()[0].toFixed(1)} after`);
       if (run < runs) rows.push(header.map(() => ''));
     }
   } finally {
     m.close();
-    echo.close();
+    standIn.close();
   }
   const about = [
     'Processor time per function (function and complement minimised), this process and the child: the median of',
