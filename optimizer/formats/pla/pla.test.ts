@@ -41,7 +41,7 @@ describe('readPla / writePla', () => {
     ['.i two\n.o 1\n', 'f.pla:1:1: .i needs one whole number (0–1024)'],
     ['.i 2\n.o 1\n  .ilb a\n', 'f.pla:3:3: .ilb names 1 inputs but .i is 2'],
     // Two ports of one name would be one net: located at the repeat the file wrote.
-    ['.i 2\n.o 1\n.ilb a  a\n.ob y\n11 1\n', 'f.pla:3:9: a names two ports'],
+    ['.i 2\n.o 1\n.ilb a  a\n11 1\n', 'f.pla:3:9: a names two ports'],
     ['.i 2\n.o 1\n.ilb a b\n.ob b\n11 1\n', 'f.pla:4:5: b names two ports'],
     // An output named like an unnamed input (found by the readers' fuzz test).
     ['.i 2\n.o 1\n.ob x1\n11 1\n', 'f.pla:3:5: x1 names two ports (without .ilb the inputs are named x0, x1, …)'],

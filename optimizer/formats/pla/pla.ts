@@ -116,16 +116,19 @@ export function readPla(text: string, file: string): Pla {
   const inputs = ilb ?? defaults('x', ni!, iAt);
   const outputs = ob ?? defaults('f', no!, oAt);
   // Every input and output is a port of the design: two of one name would be one net.
-  const seen = new Map<string, Place>();
-  const unnamed = [!ilb && 'without .ilb the inputs are named x0, x1, …', !ob && 'without .ob the outputs are named f0, f1, …'].filter(Boolean);
-  const why = unnamed.length ? ` (${unnamed.join('; ')})` : '';
-  for (const [side, written] of [[inputs, ilb], [outputs, ob]] as const) {
-    side.names.forEach((n, k) => {
+  const sides = [
+    { side: inputs, written: ilb !== undefined, hint: 'without .ilb the inputs are named x0, x1, …' },
+    { side: outputs, written: ob !== undefined, hint: 'without .ob the outputs are named f0, f1, …' },
+  ];
+  const seen = new Map<string, { place: Place; from: (typeof sides)[number] }>();
+  for (const from of sides) {
+    from.side.names.forEach((n, k) => {
       const first = seen.get(n);
-      if (!first) return void seen.set(n, side.places[k]);
+      if (!first) return void seen.set(n, { place: from.side.places[k], from });
       // At the repeat where the file wrote it, else at the name it repeats.
-      const place = written ? side.places[k] : first;
-      error(`${n} names two ports${why}`, place.line, place.col);
+      const place = from.written ? from.side.places[k] : first.place;
+      const hints = [...new Set([first.from, from])].filter((x) => !x.written).map((x) => x.hint);
+      error(`${n} names two ports${hints.length ? ` (${hints.join('; ')})` : ''}`, place.line, place.col);
     });
   }
   if (diags.length > 0) throw new InputError(diags);
