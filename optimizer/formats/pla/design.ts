@@ -30,11 +30,10 @@ export function plaToDesign(pla: Pla, title = 'PLA'): Design {
     return net;
   };
   const netKinds = dict<NonNullable<Cell['netKinds']>[string]>();
+  const constants: Partial<Record<'supply0' | 'supply1', string>> = {};
   const constant = (kind: 'supply0' | 'supply1') => {
-    const found = Object.keys(netKinds).find((n) => netKinds[n] === kind);
-    if (found) return found;
-    const net = fresh(kind === 'supply1' ? CONST1 : CONST0);
-    netKinds[net] = kind;
+    let net = constants[kind];
+    if (net === undefined) netKinds[(net = constants[kind] = fresh(kind === 'supply1' ? CONST1 : CONST0))] = kind;
     return net;
   };
   const cubeNets: string[] = [];

@@ -105,7 +105,7 @@ interface Round {
   aloneBare: number;
   alone: number;
   /** The stand-in's round trips less its busy time (see StandIn), summed like `alone`. */
-  trip: number;
+  wake: number;
 }
 
 /**
@@ -168,7 +168,7 @@ const median = (xs: number[]) => {
  */
 async function round(m: EspressoMinimiser, standIn: StandIn, tables: readonly TruthTable[], plas: readonly Pla[], r: number): Promise<Round> {
   const childCpu = () => m.pool.childCpuMicros / 1000;
-  const t: Round = { bare: 0, ours: 0, aloneBare: 0, alone: 0, trip: 0 };
+  const t: Round = { bare: 0, ours: 0, aloneBare: 0, alone: 0, wake: 0 };
   const batchBare = async () => (t.bare = await timed(() => bare(plas)));
   const batchOurs = async () => (t.ours = await timed(async () => check(await ours(m, tables)), childCpu));
   for (const step of r % 2 ? [batchOurs, batchBare] : [batchBare, batchOurs]) await step();
@@ -180,7 +180,7 @@ async function round(m: EspressoMinimiser, standIn: StandIn, tables: readonly Tr
       t.alone += await timed(async () => (answer = await ours(m, tables.slice(k, k + 1))), childCpu);
       check(answer);
     };
-    const w = async () => (t.trip += await timed(() => standIn.trip(bareMs), () => standIn.childCpu));
+    const w = async () => (t.wake += await timed(() => standIn.trip(bareMs), () => standIn.childCpu));
     // The stand-in follows the bare call (it is busy that long); ours follows it every other time.
     for (const step of (r + k) % 2 ? [o, b, w] : [b, w, o]) await step();
   }
@@ -216,7 +216,7 @@ async function measure(m: EspressoMinimiser, standIn: StandIn, n: number, batch:
   const spread = (xs: number[]) => `${pct(Math.min(...xs))}..${pct(Math.max(...xs))}`;
   const batched = all.map((x) => (x.ours / x.bare - 1) * 100);
   const alone = all.map((x) => (x.alone / x.aloneBare - 1) * 100);
-  const trip = all.map((x) => (x.trip / x.aloneBare) * 100);
+  const wake = all.map((x) => (x.wake / x.aloneBare) * 100);
   return [
     String(n),
     String(batch),
@@ -230,8 +230,8 @@ async function measure(m: EspressoMinimiser, standIn: StandIn, n: number, batch:
     (median(all.map((x) => x.alone)) / batch).toFixed(2),
     pct(median(alone)),
     spread(alone),
-    ((median(all.map((x) => x.trip)) / batch) * 1000).toFixed(0),
-    pct(median(trip)),
+    ((median(all.map((x) => x.wake)) / batch) * 1000).toFixed(0),
+    pct(median(wake)),
   ];
 }
 
